@@ -1,0 +1,518 @@
+package monomial
+
+import (
+	"errors"
+	"fmt"
+	"math"
+	"math/big"
+	"math/bits"
+	"slices"
+)
+
+// Add returns p + q.
+func (p *Poly) Add(q *Poly) *Poly {
+	sameVars(p, q)
+	return merge(p, q, false)
+}
+
+// Sub returns p - q.
+func (p *Poly) Sub(q *Poly) *Poly {
+	sameVars(p, q)
+	return merge(p, q, true)
+}
+
+// merge adds (or subtracts) two sorted term lists in one pass.
+func merge(p, q *Poly, negate bool) *Poly {
+	r := &Poly{vars: p.vars, exps: make([]int, 0, len(p.exps)+len(q.exps)), coefs: make([]coef, 0, len(p.coefs)+len(q.coefs))}
+	i, j := 0, 0
+	for i < len(p.coefs) || j < len(q.coefs) {
+		var c int
+		switch {
+		case i == len(p.coefs):
+			c = 1
+		case j == len(q.coefs):
+			c = -1
+		default:
+			c = cmpTerms(p.exp(i), q.exp(j))
+		}
+		switch {
+		case c < 0:
+			r.exps = append(r.exps, p.exp(i)...)
+			r.coefs = append(r.coefs, p.coefs[i])
+			i++
+		case c > 0:
+			qc := q.coefs[j]
+			if negate {
+				qc = qc.neg()
+			}
+			r.exps = append(r.exps, q.exp(j)...)
+			r.coefs = append(r.coefs, qc)
+			j++
+		default:
+			var s coef
+			if negate {
+				s = p.coefs[i].sub(q.coefs[j])
+			} else {
+				s = p.coefs[i].add(q.coefs[j])
+			}
+			if !s.isZero() {
+				r.exps = append(r.exps, p.exp(i)...)
+				r.coefs = append(r.coefs, s)
+			}
+			i++
+			j++
+		}
+	}
+	return r
+}
+
+// Neg returns -p.
+func (p *Poly) Neg() *Poly {
+	r := &Poly{vars: p.vars, exps: p.exps, coefs: make([]coef, len(p.coefs))}
+	for i, c := range p.coefs {
+		r.coefs[i] = c.neg()
+	}
+	return r
+}
+
+// Scale returns c·p.
+func (p *Poly) Scale(c *big.Rat) *Poly {
+	return p.scale(coefFromRat(c))
+}
+
+func (p *Poly) scale(c coef) *Poly {
+	if c.isZero() {
+		return &Poly{vars: p.vars}
+	}
+	r := &Poly{vars: p.vars, exps: p.exps, coefs: make([]coef, len(p.coefs))}
+	for i, d := range p.coefs {
+		r.coefs[i] = d.mul(c)
+	}
+	return r
+}
+
+// Mul returns p·q. Exponents of the product must stay below 2^62 (a caller
+// mistake otherwise; Mul panics).
+func (p *Poly) Mul(q *Poly) *Poly {
+	sameVars(p, q)
+	r, err := mul(p, q, -1, 0)
+	if err != nil {
+		panic(err) // unreachable: no limits were given
+	}
+	return r
+}
+
+// errTooManyTerms is returned by mul when the product exceeds the term limit.
+var errTooManyTerms = errors.New("monomial: too many terms")
+
+// mul returns p·q without the terms of total degree > maxDeg (when maxDeg >=
+// 0), failing with errTooManyTerms as soon as more than maxTerms distinct
+// exponents appear (when maxTerms > 0).
+//
+// The fast path packs each exponent vector into one uint64 with a bit field
+// per variable wide enough for the largest exponent of the product, with the
+// first variable in the most significant bits. Then the key of a product of
+// two terms is the sum of their keys, and comparing keys compares exponents
+// lexicographically. Products are accumulated in an open-addressing hash
+// table from key to term, and the terms are sorted once at the end.
+func mul(p, q *Poly, maxDeg, maxTerms int) (*Poly, error) {
+	n := len(p.vars)
+	if len(p.coefs) == 0 || len(q.coefs) == 0 {
+		return &Poly{vars: p.vars}, nil
+	}
+	if len(q.coefs) > len(p.coefs) {
+		p, q = q, p // outer loop over the longer polynomial
+	}
+	degP, degQ := termDegrees(p), termDegrees(q)
+	maxP, maxQ := maxExponents(p), maxExponents(q)
+	width := make([]uint, n)
+	total := uint(0)
+	for i := range n {
+		s := maxP[i] + maxQ[i]
+		if s < maxP[i] || s >= 1<<62 {
+			panic("monomial: exponent overflow in Mul")
+		}
+		width[i] = uint(bits.Len(uint(s)))
+		total += width[i]
+	}
+	if total > 64 {
+		return mulGeneric(p, q, degP, degQ, maxDeg, maxTerms)
+	}
+	shift := make([]uint, n)
+	s := total
+	for i := range n {
+		s -= width[i]
+		shift[i] = s
+	}
+	pack := func(e []int) uint64 {
+		var k uint64
+		for i, x := range e {
+			k |= uint64(x) << shift[i]
+		}
+		return k
+	}
+	keyP := make([]uint64, len(p.coefs))
+	for i := range keyP {
+		keyP[i] = pack(p.exp(i))
+	}
+	keyQ := make([]uint64, len(q.coefs))
+	for j := range keyQ {
+		keyQ[j] = pack(q.exp(j))
+	}
+
+	var t hashTable
+	t.init(len(p.coefs) + len(q.coefs))
+	for i, kp := range keyP {
+		cp := p.coefs[i]
+		j0 := 0
+		if maxDeg >= 0 {
+			// q is sorted by descending degree: skip its terms of too high degree.
+			lim := maxDeg - degP[i]
+			if lim < 0 {
+				continue
+			}
+			for j0 < len(degQ) && degQ[j0] > lim {
+				j0++
+			}
+		}
+		for j := j0; j < len(keyQ); j++ {
+			slot := t.slot(kp + keyQ[j])
+			t.coefs[slot] = t.coefs[slot].addMul(cp, q.coefs[j])
+		}
+		if maxTerms > 0 && len(t.keys) > maxTerms {
+			return nil, errTooManyTerms
+		}
+	}
+	// Sort the live terms by (degree desc, key desc) = term order.
+	type item struct {
+		deg int
+		key uint64
+		c   coef
+	}
+	items := make([]item, 0, len(t.keys))
+	for i, k := range t.keys {
+		if c := t.coefs[i]; !c.isZero() {
+			d := 0
+			for v := range n {
+				d += int((k >> shift[v]) & (1<<width[v] - 1))
+			}
+			items = append(items, item{d, k, c})
+		}
+	}
+	slices.SortFunc(items, func(a, b item) int {
+		if a.deg != b.deg {
+			return b.deg - a.deg
+		}
+		switch {
+		case a.key > b.key:
+			return -1
+		case a.key < b.key:
+			return 1
+		}
+		return 0
+	})
+	r := &Poly{vars: p.vars, exps: make([]int, len(items)*n), coefs: make([]coef, len(items))}
+	for j, it := range items {
+		e := r.exps[j*n : (j+1)*n]
+		for v := range n {
+			e[v] = int((it.key >> shift[v]) & (1<<width[v] - 1))
+		}
+		r.coefs[j] = it.c
+	}
+	return r, nil
+}
+
+// mulGeneric is mul for exponents too wide to pack into 64 bits.
+func mulGeneric(p, q *Poly, degP, degQ []int, maxDeg, maxTerms int) (*Poly, error) {
+	n := len(p.vars)
+	acc := newAccumulator(p.vars)
+	e := make([]int, n)
+	for i := range p.coefs {
+		if maxDeg >= 0 && degP[i] > maxDeg {
+			continue
+		}
+		ep := p.exp(i)
+		for j := range q.coefs {
+			if maxDeg >= 0 && degP[i]+degQ[j] > maxDeg {
+				continue
+			}
+			for v, k := range q.exp(j) {
+				e[v] = ep[v] + k
+			}
+			acc.add(e, p.coefs[i].mul(q.coefs[j]))
+		}
+		if maxTerms > 0 && acc.len() > maxTerms {
+			return nil, errTooManyTerms
+		}
+	}
+	return acc.poly(), nil
+}
+
+func termDegrees(p *Poly) []int {
+	d := make([]int, len(p.coefs))
+	for i := range d {
+		d[i] = Exponent(p.exp(i)).Degree()
+	}
+	return d
+}
+
+func maxExponents(p *Poly) []int {
+	m := make([]int, len(p.vars))
+	for i := range p.coefs {
+		for v, k := range p.exp(i) {
+			m[v] = max(m[v], k)
+		}
+	}
+	return m
+}
+
+// hashTable maps packed exponent keys to accumulated coefficients, with
+// open addressing and linear probing.
+type hashTable struct {
+	slots []int32 // index+1 into keys/coefs, 0 for empty
+	mask  uint64
+	shift uint
+	keys  []uint64
+	coefs []coef
+}
+
+func (t *hashTable) init(hint int) {
+	size := 16
+	for size < 2*hint {
+		size <<= 1
+	}
+	t.slots = make([]int32, size)
+	t.mask = uint64(size - 1)
+	t.shift = uint(64 - bits.Len(uint(size-1)))
+	t.keys = make([]uint64, 0, hint)
+	t.coefs = make([]coef, 0, hint)
+}
+
+// slot returns the index of key's entry, creating a zero entry if needed.
+func (t *hashTable) slot(key uint64) int {
+	h := (key * 0x9E3779B97F4A7C15) >> t.shift
+	for {
+		s := t.slots[h]
+		if s == 0 {
+			break
+		}
+		if t.keys[s-1] == key {
+			return int(s - 1)
+		}
+		h = (h + 1) & t.mask
+	}
+	if 2*(len(t.keys)+1) > len(t.slots) {
+		t.grow()
+		return t.slot(key)
+	}
+	t.keys = append(t.keys, key)
+	t.coefs = append(t.coefs, coefZero)
+	t.slots[h] = int32(len(t.keys))
+	return len(t.keys) - 1
+}
+
+func (t *hashTable) grow() {
+	size := 2 * len(t.slots)
+	t.slots = make([]int32, size)
+	t.mask = uint64(size - 1)
+	t.shift = uint(64 - bits.Len(uint(size-1)))
+	for i, k := range t.keys {
+		h := (k * 0x9E3779B97F4A7C15) >> t.shift
+		for t.slots[h] != 0 {
+			h = (h + 1) & t.mask
+		}
+		t.slots[h] = int32(i + 1)
+	}
+}
+
+// Limits guard against runaway expansion. A zero field means its default.
+type Limits struct {
+	// MaxTerms bounds the number of terms of a result (and of intermediate
+	// results while parsing). Default 2,000,000.
+	MaxTerms int
+	// MaxExponent bounds the exponent n of a power p^n, checked before any
+	// work. Default 10,000.
+	MaxExponent int
+	// MaxOrder bounds Config.Order, the total degree of truncated series.
+	// Default 1,000.
+	MaxOrder int
+	// MaxBits bounds the estimated size in bits (numerator plus denominator)
+	// of a coefficient of a power, checked before expanding. Default
+	// 1,000,000 (about 300,000 decimal digits).
+	MaxBits int
+}
+
+// Default limits, used for the zero fields of a Limits.
+const (
+	DefaultMaxTerms    = 2_000_000
+	DefaultMaxExponent = 10_000
+	DefaultMaxOrder    = 1_000
+	DefaultMaxBits     = 1_000_000
+)
+
+func (l Limits) withDefaults() Limits {
+	if l.MaxTerms <= 0 {
+		l.MaxTerms = DefaultMaxTerms
+	}
+	if l.MaxExponent <= 0 {
+		l.MaxExponent = DefaultMaxExponent
+	}
+	if l.MaxOrder <= 0 {
+		l.MaxOrder = DefaultMaxOrder
+	}
+	if l.MaxBits <= 0 {
+		l.MaxBits = DefaultMaxBits
+	}
+	return l
+}
+
+// LimitError reports that a computation was refused because its result
+// would exceed a field of Limits.
+type LimitError struct {
+	Limit string  // name of the Limits field, e.g. "MaxTerms"
+	Value float64 // the estimated or requested size
+	Max   int     // the limit in force
+	What  string  // what was being computed
+}
+
+func (e *LimitError) Error() string {
+	switch e.Limit {
+	case "MaxExponent":
+		return fmt.Sprintf("monomial: %s: exponent %.0f exceeds the limit %d (Limits.MaxExponent)", e.What, e.Value, e.Max)
+	case "MaxTerms":
+		return fmt.Sprintf("monomial: %s would have up to %.3g terms, more than the limit %d (Limits.MaxTerms)", e.What, e.Value, e.Max)
+	case "MaxBits":
+		return fmt.Sprintf("monomial: %s would have coefficients of about %.3g bits, more than the limit %d (Limits.MaxBits)", e.What, e.Value, e.Max)
+	case "MaxOrder":
+		return fmt.Sprintf("monomial: %s: order %.0f exceeds the limit %d (Limits.MaxOrder)", e.What, e.Value, e.Max)
+	}
+	return fmt.Sprintf("monomial: %s exceeds %s = %d", e.What, e.Limit, e.Max)
+}
+
+// Pow returns p^n for n >= 0 (p^0 = 1, also for p = 0). Before expanding it
+// estimates the result and returns a *LimitError, without doing the work,
+// when n exceeds lim.MaxExponent, when an upper bound on the number of terms
+// exceeds lim.MaxTerms, or when the estimated coefficient size exceeds
+// lim.MaxBits. The term bound is the least of the number of multisets of n
+// terms of p, the number of exponents in the box n·[min_i, max_i], and the
+// number of monomials of total degree at most n·Degree(p).
+func (p *Poly) Pow(n int, lim Limits) (*Poly, error) {
+	lim = lim.withDefaults()
+	if n < 0 {
+		return nil, fmt.Errorf("monomial: Pow: negative exponent %d", n)
+	}
+	if n > lim.MaxExponent {
+		return nil, &LimitError{Limit: "MaxExponent", Value: float64(n), Max: lim.MaxExponent, What: "power"}
+	}
+	if est := p.powTermBound(n); est > float64(lim.MaxTerms) {
+		return nil, &LimitError{Limit: "MaxTerms", Value: est, Max: lim.MaxTerms, What: fmt.Sprintf("power ^%d of a %d-term polynomial", n, p.Len())}
+	}
+	if est := p.powBitsBound(n); est > float64(lim.MaxBits) {
+		return nil, &LimitError{Limit: "MaxBits", Value: est, Max: lim.MaxBits, What: fmt.Sprintf("power ^%d", n)}
+	}
+	if n > 0 && len(p.coefs) > 0 {
+		if md := slices.Max(maxExponents(p)); md > 0 && n > (1<<62)/md {
+			return nil, &LimitError{Limit: "MaxExponent", Value: float64(n), Max: lim.MaxExponent, What: "power"}
+		}
+	}
+	return p.pow(n, -1, lim.MaxTerms)
+}
+
+// pow computes p^n, truncated to total degree maxDeg when maxDeg >= 0.
+func (p *Poly) pow(n, maxDeg, maxTerms int) (*Poly, error) {
+	if n == 0 {
+		return constPoly(p.vars, coefOne), nil
+	}
+	if len(p.coefs) == 0 {
+		return &Poly{vars: p.vars}, nil
+	}
+	if len(p.coefs) == 1 {
+		e := slices.Clone(p.exp(0))
+		d := 0
+		for i := range e {
+			e[i] *= n
+			d += e[i]
+		}
+		if maxDeg >= 0 && d > maxDeg {
+			return &Poly{vars: p.vars}, nil
+		}
+		return &Poly{vars: p.vars, exps: e, coefs: []coef{p.coefs[0].powInt(n)}}, nil
+	}
+	if maxDeg >= 0 {
+		p = p.Truncate(maxDeg)
+		if m := p.MinDegree(); m > 0 && n > maxDeg/m {
+			return &Poly{vars: p.vars}, nil
+		}
+	}
+	// Repeated multiplication by p: for sparse p the intermediate powers are
+	// much smaller than the squares that binary powering would form.
+	r := p
+	for k := 2; k <= n; k++ {
+		var err error
+		if r, err = mul(r, p, maxDeg, maxTerms); err != nil {
+			return nil, err
+		}
+	}
+	return r, nil
+}
+
+// powTermBound returns an upper bound on the number of terms of p^n.
+func (p *Poly) powTermBound(n int) float64 {
+	t := len(p.coefs)
+	if t <= 1 || n <= 1 {
+		return float64(t)
+	}
+	multisets := binomialF(float64(n+t-1), float64(t-1))
+	box := 1.0
+	lo := make([]int, len(p.vars))
+	for i := range lo {
+		lo[i] = math.MaxInt
+	}
+	hi := maxExponents(p)
+	active := 0
+	for i := range p.coefs {
+		for v, k := range p.exp(i) {
+			lo[v] = min(lo[v], k)
+		}
+	}
+	for v := range hi {
+		if hi[v] > lo[v] {
+			active++
+			box *= float64(n)*float64(hi[v]-lo[v]) + 1
+		}
+	}
+	deg := float64(n) * float64(p.Degree())
+	monomials := binomialF(deg+float64(active), float64(active))
+	return math.Min(multisets, math.Min(box, monomials))
+}
+
+// powBitsBound estimates the size in bits of the coefficients of p^n: the
+// coefficients of p^n are bounded by (Σ|num|)^n over a common denominator
+// at most (Π den)^n.
+func (p *Poly) powBitsBound(n int) float64 {
+	if len(p.coefs) == 0 {
+		return 0
+	}
+	sum, den := 0.0, 0.0
+	for _, c := range p.coefs {
+		b := float64(c.bitLen())
+		sum = math.Max(sum, b)
+		if c.big != nil {
+			den += float64(c.big.Denom().BitLen())
+		} else {
+			den += float64(bits.Len64(uint64(c.den)))
+		}
+	}
+	return float64(n) * (sum + den + math.Log2(float64(len(p.coefs))))
+}
+
+// binomialF returns C(n, k) in floating point (+Inf if huge).
+func binomialF(n, k float64) float64 {
+	if k < 0 || k > n {
+		return 0
+	}
+	a, _ := math.Lgamma(n + 1)
+	b, _ := math.Lgamma(k + 1)
+	c, _ := math.Lgamma(n - k + 1)
+	return math.Exp(a - b - c)
+}

@@ -1,0 +1,3 @@
+// Package monomial provides exact sparse multivariate polynomials with
+// rational coefficients, an expression parser, and truncated power series.
+package monomial
