@@ -1,0 +1,81 @@
+package main
+
+import (
+	"encoding/json"
+	"fmt"
+	"math/big"
+
+	"github.com/lctkit/lctkit/monomial"
+)
+
+// expandCmd prints the canonical expansion of an expression.
+type expandCmd struct {
+	Expr  string `arg:"" help:"The expression, or - to read it from standard input."`
+	Order int    `help:"Truncate power series at this total degree (needed for exp, log, sin, … and division by non-constants)." placeholder:"D"`
+	At    string `help:"Translate to this point first: the result is a polynomial in w − w*." placeholder:"x=1/2,y=0"`
+	Vars  string `help:"Variables that come first, in this order (others follow in natural order)." placeholder:"x,y,z"`
+	JSON  bool   `help:"Print one JSON object."`
+}
+
+// Help is shown under the command's usage.
+func (c *expandCmd) Help() string {
+	return "Example:\n  lctkit expand '(x + y)^3 - x*y' --at x=1\n  lctkit expand 'exp(x*y) - 1' --order 4"
+}
+
+// expandJSON is the output of expand --json.
+type expandJSON struct {
+	Polynomial string   `json:"polynomial"`
+	Variables  []string `json:"variables"`
+	Terms      int      `json:"terms"`
+	Degree     int      `json:"degree"`
+	Order      int      `json:"order,omitempty"`
+	Truncated  bool     `json:"truncated"`
+}
+
+// Run expands the expression.
+func (c *expandCmd) Run(e *env) error {
+	src, err := readExpr(c.Expr, e)
+	if err != nil {
+		return err
+	}
+	vars, err := splitNames(c.Vars)
+	if err != nil {
+		return err
+	}
+	var names []string
+	var point []*big.Rat
+	if c.At != "" {
+		names, point, err = monomial.ParseBindings(c.At)
+		if err != nil {
+			printError(e.stderr, "--at", c.At, err)
+			return exitError{exitFailed}
+		}
+	}
+	ex, err := monomial.Parse(src, monomial.Config{Vars: appendNew(vars, names...), Order: c.Order})
+	if err != nil {
+		printError(e.stderr, "", src, err)
+		return exitError{exitFailed}
+	}
+	p := ex.Poly
+	if point != nil {
+		full := make([]*big.Rat, p.NumVars())
+		for i, v := range p.Vars() {
+			full[i] = new(big.Rat)
+			for j, n := range names {
+				if n == v {
+					full[i] = point[j]
+				}
+			}
+		}
+		if ex.Truncated {
+			return fmt.Errorf("--at: the expression is a power series truncated around 0, and its truncation cannot be moved to another point; write it in shifted variables instead")
+		}
+		p = p.Translate(full)
+	}
+	if c.JSON {
+		enc := json.NewEncoder(e.stdout)
+		return enc.Encode(expandJSON{Polynomial: p.String(), Variables: p.Vars(), Terms: p.Len(), Degree: p.Degree(), Order: ex.Order, Truncated: ex.Truncated})
+	}
+	fmt.Fprintln(e.stdout, p.String())
+	return nil
+}
