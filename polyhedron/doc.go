@@ -1,0 +1,2 @@
+// Package polyhedron computes with Newton polyhedra in exact arithmetic.
+package polyhedron

@@ -1,0 +1,385 @@
+package polyhedron
+
+import (
+	"errors"
+	"fmt"
+	"math"
+	"math/big"
+	"math/bits"
+	"slices"
+	"sync"
+)
+
+// Sentinel errors. Errors returned by this package wrap one of these (test with errors.Is).
+var (
+	// ErrEmpty is returned by New for an empty point set.
+	ErrEmpty = errors.New("polyhedron: empty point set")
+	// ErrDimension is returned by New for d < 1 or a point whose length is not d.
+	ErrDimension = errors.New("polyhedron: dimension mismatch")
+	// ErrNegative is returned by New for a point with a negative coordinate.
+	ErrNegative = errors.New("polyhedron: negative exponent")
+	// ErrDirection is returned by Distance for a direction that is not a
+	// vector of d strictly positive rationals.
+	ErrDirection = errors.New("polyhedron: direction must have d positive entries")
+	// ErrNotBoundary is returned by FaceAt for a point not on the boundary of P.
+	ErrNotBoundary = errors.New("polyhedron: point is not on the boundary")
+	// ErrTooLarge is returned when a documented work limit (see Limits) is exceeded.
+	ErrTooLarge = errors.New("polyhedron: work limit exceeded")
+)
+
+// Newton is the Newton polyhedron P = conv(A) + R^d_{>=0} of a finite set A of
+// exponent vectors. It is built once by New and then queried; all methods are
+// safe for concurrent use (the facet enumeration is computed once, lazily).
+type Newton struct {
+	d        int
+	minimal  [][]int // Pareto-minimal points, sorted lexicographically
+	vertices [][]int // vertices of P, sorted lexicographically
+	maxCoord int64   // largest coordinate of any vertex
+	limits   Limits
+
+	facetsOnce sync.Once
+	facets     []Facet
+	facetsErr  error
+	// incidence data computed with the facets
+	vertexFacets [][]uint64 // per vertex: bitset over facets containing it
+
+	latticeOnce sync.Once
+	lattice     *Lattice
+	latticeErr  error
+}
+
+// Limits bounds the work of the full enumerations (Facets, CompactFaces).
+// A zero field means the default.
+type Limits struct {
+	// MaxRays bounds the number of intermediate rays kept by the double
+	// description method in Facets (default 2,000,000).
+	MaxRays int
+	// MaxFaces bounds the number of compact faces built by CompactFaces
+	// (default 1,000,000).
+	MaxFaces int
+}
+
+const (
+	defaultMaxRays  = 2_000_000
+	defaultMaxFaces = 1_000_000
+)
+
+// New builds the Newton polyhedron of points in dimension d >= 1. The points
+// are copied. It returns an error wrapping ErrEmpty, ErrDimension or
+// ErrNegative (naming the offending point and coordinate) for bad input.
+//
+// New computes the Pareto-minimal points (a skyline filter: sort by
+// coordinate sum, then test each point only against minimal points with a
+// smaller sum and a support contained in its own) and then the vertices of P:
+// a minimal point p is a vertex of P exactly when it is a vertex of the
+// Newton polyhedron of the minimal points whose support lies in supp(p)
+// (restricted to those coordinates), which is decided by cheap sufficient
+// tests (unique minimiser of a linear order) or else by one exact LP.
+func New(d int, points [][]int) (*Newton, error) {
+	return NewWithLimits(d, points, Limits{})
+}
+
+// NewWithLimits is New with explicit work limits for the enumerations.
+func NewWithLimits(d int, points [][]int, lim Limits) (*Newton, error) {
+	if d < 1 {
+		return nil, fmt.Errorf("%w: d = %d, want d >= 1", ErrDimension, d)
+	}
+	if len(points) == 0 {
+		return nil, ErrEmpty
+	}
+	for k, p := range points {
+		if len(p) != d {
+			return nil, fmt.Errorf("%w: point %d has %d coordinates, want %d", ErrDimension, k, len(p), d)
+		}
+		for i, v := range p {
+			if v < 0 {
+				return nil, fmt.Errorf("%w: point %d coordinate %d is %d", ErrNegative, k, i, v)
+			}
+		}
+	}
+	if lim.MaxRays <= 0 {
+		lim.MaxRays = defaultMaxRays
+	}
+	if lim.MaxFaces <= 0 {
+		lim.MaxFaces = defaultMaxFaces
+	}
+	n := &Newton{d: d, limits: lim}
+	n.minimal = paretoMinimal(d, points)
+	n.vertices = vertexFilter(d, n.minimal)
+	for _, v := range n.vertices {
+		for _, x := range v {
+			n.maxCoord = max(n.maxCoord, int64(x))
+		}
+	}
+	return n, nil
+}
+
+// Dim returns the dimension d of the ambient space.
+func (n *Newton) Dim() int { return n.d }
+
+// Minimal returns the Pareto-minimal input points (those not dominated
+// coordinatewise by another input point), without duplicates, sorted
+// lexicographically. The caller must not modify the result.
+func (n *Newton) Minimal() [][]int { return n.minimal }
+
+// Vertices returns the vertices of P sorted lexicographically. Indices in Hit,
+// Face and Facet refer to this slice. The caller must not modify the result.
+func (n *Newton) Vertices() [][]int { return n.vertices }
+
+// support returns the bitset of nonzero coordinates of p.
+func support(p []int, words int) []uint64 {
+	s := make([]uint64, words)
+	for i, v := range p {
+		if v != 0 {
+			s[i/64] |= 1 << (i % 64)
+		}
+	}
+	return s
+}
+
+func subset(a, b []uint64) bool { // a ⊆ b
+	for k := range a {
+		if a[k]&^b[k] != 0 {
+			return false
+		}
+	}
+	return true
+}
+
+func dominates(q, p []int) bool { // q <= p coordinatewise
+	for i := range q {
+		if q[i] > p[i] {
+			return false
+		}
+	}
+	return true
+}
+
+func sum64(p []int) int64 {
+	var s int64
+	for _, v := range p {
+		s += int64(v)
+	}
+	return s
+}
+
+// paretoMinimal returns the distinct points not dominated by another point,
+// sorted lexicographically.
+func paretoMinimal(d int, points [][]int) [][]int {
+	order := make([]int, len(points))
+	sums := make([]int64, len(points))
+	for k := range order {
+		order[k] = k
+		sums[k] = sum64(points[k])
+	}
+	slices.SortFunc(order, func(a, b int) int {
+		if sums[a] != sums[b] {
+			if sums[a] < sums[b] {
+				return -1
+			}
+			return 1
+		}
+		return slices.Compare(points[a], points[b])
+	})
+	words := (d + 63) / 64
+	var kept [][]int
+	var keptSupp [][]uint64
+	bySupport := map[uint64][]int{} // support mask -> indices into kept (only when d <= 64)
+	var prev []int
+	for _, k := range order {
+		p := points[k]
+		if prev != nil && slices.Equal(prev, p) {
+			continue
+		}
+		prev = p
+		sp := support(p, words)
+		dominated := false
+		pop := 0
+		for _, w := range sp {
+			pop += bits.OnesCount64(w)
+		}
+		if d <= 64 && pop < 20 && 1<<pop < len(kept) {
+			// enumerate the subsets of supp(p)
+			mask := sp[0]
+			for sub := mask; ; sub = (sub - 1) & mask {
+				for _, j := range bySupport[sub] {
+					if dominates(kept[j], p) {
+						dominated = true
+						break
+					}
+				}
+				if dominated || sub == 0 {
+					break
+				}
+			}
+		} else {
+			for j, q := range kept {
+				if subset(keptSupp[j], sp) && dominates(q, p) {
+					dominated = true
+					break
+				}
+			}
+		}
+		if dominated {
+			continue
+		}
+		c := slices.Clone(p)
+		if d <= 64 {
+			bySupport[sp[0]] = append(bySupport[sp[0]], len(kept))
+		}
+		kept = append(kept, c)
+		keptSupp = append(keptSupp, sp)
+	}
+	slices.SortFunc(kept, slices.Compare)
+	return kept
+}
+
+// vertexFilter returns the vertices of the Newton polyhedron of the
+// Pareto-minimal points pts (sorted; the result keeps the order).
+func vertexFilter(d int, pts [][]int) [][]int {
+	words := (d + 63) / 64
+	supp := make([][]uint64, len(pts))
+	bySupport := map[string][]int{}
+	for k, p := range pts {
+		supp[k] = support(p, words)
+		key := bitsKey(supp[k])
+		bySupport[key] = append(bySupport[key], k)
+	}
+	var out [][]int
+	for k, p := range pts {
+		// Q: the other points whose support lies in supp(p).
+		var q []int
+		pop := 0
+		for _, w := range supp[k] {
+			pop += bits.OnesCount64(w)
+		}
+		if d <= 64 && pop < 20 && 1<<pop < len(pts) {
+			mask := supp[k][0]
+			for sub := mask; ; sub = (sub - 1) & mask {
+				q = append(q, bySupport[bitsKey([]uint64{sub})]...)
+				if sub == 0 {
+					break
+				}
+			}
+		} else {
+			for j := range pts {
+				if subset(supp[j], supp[k]) {
+					q = append(q, j)
+				}
+			}
+		}
+		q = slices.DeleteFunc(q, func(j int) bool { return j == k })
+		if isVertex(p, pts, q) {
+			out = append(out, p)
+		}
+	}
+	return out
+}
+
+func bitsKey(s []uint64) string {
+	b := make([]byte, 8*len(s))
+	for k, w := range s {
+		for i := 0; i < 8; i++ {
+			b[8*k+i] = byte(w >> (8 * i))
+		}
+	}
+	return string(b)
+}
+
+// isVertex decides whether p is a vertex of conv({p} ∪ pts[q]) + orthant,
+// where every pts[j], j in q, has support inside supp(p) and p is
+// Pareto-minimal (so no pts[j] dominates p).
+func isVertex(p []int, pts [][]int, q []int) bool {
+	if len(q) == 0 {
+		return true
+	}
+	var coords []int
+	for i, v := range p {
+		if v != 0 {
+			coords = append(coords, i)
+		}
+	}
+	// Sufficient tests: p is the unique minimiser of a linear functional with
+	// positive weights (coordinate sum; lexicographic orders starting at
+	// each coordinate, which are limits of positive weights).
+	ps := sum64(p)
+	unique := true
+	for _, j := range q {
+		if sum64(pts[j]) <= ps {
+			unique = false
+			break
+		}
+	}
+	if unique {
+		return true
+	}
+	for s := range coords {
+		unique = true
+		for _, j := range q {
+			c := 0
+			for t := 0; t < len(coords) && c == 0; t++ {
+				i := coords[(s+t)%len(coords)]
+				c = pts[j][i] - p[i]
+			}
+			if c <= 0 { // c == 0 impossible for distinct points with support in coords
+				unique = false
+				break
+			}
+		}
+		if unique {
+			return true
+		}
+	}
+	// Exact LP: shoot from p in direction −(1,…,1) within the coordinates of
+	// supp(p); p is a vertex iff min{t : p + t·1 ∈ conv(Q) + orthant} > 0.
+	sub := make([][]int, len(q))
+	for k, j := range q {
+		sub[k] = make([]int, len(coords))
+		for t, i := range coords {
+			sub[k][t] = pts[j][i]
+		}
+	}
+	x0 := make([]*big.Rat, len(coords))
+	tau := make([]*big.Rat, len(coords))
+	for t, i := range coords {
+		x0[t] = new(big.Rat).SetInt64(int64(p[i]))
+		tau[t] = big.NewRat(1, 1)
+	}
+	s := shoot(sub, x0, tau)
+	return s.t.Sign() > 0
+}
+
+// checkedDot returns a·v for an int64 vector a and a point v, and false on
+// int64 overflow.
+func checkedDot(a []int64, v []int) (int64, bool) {
+	var s int64
+	for i, x := range v {
+		if x == 0 || a[i] == 0 {
+			continue
+		}
+		if a[i] == math.MinInt64 {
+			return 0, false
+		}
+		hi, lo := bits.Mul64(uint64(abs64(a[i])), uint64(x))
+		if hi != 0 || lo > math.MaxInt64/2 {
+			return 0, false
+		}
+		term := int64(lo)
+		if a[i] < 0 {
+			term = -term
+		}
+		ns := s + term
+		if (term > 0 && ns < s) || (term < 0 && ns > s) {
+			return 0, false
+		}
+		s = ns
+	}
+	return s, true
+}
+
+func abs64(x int64) int64 {
+	if x < 0 {
+		return -x
+	}
+	return x
+}
