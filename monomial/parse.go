@@ -4,33 +4,59 @@ import (
 	"errors"
 	"fmt"
 	"math/big"
+	"slices"
+	"strings"
 )
 
-// Config controls Parse.
+// Config controls Parse and ParseList.
 type Config struct {
-	Vars   []string
-	Order  int
+	// Vars lists variables that come first in the variable list of the
+	// result, in this order. It may include variables absent from the text.
+	// The remaining identifiers of the text follow in natural order: text
+	// is compared piecewise, runs of letters and underscores as text and
+	// runs of digits as numbers, so w2 < w10 < x < x1 < x2.
+	Vars []string
+	// Order, if > 0, asks for the Taylor polynomial of total degree <= Order
+	// of the expression around 0 (a truncated power series). If 0, the
+	// expression must be a polynomial, and anything else (a function, a
+	// division by a non-constant, a negative or fractional power) is an
+	// error asking for an order.
+	Order int
+	// Limits guard against runaway expansion; zero fields take defaults.
 	Limits Limits
 }
 
-// Expansion is what Parse returns.
+// Expansion is the result of parsing one expression.
 type Expansion struct {
-	Poly      *Poly
-	Order     int
+	// Poly is the polynomial; with Order > 0 it has no term of total degree
+	// above Order.
+	Poly *Poly
+	// Order is the Config.Order used.
+	Order int
+	// Truncated is true when terms of total degree > Order were or may have
+	// been dropped: the expression is not a polynomial (it involves a
+	// function, a division by a non-constant or a non-integer power), or it
+	// is a polynomial with terms above Order. False means Poly is exactly
+	// the value of the expression.
 	Truncated bool
 }
 
-// Error is a parse error with a position.
+// Error is a parse error with a position in the source text. Offset is the
+// byte offset; Line and Col are 1-based, and Col counts runes.
 type Error struct {
 	Offset, Line, Col int
 	Msg               string
 }
 
+// Error returns "line:col: message".
 func (e *Error) Error() string { return fmt.Sprintf("%d:%d: %s", e.Line, e.Col, e.Msg) }
 
-// ErrorList is a list of parse errors.
+// ErrorList is a list of parse errors, in source order, as returned by
+// ParseList when several expressions fail.
 type ErrorList []*Error
 
+// Error returns the first error followed by "(and N more errors)" when
+// there are more.
 func (l ErrorList) Error() string {
 	switch len(l) {
 	case 0:
@@ -41,22 +67,731 @@ func (l ErrorList) Error() string {
 	return fmt.Sprintf("%s (and %d more errors)", l[0], len(l)-1)
 }
 
-var errTODO = errors.New("monomial: parser not implemented yet")
+// Unwrap returns the errors of the list, so that errors.As finds an *Error.
+func (l ErrorList) Unwrap() []error {
+	errs := make([]error, len(l))
+	for i, e := range l {
+		errs[i] = e
+	}
+	return errs
+}
 
-// Parse is being written.
-func Parse(src string, cfg Config) (*Expansion, error) { return nil, errTODO }
+// maxDepth bounds the nesting of parentheses, unary signs, powers and
+// function calls, so that deeply nested input fails instead of exhausting
+// the stack.
+const maxDepth = 1000
 
-// ParseList is being written.
-func ParseList(src string, cfg Config) ([]*Expansion, error) { return nil, errTODO }
+// functions are the names reserved for functions; they cannot be variables.
+var functions = map[string]bool{
+	"exp": true, "log": true, "sin": true, "cos": true, "tanh": true,
+	"sinh": true, "cosh": true, "atan": true, "sqrt": true,
+}
 
-// ParseRat is being written.
-func ParseRat(s string) (*big.Rat, error) {
-	r, ok := new(big.Rat).SetString(s)
-	if !ok {
-		return nil, errTODO
+// IsFunctionName reports whether name is reserved for a function of the
+// expression language (and so cannot name a variable).
+func IsFunctionName(name string) bool { return functions[name] }
+
+// IsIdentifier reports whether name is a valid variable name: an ASCII
+// letter or underscore followed by letters, digits and underscores, and
+// not a function name.
+func IsIdentifier(name string) bool {
+	if name == "" || functions[name] {
+		return false
+	}
+	for i, r := range name {
+		if !isLetter(r) && !(i > 0 && isDigit(r)) {
+			return false
+		}
+	}
+	return true
+}
+
+// Parse reads one expression and returns its expansion as a polynomial in
+// the variables cfg.Vars followed by the other identifiers of src (see
+// Config). Newlines are white space. Errors are of type *Error, except for
+// an invalid Config.
+func Parse(src string, cfg Config) (*Expansion, error) {
+	s, err := newSession(src, cfg, false)
+	if err != nil {
+		return nil, err
+	}
+	toks := s.toks
+	if toks[0].kind == tEOF {
+		return nil, s.errAt(toks[0], "expected expression, found end of input")
+	}
+	return s.parseItem(toks)
+}
+
+// ParseList reads several expressions separated by ';' or by newlines,
+// sharing one variable list (cfg.Vars followed by the other identifiers of
+// the whole text in natural order). A newline separates expressions only
+// outside parentheses and after a token that can end an expression (a
+// number, an identifier or ')'), so an expression can continue on the next
+// line after an operator or inside parentheses. Empty expressions are
+// skipped. Positions in errors are relative to the whole src. When one
+// expression fails the error is an *Error; when several fail it is an
+// ErrorList with one error per failing expression.
+func ParseList(src string, cfg Config) ([]*Expansion, error) {
+	s, err := newSession(src, cfg, true)
+	if err != nil {
+		return nil, err
+	}
+	var out []*Expansion
+	var errs ErrorList
+	start := 0
+	for i, t := range s.toks {
+		if t.kind != tSemi && t.kind != tEOF {
+			continue
+		}
+		if i > start {
+			e, err := s.parseItem(s.toks[start : i+1])
+			if err != nil {
+				errs = append(errs, err.(*Error))
+			} else {
+				out = append(out, e)
+			}
+		}
+		start = i + 1
+	}
+	switch len(errs) {
+	case 0:
+		return out, nil
+	case 1:
+		return nil, errs[0]
+	}
+	return nil, errs
+}
+
+// session holds what the expressions of one source share: the tokens, the
+// variable list and the configuration.
+type session struct {
+	src   string
+	toks  []token
+	vars  []string
+	index map[string]int
+	order int
+	lim   Limits
+}
+
+func newSession(src string, cfg Config, list bool) (*session, error) {
+	lim := cfg.Limits.withDefaults()
+	if cfg.Order < 0 {
+		return nil, fmt.Errorf("monomial: Config.Order is negative (%d)", cfg.Order)
+	}
+	if cfg.Order > lim.MaxOrder {
+		return nil, fmt.Errorf("monomial: Config.Order %d exceeds the limit %d (Limits.MaxOrder)", cfg.Order, lim.MaxOrder)
+	}
+	s := &session{src: src, toks: newLexer(src, list).tokens(), order: cfg.Order, lim: lim, index: map[string]int{}}
+	for _, v := range cfg.Vars {
+		if !IsIdentifier(v) {
+			return nil, fmt.Errorf("monomial: Config.Vars: %q is not a valid variable name", v)
+		}
+		if _, dup := s.index[v]; dup {
+			return nil, fmt.Errorf("monomial: Config.Vars: %q appears twice", v)
+		}
+		s.index[v] = len(s.vars)
+		s.vars = append(s.vars, v)
+	}
+	var rest []string
+	seen := map[string]bool{}
+	for _, t := range s.toks {
+		if t.kind != tIdent {
+			continue
+		}
+		name := src[t.off:t.end]
+		if _, ok := s.index[name]; ok || seen[name] || functions[name] {
+			continue
+		}
+		seen[name] = true
+		rest = append(rest, name)
+	}
+	slices.SortFunc(rest, NaturalCompare)
+	for _, v := range rest {
+		s.index[v] = len(s.vars)
+		s.vars = append(s.vars, v)
+	}
+	return s, nil
+}
+
+// NaturalCompare compares two names in natural order: runs of digits are
+// compared by numeric value and other text character by character, so
+// "w2" < "w10". Names equal in this order (like "x01" and "x1") are
+// ordered as plain strings. It returns -1, 0 or +1.
+func NaturalCompare(a, b string) int {
+	i, j := 0, 0
+	for i < len(a) && j < len(b) {
+		ca, cb := a[i], b[j]
+		if isDigit(rune(ca)) && isDigit(rune(cb)) {
+			si, sj := i, j
+			for i < len(a) && isDigit(rune(a[i])) {
+				i++
+			}
+			for j < len(b) && isDigit(rune(b[j])) {
+				j++
+			}
+			da := strings.TrimLeft(a[si:i], "0")
+			db := strings.TrimLeft(b[sj:j], "0")
+			if len(da) != len(db) {
+				if len(da) < len(db) {
+					return -1
+				}
+				return 1
+			}
+			if c := strings.Compare(da, db); c != 0 {
+				return c
+			}
+			continue
+		}
+		if ca != cb {
+			if ca < cb {
+				return -1
+			}
+			return 1
+		}
+		i++
+		j++
+	}
+	switch {
+	case len(a)-i < len(b)-j:
+		return -1
+	case len(a)-i > len(b)-j:
+		return 1
+	}
+	return strings.Compare(a, b)
+}
+
+func (s *session) errAt(t token, format string, args ...any) *Error {
+	return &Error{Offset: t.off, Line: t.line, Col: t.col, Msg: fmt.Sprintf(format, args...)}
+}
+
+// parseItem parses the tokens of one expression; the last token is its
+// end (tEOF or tSemi).
+func (s *session) parseItem(toks []token) (*Expansion, error) {
+	for _, t := range toks {
+		if t.kind == tIllegal {
+			return nil, s.errAt(t, "%s", t.msg)
+		}
+	}
+	p := &parser{session: s, toks: toks}
+	v, err := p.expr()
+	if err != nil {
+		return nil, err
+	}
+	if t := p.tok(); !p.atEnd() {
+		switch t.kind {
+		case tIdent, tNumber, tLParen:
+			return nil, s.errAt(t, "expected operator, found %s (write products with '*')", describe(s.src, t))
+		case tSemi:
+			return nil, s.errAt(t, "expected end of input, found %s (use ParseList to read several expressions)", describe(s.src, t))
+		}
+		return nil, s.errAt(t, "expected operator or end of expression, found %s", describe(s.src, t))
+	}
+	return &Expansion{Poly: v.p, Order: s.order, Truncated: !v.exact}, nil
+}
+
+// parser parses one expression, computing its value as it goes.
+type parser struct {
+	*session
+	toks  []token
+	i     int
+	depth int
+}
+
+// value is the value of a subexpression: its polynomial (truncated to the
+// order in series mode), whether that is exact, and its source span.
+type value struct {
+	p        *Poly
+	exact    bool
+	off, end int
+}
+
+func (p *parser) tok() token { return p.toks[p.i] }
+
+func (p *parser) atEnd() bool {
+	k := p.toks[p.i].kind
+	return k == tEOF || (k == tSemi && p.i == len(p.toks)-1)
+}
+
+func (p *parser) advance() {
+	if p.i < len(p.toks)-1 {
+		p.i++
+	}
+}
+
+func (p *parser) snippet(v value) string { return shorten(p.src[v.off:v.end]) }
+
+func (p *parser) enter() error {
+	p.depth++
+	if p.depth > maxDepth {
+		return p.errAt(p.tok(), "expression nested too deeply (more than %d levels)", maxDepth)
+	}
+	return nil
+}
+
+func (p *parser) leave() { p.depth-- }
+
+// expr = term { ("+" | "-") term } .
+func (p *parser) expr() (value, error) {
+	v, err := p.term()
+	if err != nil {
+		return v, err
+	}
+	for k := p.tok().kind; k == tPlus || k == tMinus; k = p.tok().kind {
+		p.advance()
+		w, err := p.term()
+		if err != nil {
+			return w, err
+		}
+		r := value{exact: v.exact && w.exact, off: v.off, end: w.end}
+		if k == tPlus {
+			r.p = v.p.Add(w.p)
+		} else {
+			r.p = v.p.Sub(w.p)
+		}
+		v = r
+	}
+	return v, nil
+}
+
+// term = unary { ("*" | "/") unary } .
+func (p *parser) term() (value, error) {
+	v, err := p.unary()
+	if err != nil {
+		return v, err
+	}
+	for k := p.tok().kind; k == tStar || k == tSlash; k = p.tok().kind {
+		op := p.tok()
+		p.advance()
+		w, err := p.unary()
+		if err != nil {
+			return w, err
+		}
+		if k == tStar {
+			v, err = p.multiply(v, w, op)
+		} else {
+			v, err = p.divide(v, w, op)
+		}
+		if err != nil {
+			return v, err
+		}
+	}
+	return v, nil
+}
+
+// unary = ("+" | "-") unary | power .
+func (p *parser) unary() (value, error) {
+	t := p.tok()
+	if t.kind != tPlus && t.kind != tMinus {
+		return p.power()
+	}
+	if err := p.enter(); err != nil {
+		return value{}, err
+	}
+	defer p.leave()
+	p.advance()
+	v, err := p.unary()
+	if err != nil {
+		return v, err
+	}
+	v.off = t.off
+	if t.kind == tMinus {
+		v.p = v.p.Neg()
+	}
+	return v, nil
+}
+
+// power = primary [ ("^" | "**") unary ] .
+func (p *parser) power() (value, error) {
+	base, err := p.primary()
+	if err != nil {
+		return base, err
+	}
+	if p.tok().kind != tPow {
+		return base, nil
+	}
+	op := p.tok()
+	if err := p.enter(); err != nil {
+		return value{}, err
+	}
+	defer p.leave()
+	p.advance()
+	ex, err := p.unary()
+	if err != nil {
+		return ex, err
+	}
+	return p.raise(base, ex, op)
+}
+
+// primary = number | identifier | function "(" expr ")" | "(" expr ")" .
+func (p *parser) primary() (value, error) {
+	t := p.tok()
+	switch t.kind {
+	case tNumber:
+		p.advance()
+		r, _ := numberValue(p.src[t.off:t.end])
+		return value{p: constPoly(p.vars, coefFromRat(r)), exact: true, off: t.off, end: t.end}, nil
+	case tIdent:
+		name := p.src[t.off:t.end]
+		p.advance()
+		if functions[name] {
+			return p.call(name, t)
+		}
+		if p.tok().kind == tLParen {
+			return value{}, p.errAt(t, "unknown function %s", name)
+		}
+		return value{p: p.variable(name), exact: true, off: t.off, end: t.end}, nil
+	case tLParen:
+		if err := p.enter(); err != nil {
+			return value{}, err
+		}
+		defer p.leave()
+		p.advance()
+		v, err := p.expr()
+		if err != nil {
+			return v, err
+		}
+		if p.tok().kind != tRParen {
+			return v, p.errAt(p.tok(), "expected ')', found %s", describe(p.src, p.tok()))
+		}
+		v.off, v.end = t.off, p.tok().end
+		p.advance()
+		return v, nil
+	}
+	return value{}, p.errAt(t, "expected operand, found %s", describe(p.src, t))
+}
+
+func (p *parser) variable(name string) *Poly {
+	e := make([]int, len(p.vars))
+	e[p.index[name]] = 1
+	return &Poly{vars: p.vars, exps: e, coefs: []coef{coefOne}}
+}
+
+// call parses "(" expr ")" after a function name and applies the function.
+func (p *parser) call(name string, nameTok token) (value, error) {
+	if p.tok().kind != tLParen {
+		return value{}, p.errAt(p.tok(), "expected '(' after function name %s, found %s", name, describe(p.src, p.tok()))
+	}
+	if err := p.enter(); err != nil {
+		return value{}, err
+	}
+	defer p.leave()
+	p.advance()
+	arg, err := p.expr()
+	if err != nil {
+		return arg, err
+	}
+	if p.tok().kind != tRParen {
+		return arg, p.errAt(p.tok(), "expected ')', found %s", describe(p.src, p.tok()))
+	}
+	whole := value{off: nameTok.off, end: p.tok().end}
+	p.advance()
+	if p.order == 0 {
+		return whole, p.errAt(nameTok, "%s is not a polynomial; give an order (Config.Order > 0) to expand it as a truncated power series", p.snippet(whole))
+	}
+	c := arg.p.constCoef()
+	switch name {
+	case "sqrt":
+		return p.seriesPower(arg, big.NewRat(1, 2), whole, nameTok, "sqrt")
+	case "log":
+		if !c.isOne() {
+			if c.sign() <= 0 {
+				return whole, p.errAt(nameTok, "%s: the argument has constant term %s <= 0, where log has no real Taylor series", p.snippet(whole), c.ratView().RatString())
+			}
+			return whole, p.errAt(nameTok, "%s: constant term %s would make the coefficients irrational; log needs an argument with constant term 1: write log(c+u) as log(c) + log(1+u/c)", p.snippet(whole), c.ratView().RatString())
+		}
+	default:
+		if !c.isZero() {
+			hint := "shift the variable so that the argument vanishes at 0"
+			if name == "exp" {
+				hint = fmt.Sprintf("factor it out (exp(%s)·exp(%s)) or shift the variable", c.ratView().RatString(), shorten(arg.p.withoutConstant().String()))
+			}
+			return whole, p.errAt(nameTok, "%s: constant term %s would make the coefficients irrational; %s", p.snippet(whole), c.ratView().RatString(), hint)
+		}
+	}
+	u := arg.p.withoutConstant()
+	k := p.order
+	if !u.IsZero() {
+		k = p.order / u.MinDegree()
+	}
+	a, _ := seriesCoefs(name, k)
+	res, err := compose(a, u, p.order, p.lim.MaxTerms)
+	if err != nil {
+		return whole, p.tooMany(nameTok, whole)
+	}
+	whole.p = res
+	whole.exact = arg.exact && u.IsZero()
+	return whole, nil
+}
+
+func (p *parser) tooMany(t token, v value) *Error {
+	return p.errAt(t, "%s expands to more than %d terms (Limits.MaxTerms)", p.snippet(v), p.lim.MaxTerms)
+}
+
+// multiply returns v·w, truncated to the order in series mode.
+func (p *parser) multiply(v, w value, op token) (value, error) {
+	r := value{off: v.off, end: w.end}
+	maxDeg := -1
+	if p.order > 0 {
+		maxDeg = p.order
+	}
+	prod, err := mul(v.p, w.p, maxDeg, p.lim.MaxTerms)
+	if err != nil {
+		return r, p.tooMany(op, r)
+	}
+	r.p = prod
+	switch {
+	case (v.exact && v.p.IsZero()) || (w.exact && w.p.IsZero()):
+		r.exact = true
+	default:
+		r.exact = v.exact && w.exact && (p.order == 0 || v.p.Degree()+w.p.Degree() <= p.order)
 	}
 	return r, nil
 }
 
-// ParseBindings is being written.
-func ParseBindings(s string) (names []string, values []*big.Rat, err error) { return nil, nil, errTODO }
+// divide returns v/w: an exact division by a constant, or in series mode a
+// product with the series of 1/w.
+func (p *parser) divide(v, w value, op token) (value, error) {
+	r := value{off: v.off, end: w.end}
+	if w.exact && w.p.IsConstant() {
+		c := w.p.constCoef()
+		if c.isZero() {
+			return r, p.errAt(op, "division by zero")
+		}
+		r.p, r.exact = v.p.scale(c.inv()), v.exact
+		return r, nil
+	}
+	if p.order == 0 {
+		return r, p.errAt(op, "division by %s, which is not constant, is not a polynomial; give an order (Config.Order > 0) to expand it as a truncated power series", p.snippet(w))
+	}
+	if w.p.vanishesAtZero() {
+		return r, p.errAt(op, "division by %s, which vanishes at 0: the quotient has no Taylor series at 0", p.snippet(w))
+	}
+	inv, err := p.seriesPower(w, big.NewRat(-1, 1), w, op, "")
+	if err != nil {
+		return r, err
+	}
+	return p.multiply(v, value{p: inv.p, exact: false, off: w.off, end: w.end}, op)
+}
+
+// raise returns base^ex; ex must be an exact constant.
+func (p *parser) raise(base, ex value, op token) (value, error) {
+	r := value{off: base.off, end: ex.end}
+	if !ex.p.IsConstant() || !ex.exact {
+		return r, p.errAt(op, "the exponent %s is not a constant", p.snippet(ex))
+	}
+	e := ex.p.constCoef().rat()
+	if e.Num().CmpAbs(big.NewInt(int64(p.lim.MaxExponent))) > 0 || e.Denom().Cmp(big.NewInt(int64(p.lim.MaxExponent))) > 0 {
+		return r, p.errAt(op, "exponent %s exceeds the limit %d (Limits.MaxExponent)", shorten(e.RatString()), p.lim.MaxExponent)
+	}
+	n := int(e.Num().Int64())
+	if n == 0 {
+		r.p, r.exact = constPoly(p.vars, coefOne), true // p^0 = 1, also 0^0
+		return r, nil
+	}
+	// Constant base: exact rational power when it exists.
+	if base.exact && base.p.IsConstant() {
+		c := base.p.constCoef()
+		if c.isZero() && e.Sign() < 0 {
+			return r, p.errAt(op, "division by zero: %s", p.snippet(r))
+		}
+		if bitsEst := float64(c.bitLen()) * float64(abs(n)); bitsEst > float64(p.lim.MaxBits) {
+			return r, p.errAt(op, "%s would have about %.3g bits, more than the limit %d (Limits.MaxBits)", p.snippet(r), bitsEst, p.lim.MaxBits)
+		}
+		v, ok := ratPow(c.ratView(), e)
+		if !ok {
+			return r, p.errAt(op, "%s is not rational", p.snippet(r))
+		}
+		r.p, r.exact = constPoly(p.vars, coefFromRat(v)), true
+		return r, nil
+	}
+	if e.IsInt() && n >= 0 {
+		if p.order == 0 {
+			res, err := base.p.Pow(n, p.lim)
+			if err != nil {
+				var le *LimitError
+				if errors.As(err, &le) {
+					return r, p.errAt(op, "%s", strings.TrimPrefix(strings.Replace(le.Error(), le.What, p.snippet(r), 1), "monomial: "))
+				}
+				return r, p.errAt(op, "%s: %v", p.snippet(r), err)
+			}
+			r.p, r.exact = res, true
+			return r, nil
+		}
+		deg := base.p.Degree()
+		exactFits := base.exact && deg >= 0 && deg <= p.order/max(n, 1)
+		if base.p.vanishesAtZero() || exactFits {
+			res, err := base.p.pow(n, p.order, p.lim.MaxTerms)
+			if err != nil {
+				return r, p.tooMany(op, r)
+			}
+			r.p, r.exact = res, exactFits || (base.exact && base.p.IsZero())
+			return r, nil
+		}
+		return p.seriesPower(base, e, r, op, "")
+	}
+	if p.order == 0 {
+		kind := "negative"
+		if !e.IsInt() {
+			kind = "fractional"
+		}
+		return r, p.errAt(op, "%s (a %s power) is not a polynomial; give an order (Config.Order > 0) to expand it as a truncated power series", p.snippet(r), kind)
+	}
+	return p.seriesPower(base, e, r, op, "")
+}
+
+// seriesPower returns base^e as a truncated series by the binomial series:
+// base = c·(1+u) with c the constant term, base^e = c^e·(1+u)^e. fn names
+// the function for messages ("sqrt") or is empty for a power.
+func (p *parser) seriesPower(base value, e *big.Rat, whole value, at token, fn string) (value, error) {
+	c := base.p.constCoef()
+	what := p.snippet(whole)
+	if c.isZero() {
+		if fn != "" {
+			return whole, p.errAt(at, "%s: the argument vanishes at 0, where %s has no Taylor series", what, fn)
+		}
+		return whole, p.errAt(at, "%s: the base vanishes at 0, so this power has no Taylor series at 0", what)
+	}
+	ce, ok := ratPow(c.ratView(), e)
+	if !ok {
+		cs := c.ratView().RatString()
+		switch {
+		case fn == "sqrt" && c.sign() < 0:
+			return whole, p.errAt(at, "%s: the argument has negative constant term %s", what, cs)
+		case fn == "sqrt":
+			return whole, p.errAt(at, "%s: constant term %s is not the square of a rational, so the coefficients would be irrational; scale the argument so that its constant term is a rational square such as 1 or 4", what, cs)
+		case c.sign() < 0 && e.Denom().Bit(0) == 0:
+			return whole, p.errAt(at, "%s: the base has negative constant term %s, so the power is not real", what, cs)
+		default:
+			return whole, p.errAt(at, "%s: constant term %s has no rational %s-th root, so the coefficients would be irrational; scale the base so that its constant term is, for example, 1", what, cs, e.Denom())
+		}
+	}
+	if float64(ce.Num().BitLen()+ce.Denom().BitLen()) > float64(p.lim.MaxBits) {
+		return whole, p.errAt(at, "%s would have coefficients of more than %d bits (Limits.MaxBits)", what, p.lim.MaxBits)
+	}
+	u := base.p.withoutConstant().scale(c.inv())
+	k := p.order
+	if !u.IsZero() {
+		k = p.order / u.MinDegree()
+	}
+	res, err := compose(binomialCoefs(e, k), u, p.order, p.lim.MaxTerms)
+	if err != nil {
+		return whole, p.tooMany(at, whole)
+	}
+	whole.p = res.scale(coefFromRat(ce))
+	whole.exact = base.exact && u.IsZero()
+	return whole, nil
+}
+
+// ParseRat reads one number in the number syntax of the expression
+// language, exactly: an optional sign, then a number (integer, decimal or
+// scientific notation such as 12, 0.25, 1e-3, 2.5E2), optionally followed
+// by "/" and a second such number, e.g. "1/3", "-2", "0.25". Surrounding
+// white space is allowed. Errors are of type *Error.
+func ParseRat(s string) (*big.Rat, error) {
+	toks := newLexer(s, false).tokens()
+	r, i, err := ratTokens(s, toks, 0)
+	if err != nil {
+		return nil, err
+	}
+	if t := toks[i]; t.kind != tEOF {
+		return nil, errAtTok(t, "expected end of number, found %s", describe(s, t))
+	}
+	return r, nil
+}
+
+func errAtTok(t token, format string, args ...any) *Error {
+	return &Error{Offset: t.off, Line: t.line, Col: t.col, Msg: fmt.Sprintf(format, args...)}
+}
+
+// ratTokens reads [sign] number ["/" number] from toks[i:].
+func ratTokens(src string, toks []token, i int) (*big.Rat, int, *Error) {
+	neg := false
+	if k := toks[i].kind; k == tPlus || k == tMinus {
+		neg = k == tMinus
+		i++
+	}
+	num := func() (*big.Rat, *Error) {
+		t := toks[i]
+		switch t.kind {
+		case tIllegal:
+			return nil, errAtTok(t, "%s", t.msg)
+		case tNumber:
+			i++
+			r, _ := numberValue(src[t.off:t.end])
+			return r, nil
+		}
+		return nil, errAtTok(t, "expected number, found %s", describe(src, t))
+	}
+	r, err := num()
+	if err != nil {
+		return nil, i, err
+	}
+	if toks[i].kind == tSlash {
+		slash := toks[i]
+		i++
+		d, err := num()
+		if err != nil {
+			return nil, i, err
+		}
+		if d.Sign() == 0 {
+			return nil, i, errAtTok(slash, "division by zero")
+		}
+		r.Quo(r, d)
+	}
+	if neg {
+		r.Neg(r)
+	}
+	return r, i, nil
+}
+
+// ParseBindings reads name=value pairs separated by commas, such as
+// "x=1, y=1/2", returning the names and values in the given order. Names
+// are identifiers (not function names); values are read by the syntax of
+// ParseRat. White space is allowed around every part; the empty string
+// gives no bindings. Errors (of type *Error, with column positions) report
+// malformed pairs, bad names or numbers, and repeated names.
+func ParseBindings(s string) (names []string, values []*big.Rat, err error) {
+	toks := newLexer(s, false).tokens()
+	seen := map[string]token{}
+	i := 0
+	if toks[0].kind == tEOF {
+		return nil, nil, nil
+	}
+	for {
+		t := toks[i]
+		if t.kind != tIdent {
+			if t.kind == tIllegal {
+				return nil, nil, errAtTok(t, "%s", t.msg)
+			}
+			return nil, nil, errAtTok(t, "expected name, found %s", describe(s, t))
+		}
+		name := s[t.off:t.end]
+		if functions[name] {
+			return nil, nil, errAtTok(t, "%s is a function name, not a variable", name)
+		}
+		if first, dup := seen[name]; dup {
+			return nil, nil, errAtTok(t, "duplicate name %s (first at column %d)", name, first.col)
+		}
+		seen[name] = t
+		i++
+		if toks[i].kind != tAssign {
+			return nil, nil, errAtTok(toks[i], "expected '=' after %s, found %s", name, describe(s, toks[i]))
+		}
+		i++
+		r, next, perr := ratTokens(s, toks, i)
+		if perr != nil {
+			return nil, nil, perr
+		}
+		i = next
+		names = append(names, name)
+		values = append(values, r)
+		switch toks[i].kind {
+		case tEOF:
+			return names, values, nil
+		case tComma:
+			i++
+		default:
+			return nil, nil, errAtTok(toks[i], "expected ',' or end of input, found %s", describe(s, toks[i]))
+		}
+	}
+}

@@ -1,0 +1,306 @@
+package monomial
+
+import (
+	"fmt"
+	"math/big"
+	"strings"
+	"unicode/utf8"
+)
+
+type tokenKind int
+
+const (
+	tEOF     tokenKind = iota
+	tIllegal           // a lexical error; msg says what
+	tNumber
+	tIdent
+	tPlus
+	tMinus
+	tStar
+	tSlash
+	tPow // ^ or **
+	tLParen
+	tRParen
+	tSemi // ';' or a separating newline
+	tComma
+	tAssign
+)
+
+type token struct {
+	kind      tokenKind
+	off, end  int // byte offsets of the token text in the source
+	line, col int // 1-based; col counts runes
+	msg       string
+}
+
+// maxDecimalExponent bounds the exponent of a number in scientific notation
+// (1e10000 is accepted, 1e10001 is not), so that a short literal cannot ask
+// for a gigantic number.
+const maxDecimalExponent = 10_000
+
+// lexer splits source text into tokens. Spaces, tabs, carriage returns and
+// comments (from '#' to the end of the line) are skipped. A newline is a
+// separator token when newlineSep is set, the parentheses are balanced and
+// the previous token can end an expression; otherwise it is skipped too.
+type lexer struct {
+	src        string
+	off        int
+	line, col  int
+	depth      int
+	canEnd     bool
+	newlineSep bool
+}
+
+func newLexer(src string, newlineSep bool) *lexer {
+	return &lexer{src: src, line: 1, col: 1, newlineSep: newlineSep}
+}
+
+func (l *lexer) peek() rune {
+	if l.off >= len(l.src) {
+		return -1
+	}
+	r, _ := utf8.DecodeRuneInString(l.src[l.off:])
+	return r
+}
+
+func (l *lexer) advance() {
+	r, w := utf8.DecodeRuneInString(l.src[l.off:])
+	l.off += w
+	if r == '\n' {
+		l.line++
+		l.col = 1
+	} else {
+		l.col++
+	}
+}
+
+func isLetter(r rune) bool { return r >= 'a' && r <= 'z' || r >= 'A' && r <= 'Z' || r == '_' }
+func isDigit(r rune) bool  { return r >= '0' && r <= '9' }
+
+// tokens returns all tokens of the source, ending with tEOF.
+func (l *lexer) tokens() []token {
+	var toks []token
+	for {
+		t := l.next()
+		toks = append(toks, t)
+		if t.kind == tEOF {
+			return toks
+		}
+	}
+}
+
+func (l *lexer) next() token {
+	for {
+		r := l.peek()
+		switch {
+		case r == ' ' || r == '\t' || r == '\r':
+			l.advance()
+			continue
+		case r == '#':
+			for l.off < len(l.src) && l.peek() != '\n' {
+				l.advance()
+			}
+			continue
+		case r == '\n':
+			if l.newlineSep && l.depth == 0 && l.canEnd {
+				t := token{kind: tSemi, off: l.off, end: l.off + 1, line: l.line, col: l.col}
+				l.advance()
+				l.canEnd = false
+				return t
+			}
+			l.advance()
+			continue
+		}
+		break
+	}
+	t := token{off: l.off, line: l.line, col: l.col}
+	r := l.peek()
+	switch {
+	case r < 0:
+		t.kind = tEOF
+	case isDigit(r) || r == '.':
+		l.number(&t)
+	case isLetter(r):
+		for r := l.peek(); isLetter(r) || isDigit(r); r = l.peek() {
+			l.advance()
+		}
+		t.kind = tIdent
+	default:
+		l.advance()
+		switch r {
+		case '+':
+			t.kind = tPlus
+		case '-':
+			t.kind = tMinus
+		case '*':
+			t.kind = tStar
+			if l.peek() == '*' {
+				l.advance()
+				t.kind = tPow
+			}
+		case '/':
+			t.kind = tSlash
+		case '^':
+			t.kind = tPow
+		case '(':
+			t.kind = tLParen
+			l.depth++
+		case ')':
+			t.kind = tRParen
+			if l.depth > 0 {
+				l.depth--
+			}
+		case ';':
+			t.kind = tSemi
+		case ',':
+			t.kind = tComma
+		case '=':
+			t.kind = tAssign
+		default:
+			t.kind = tIllegal
+			if r == utf8.RuneError {
+				t.msg = "invalid UTF-8 encoding"
+			} else {
+				t.msg = fmt.Sprintf("unexpected character %q", r)
+			}
+		}
+	}
+	t.end = l.off
+	l.canEnd = t.kind == tNumber || t.kind == tIdent || t.kind == tRParen
+	return t
+}
+
+// number scans digits ["." digits] [("e"|"E") ["+"|"-"] digits], with at
+// least one digit in the mantissa.
+func (l *lexer) number(t *token) {
+	t.kind = tNumber
+	digits := 0
+	for isDigit(l.peek()) {
+		l.advance()
+		digits++
+	}
+	if l.peek() == '.' {
+		l.advance()
+		for isDigit(l.peek()) {
+			l.advance()
+			digits++
+		}
+	}
+	if digits == 0 {
+		t.kind = tIllegal
+		t.msg = "malformed number: '.' must be followed or preceded by digits"
+		return
+	}
+	if r := l.peek(); r == 'e' || r == 'E' {
+		l.advance()
+		if r := l.peek(); r == '+' || r == '-' {
+			l.advance()
+		}
+		n := 0
+		for isDigit(l.peek()) {
+			l.advance()
+			n++
+		}
+		if n == 0 {
+			t.kind = tIllegal
+			t.msg = fmt.Sprintf("malformed number %s: exponent has no digits", l.src[t.off:l.off])
+			return
+		}
+	}
+	if r := l.peek(); isLetter(r) || r == '.' {
+		// "2x" or "1.2.3": keep the error on the number.
+		for r := l.peek(); isLetter(r) || isDigit(r) || r == '.'; r = l.peek() {
+			l.advance()
+		}
+		t.kind = tIllegal
+		t.msg = fmt.Sprintf("malformed number %s (write products with '*')", l.src[t.off:l.off])
+		return
+	}
+	if _, err := numberValue(l.src[t.off:l.off]); err != "" {
+		t.kind = tIllegal
+		t.msg = err
+	}
+}
+
+// numberValue returns the exact value of a number token's text, or an error
+// message.
+func numberValue(s string) (*big.Rat, string) {
+	mant, exp := s, ""
+	if i := strings.IndexAny(s, "eE"); i >= 0 {
+		mant, exp = s[:i], s[i+1:]
+	}
+	scale := 0
+	if exp != "" {
+		neg := false
+		switch exp[0] {
+		case '+':
+			exp = exp[1:]
+		case '-':
+			neg = true
+			exp = exp[1:]
+		}
+		exp = strings.TrimLeft(exp, "0")
+		if len(exp) > 6 {
+			return nil, fmt.Sprintf("number %s is too large: its decimal exponent exceeds %d", s, maxDecimalExponent)
+		}
+		for _, c := range exp {
+			scale = scale*10 + int(c-'0')
+		}
+		if scale > maxDecimalExponent {
+			return nil, fmt.Sprintf("number %s is too large: its decimal exponent exceeds %d", s, maxDecimalExponent)
+		}
+		if neg {
+			scale = -scale
+		}
+	}
+	intPart, frac := mant, ""
+	if i := strings.IndexByte(mant, '.'); i >= 0 {
+		intPart, frac = mant[:i], mant[i+1:]
+	}
+	scale -= len(frac)
+	n, ok := new(big.Int).SetString(intPart+frac, 10)
+	if !ok {
+		return nil, fmt.Sprintf("malformed number %s", s)
+	}
+	r := new(big.Rat).SetInt(n)
+	if scale != 0 {
+		p := new(big.Int).Exp(big.NewInt(10), big.NewInt(int64(abs(scale))), nil)
+		if scale > 0 {
+			r.Mul(r, new(big.Rat).SetInt(p))
+		} else {
+			r.Quo(r, new(big.Rat).SetInt(p))
+		}
+	}
+	return r, ""
+}
+
+func abs(x int) int {
+	if x < 0 {
+		return -x
+	}
+	return x
+}
+
+// describe returns how a token is named in messages: "'+'", "'x'",
+// "end of input", "newline".
+func describe(src string, t token) string {
+	switch t.kind {
+	case tEOF:
+		return "end of input"
+	case tSemi:
+		if src[t.off] == '\n' {
+			return "newline"
+		}
+	}
+	return "'" + shorten(src[t.off:t.end]) + "'"
+}
+
+// shorten collapses white space and cuts long text for messages.
+func shorten(s string) string {
+	s = strings.Join(strings.Fields(s), " ")
+	if utf8.RuneCountInString(s) > 40 {
+		r := []rune(s)
+		s = string(r[:37]) + "..."
+	}
+	return s
+}
