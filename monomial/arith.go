@@ -514,5 +514,9 @@ func binomialF(n, k float64) float64 {
 	a, _ := math.Lgamma(n + 1)
 	b, _ := math.Lgamma(k + 1)
 	c, _ := math.Lgamma(n - k + 1)
-	return math.Exp(a - b - c)
+	v := math.Exp(a - b - c)
+	if v < 1e15 {
+		v = math.Round(v) // remove the rounding error of Lgamma on exact counts
+	}
+	return v
 }
