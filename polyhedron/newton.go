@@ -8,6 +8,7 @@ import (
 	"math/bits"
 	"slices"
 	"sync"
+	"sync/atomic"
 )
 
 // Sentinel errors. Errors returned by this package wrap one of these (test with errors.Is).
@@ -40,6 +41,7 @@ type Newton struct {
 	facetsOnce sync.Once
 	facets     []Facet
 	facetsErr  error
+	facetsDone atomic.Bool // set after facets and vertexFacets are final
 	// incidence data computed with the facets
 	vertexFacets [][]uint64 // per vertex: bitset over facets containing it
 

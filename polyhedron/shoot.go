@@ -55,10 +55,10 @@ func shoot(pts [][]int, x0, tau []*big.Rat) *shot {
 		pos[i] = tau[i]
 	}
 	neg[d], pos[d] = zero, zero
-	tPlus := t.addColumn(neg, ratOne)                 // t⁺
-	tMinus := t.addColumn(pos, big.NewRat(-1, 1))     // t⁻
-	firstPoint := tMinus + 1                          // tableau column of point colPoint[0]
-	var colPoint []int                                // tableau column firstPoint+k holds pts[colPoint[k]]
+	tPlus := t.addColumn(neg, ratOne)             // t⁺
+	tMinus := t.addColumn(pos, big.NewRat(-1, 1)) // t⁻
+	firstPoint := tMinus + 1                      // tableau column of point colPoint[0]
+	var colPoint []int                            // tableau column firstPoint+k holds pts[colPoint[k]]
 	addPoint := func(j int) {
 		for i := 0; i < d; i++ {
 			col[i] = new(big.Rat).SetInt64(int64(pts[j][i]))
