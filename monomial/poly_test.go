@@ -327,7 +327,7 @@ func TestPowLimits(t *testing.T) {
 		limit string
 	}{
 		{s, 100000, Limits{}, "MaxExponent"},
-		{s, 5000, Limits{}, "MaxTerms"},  // C(5002, 2) = 12,507,501 terms
+		{s, 5000, Limits{}, "MaxTerms"},           // C(5002, 2) = 12,507,501 terms
 		{s, 10, Limits{MaxTerms: 65}, "MaxTerms"}, // C(12, 2) = 66
 		{Constant(xyz, rat("1e300")), 10000, Limits{}, "MaxBits"},
 	} {
