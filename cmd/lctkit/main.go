@@ -37,6 +37,7 @@ const (
 type cli struct {
 	Version kong.VersionFlag `help:"Print the version and exit."`
 
+	Bound  boundCmd  `cmd:"" help:"Bound the learning coefficient λ and multiplicity θ of K; exact when certified."`
 	Expand expandCmd `cmd:"" help:"Expand an expression into its exact canonical polynomial."`
 }
 

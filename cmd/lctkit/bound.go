@@ -1,0 +1,271 @@
+package main
+
+import (
+	"encoding/json"
+	"errors"
+	"fmt"
+	"io"
+	"math/big"
+	"sort"
+	"strconv"
+	"strings"
+
+	"github.com/lctkit/lctkit/rlct"
+)
+
+// bundledExample is what `lctkit bound` evaluates when no expression is
+// given. The scenario is invented: a heater gain g and two vent gains v1, v2
+// act on a greenhouse only through their products, and the true setting has
+// all three products zero.
+const bundledExample = "(g*v1)^2 + (g*v2)^2 + (v1*v2)^2"
+
+// problemFlags are the flags shared by the commands that take a problem.
+type problemFlags struct {
+	Prior string   `help:"Prior exponents near the point: x=1,y=1/2 means a prior proportional to |x|^1·|y|^(1/2); unnamed variables have 0 (uniform)." placeholder:"x=1,y=1/2"`
+	At    []string `help:"The point w* (default the origin); unnamed coordinates are 0. Repeat for several points: the minimum is reported with each local answer." placeholder:"x=0,y=1/3" sep:"none"`
+	SOS   string   `help:"Give K as a sum of squares instead of EXPR: generators separated by ';' stand for K = g1^2 + g2^2 + …; - reads them from standard input." placeholder:"g1; g2"`
+	Order int      `help:"Truncate power series at this total degree; needed for exp, log, sin, … and division by non-constants." placeholder:"D"`
+	Vars  string   `help:"Variables that come first, in this order; names K does not use still count as dimensions." placeholder:"x,y,z"`
+}
+
+// spec turns the flags and the expression argument into a library spec. It
+// returns the spec and a note to print when the bundled example is used.
+func (f *problemFlags) spec(expr string, e *env) (*rlct.Spec, string, error) {
+	vars, err := splitNames(f.Vars)
+	if err != nil {
+		return nil, "", err
+	}
+	s := &rlct.Spec{Prior: f.Prior, At: f.At, Order: f.Order, Vars: vars}
+	note := ""
+	switch {
+	case expr != "" && f.SOS != "":
+		return nil, "", errors.New("give either EXPR or --sos, not both")
+	case f.SOS != "":
+		src, err := readExpr(f.SOS, e)
+		if err != nil {
+			return nil, "", err
+		}
+		s.SOS = []string{src}
+	case expr != "":
+		src, err := readExpr(expr, e)
+		if err != nil {
+			return nil, "", err
+		}
+		s.K = src
+	default:
+		s.K = bundledExample
+		note = "no expression given: evaluating the bundled example (an invented greenhouse model with heater gain g and vent gains v1, v2)\n  K = " + bundledExample
+	}
+	return s, note, nil
+}
+
+// solve parses the spec and bounds it, printing positioned errors.
+func solve(s *rlct.Spec, e *env) (*rlct.Result, error) {
+	p, points, err := s.Problem()
+	if err != nil {
+		return nil, showSpecError(e, err)
+	}
+	r, err := rlct.BoundAt(p, points, nil)
+	if err != nil {
+		return nil, err
+	}
+	return r, nil
+}
+
+// showSpecError prints a spec error with a caret when it has a position and
+// returns the exit error.
+func showSpecError(e *env, err error) error {
+	var se *rlct.SpecError
+	if errors.As(err, &se) {
+		label := "--" + se.Field
+		if se.Field == "k" {
+			label = "K"
+		}
+		printError(e.stderr, label, se.Src, err)
+		return exitError{exitFailed}
+	}
+	return err
+}
+
+// boundCmd bounds the learning coefficient.
+type boundCmd struct {
+	Expr string `arg:"" optional:"" help:"K(w), an expression vanishing at the point; - reads it from standard input. Without it the bundled example is evaluated."`
+	problemFlags
+	N    string `help:"Also print the penalty λ·log n − (θ−1)·log log n at these sample sizes (comma separated)." placeholder:"1000,10000"`
+	JSON bool   `help:"Print one JSON object."`
+}
+
+// Help is shown under the command's usage.
+func (c *boundCmd) Help() string {
+	return `Prints λ (the learning coefficient) and θ (its multiplicity) from the Newton
+polyhedron of K, marked "exact" only when every compact face is certified
+nondegenerate, and "upper bound" with the reasons otherwise.
+
+Examples:
+  lctkit bound 'x^4 + y^6'
+  lctkit bound '(x-y)^2'                      # degenerate: an upper bound
+  lctkit bound --sos 'a*b; a*c' --prior a=1
+  lctkit bound 'x^2*(1-cos(y))' --order 6 --json
+  lctkit bound 'x^2*(x-1)^4 + y^2' --at x=0 --at x=1 --n 1000`
+}
+
+// Run bounds the problem and prints the answer.
+func (c *boundCmd) Run(e *env) error {
+	s, note, err := c.spec(c.Expr, e)
+	if err != nil {
+		return err
+	}
+	ns, err := parseSizes(c.N)
+	if err != nil {
+		return fmt.Errorf("--n: %w", err)
+	}
+	if note != "" && !c.JSON {
+		fmt.Fprintln(e.stdout, note)
+	}
+	r, err := solve(s, e)
+	if err != nil {
+		if c.JSON {
+			var ee exitError
+			if !errors.As(err, &ee) {
+				writeJSON(e.stdout, &rlct.Report{Error: err.Error()})
+			}
+		}
+		return err
+	}
+	rep := r.Report()
+	if ns != nil {
+		rep.Penalty = rlct.NewPenaltyReport(r.Lambda, r.Theta, len(r.Vars), ns)
+	}
+	if c.JSON {
+		return writeJSON(e.stdout, rep)
+	}
+	writeBound(e.stdout, r, rep.Penalty)
+	return nil
+}
+
+// parseSizes reads "1000,10000" as sample sizes, each above e.
+func parseSizes(s string) ([]float64, error) {
+	if strings.TrimSpace(s) == "" {
+		return nil, nil
+	}
+	var out []float64
+	for _, f := range strings.Split(s, ",") {
+		n, err := strconv.ParseFloat(strings.TrimSpace(f), 64)
+		if err != nil || n <= 3 {
+			return nil, fmt.Errorf("sample size %q must be a number greater than 3", strings.TrimSpace(f))
+		}
+		out = append(out, n)
+	}
+	return out, nil
+}
+
+func writeJSON(w io.Writer, v any) error {
+	enc := json.NewEncoder(w)
+	enc.SetEscapeHTML(false)
+	return enc.Encode(v)
+}
+
+// writeBound prints the plain-text answer.
+func writeBound(w io.Writer, r *rlct.Result, pen *rlct.PenaltyReport) {
+	status := "exact"
+	if r.Status != rlct.Exact {
+		status = "upper bound"
+	}
+	fmt.Fprintf(w, "λ = %s   θ = %d   (%s)\n", r.Lambda.RatString(), r.Theta, status)
+	if len(r.Locals) > 0 {
+		fmt.Fprintf(w, "  minimum over %d points; each point:\n", len(r.Locals))
+		for i, l := range r.Locals {
+			st := "exact"
+			if l.Status != rlct.Exact {
+				st = "upper bound"
+			}
+			fmt.Fprintf(w, "    %d. at %s: λ = %s, θ = %d (%s)\n", i+1, pointString(l.Vars, l.Point), l.Lambda.RatString(), l.Theta, st)
+		}
+	} else if !allZero(r.Point) {
+		fmt.Fprintf(w, "  at the point %s\n", pointString(r.Vars, r.Point))
+	}
+	fmt.Fprintf(w, "  Newton distance t = %s along τ = (%s) in (%s)\n", r.Distance.RatString(), ratList(r.Weights), strings.Join(r.Vars, ", "))
+	pf := r.Principal
+	kind := "compact"
+	if !pf.Compact {
+		kind = "non-compact, rays " + strings.Join(pf.Rays, ", ")
+	}
+	fmt.Fprintf(w, "  principal face: dimension %d, codimension %d (%s), vertices %s\n", pf.Dim, pf.Codim, kind, vertexList(pf.Vertices))
+	fmt.Fprintf(w, "  face polynomial: %s\n", pf.Polynomial)
+	if r.Status == rlct.Exact {
+		fmt.Fprintf(w, "  certificate: %s\n", certificateSummary(r.Faces))
+		if r.Truncation != nil {
+			fmt.Fprintf(w, "  truncation at degree %d: the omitted terms cannot change the answer\n", r.Truncation.Order)
+		}
+	} else {
+		fmt.Fprintln(w, "  This is an upper bound, not necessarily the learning coefficient, because:")
+		for _, reason := range r.Reasons {
+			fmt.Fprintf(w, "  - %s\n", reason)
+		}
+	}
+	if pen != nil {
+		fmt.Fprintln(w, "  penalty (asymptotic, in nats):")
+		for i, n := range pen.N {
+			if pen.Regular != nil {
+				fmt.Fprintf(w, "    n = %-10g λ·log n − (θ−1)·log log n = %.4f   regular (d/2)·log n = %.4f\n", n, pen.Singular[i], pen.Regular[i])
+			} else {
+				fmt.Fprintf(w, "    n = %-10g λ·log n − (θ−1)·log log n = %.4f\n", n, pen.Singular[i])
+			}
+		}
+	}
+}
+
+// certificateSummary counts the faces by the rule that certified them.
+func certificateSummary(faces []rlct.FaceReport) string {
+	count := map[string]int{}
+	for _, f := range faces {
+		count[f.Rule]++
+	}
+	var rules []string
+	for rule := range count {
+		rules = append(rules, rule)
+	}
+	sort.Strings(rules)
+	parts := make([]string, len(rules))
+	for i, rule := range rules {
+		parts[i] = fmt.Sprintf("%d by %s", count[rule], rule)
+	}
+	return fmt.Sprintf("all %d compact faces are nondegenerate (%s)", len(faces), strings.Join(parts, ", "))
+}
+
+func pointString(vars []string, x []*big.Rat) string {
+	parts := make([]string, len(vars))
+	for i, v := range vars {
+		parts[i] = v + "=" + x[i].RatString()
+	}
+	return strings.Join(parts, ",")
+}
+
+func ratList(xs []*big.Rat) string {
+	parts := make([]string, len(xs))
+	for i, x := range xs {
+		parts[i] = x.RatString()
+	}
+	return strings.Join(parts, ", ")
+}
+
+func vertexList(vs [][]int) string {
+	parts := make([]string, len(vs))
+	for i, v := range vs {
+		s := make([]string, len(v))
+		for k, x := range v {
+			s[k] = strconv.Itoa(x)
+		}
+		parts[i] = "(" + strings.Join(s, ",") + ")"
+	}
+	return strings.Join(parts, " ")
+}
+
+func allZero(xs []*big.Rat) bool {
+	for _, x := range xs {
+		if x.Sign() != 0 {
+			return false
+		}
+	}
+	return true
+}

@@ -1,0 +1,108 @@
+package main
+
+import (
+	"bytes"
+	"encoding/json"
+	"strings"
+	"testing"
+)
+
+// runCLI runs the command line in-process and returns stdout, stderr and
+// the exit code.
+func runCLI(t *testing.T, stdin string, args ...string) (string, string, int) {
+	t.Helper()
+	var out, errOut bytes.Buffer
+	code := run(args, &env{stdin: strings.NewReader(stdin), stdout: &out, stderr: &errOut})
+	return out.String(), errOut.String(), code
+}
+
+func TestBoundBundledExample(t *testing.T) {
+	out, _, code := runCLI(t, "", "bound")
+	if code != exitOK {
+		t.Fatalf("exit %d", code)
+	}
+	if !strings.Contains(out, "bundled example") || !strings.Contains(out, "λ = 3/4") || !strings.Contains(out, "(exact)") {
+		t.Errorf("output does not state the bundled example and its answer:\n%s", out)
+	}
+}
+
+func TestBoundJSON(t *testing.T) {
+	// x^4 + y^6: λ = 5/12, θ = 1, exact (Howald 2001, Trans. AMS 353,
+	// halved for squares).
+	out, _, code := runCLI(t, "", "bound", "x^4+y^6", "--json")
+	if code != exitOK {
+		t.Fatalf("exit %d", code)
+	}
+	var rep map[string]any
+	if err := json.Unmarshal([]byte(out), &rep); err != nil {
+		t.Fatal(err)
+	}
+	for _, key := range []string{"lambda", "theta", "status", "distance", "variables", "prior", "principal_face", "nondegeneracy"} {
+		if _, ok := rep[key]; !ok {
+			t.Errorf("JSON lacks %q: %s", key, out)
+		}
+	}
+	if rep["lambda"] != "5/12" || rep["theta"] != float64(1) || rep["status"] != "exact" {
+		t.Errorf("got %v %v %v", rep["lambda"], rep["theta"], rep["status"])
+	}
+}
+
+func TestBoundUpperBoundSaysWhy(t *testing.T) {
+	out, _, code := runCLI(t, "", "bound", "(x-y)^2")
+	if code != exitOK {
+		t.Fatalf("exit %d", code)
+	}
+	if !strings.Contains(out, "upper bound") || !strings.Contains(out, "degenerate") {
+		t.Errorf("output does not say upper bound and why:\n%s", out)
+	}
+}
+
+func TestBoundReadsStdin(t *testing.T) {
+	out, _, code := runCLI(t, "x^2 +\n y^4\n", "bound", "-", "--json")
+	if code != exitOK || !strings.Contains(out, `"lambda":"3/4"`) {
+		t.Errorf("exit %d, output %s", code, out)
+	}
+}
+
+func TestErrorsShowCaret(t *testing.T) {
+	tests := []struct {
+		args  []string
+		code  int
+		lines []string
+	}{
+		{[]string{"bound", "x^2 + (y*"}, exitFailed, []string{"1:10:", "  K: x^2 + (y*", "              ^"}},
+		{[]string{"bound", "x^2", "--prior", "x=1,,y=2"}, exitFailed, []string{"--prior"}},
+		{[]string{"bound", "x^2+1"}, exitFailed, []string{"does not vanish"}},
+		{[]string{"bound", "x^2", "--nonsense"}, exitUsage, []string{"unknown flag"}},
+		{[]string{"frobnicate"}, exitUsage, []string{"unexpected argument"}},
+		{[]string{"expand", "(x+y"}, exitFailed, []string{"1:5:"}},
+	}
+	for _, tt := range tests {
+		_, errOut, code := runCLI(t, "", tt.args...)
+		if code != tt.code {
+			t.Errorf("%v: exit %d, want %d; stderr:\n%s", tt.args, code, tt.code, errOut)
+		}
+		for _, l := range tt.lines {
+			if !strings.Contains(errOut, l) {
+				t.Errorf("%v: stderr lacks %q:\n%s", tt.args, l, errOut)
+			}
+		}
+	}
+}
+
+func TestExpand(t *testing.T) {
+	tests := []struct {
+		args []string
+		want string
+	}{
+		// (1+u)^3 + ... at x = 1: the binomial theorem (common practice).
+		{[]string{"expand", "x^3", "--at", "x=1"}, "x^3 + 3*x^2 + 3*x + 1\n"},
+		{[]string{"expand", "0.25*x + 1e-3"}, "1/4*x + 1/1000\n"},
+	}
+	for _, tt := range tests {
+		out, errOut, code := runCLI(t, "", tt.args...)
+		if code != exitOK || out != tt.want {
+			t.Errorf("%v: exit %d, got %q, want %q (stderr %s)", tt.args, code, out, tt.want, errOut)
+		}
+	}
+}
