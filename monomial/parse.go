@@ -115,11 +115,15 @@ func Parse(src string, cfg Config) (*Expansion, error) {
 	if err != nil {
 		return nil, err
 	}
-	toks := s.toks
-	if toks[0].kind == tEOF {
-		return nil, s.errAt(toks[0], "expected expression, found end of input")
+	p := s.newParser()
+	if p.tok().kind == tEOF {
+		return nil, p.expected("expression")
 	}
-	return s.parseItem(toks)
+	e, perr := p.item()
+	if perr != nil {
+		return nil, perr
+	}
+	return e, nil
 }
 
 // ParseList reads several expressions separated by ';' or by newlines,
@@ -138,35 +142,39 @@ func ParseList(src string, cfg Config) ([]*Expansion, error) {
 	}
 	var out []*Expansion
 	var errs ErrorList
-	start := 0
-	for i, t := range s.toks {
-		if t.kind != tSemi && t.kind != tEOF {
+	p := s.newParser()
+	for {
+		switch p.tok().kind {
+		case tEOF:
+			switch len(errs) {
+			case 0:
+				return out, nil
+			case 1:
+				return nil, errs[0]
+			}
+			return nil, errs
+		case tSemi:
+			p.advance()
 			continue
 		}
-		if i > start {
-			e, err := s.parseItem(s.toks[start : i+1])
-			if err != nil {
-				errs = append(errs, err.(*Error))
-			} else {
-				out = append(out, e)
+		e, perr := p.item()
+		if perr != nil {
+			errs = append(errs, perr)
+			// Skip the rest of the failed expression.
+			for k := p.tok().kind; k != tSemi && k != tEOF; k = p.tok().kind {
+				p.advance()
 			}
+			continue
 		}
-		start = i + 1
+		out = append(out, e)
 	}
-	switch len(errs) {
-	case 0:
-		return out, nil
-	case 1:
-		return nil, errs[0]
-	}
-	return nil, errs
 }
 
 // session holds what the expressions of one source share: the tokens, the
 // variable list and the configuration.
 type session struct {
 	src   string
-	toks  []token
+	list  bool
 	vars  []string
 	index map[string]int
 	order int
@@ -181,7 +189,7 @@ func newSession(src string, cfg Config, list bool) (*session, error) {
 	if cfg.Order > lim.MaxOrder {
 		return nil, fmt.Errorf("monomial: Config.Order %d exceeds the limit %d (Limits.MaxOrder)", cfg.Order, lim.MaxOrder)
 	}
-	s := &session{src: src, toks: newLexer(src, list).tokens(), order: cfg.Order, lim: lim, index: map[string]int{}}
+	s := &session{src: src, list: list, order: cfg.Order, lim: lim, index: map[string]int{}}
 	for _, v := range cfg.Vars {
 		if !IsIdentifier(v) {
 			return nil, fmt.Errorf("monomial: Config.Vars: %q is not a valid variable name", v)
@@ -194,7 +202,8 @@ func newSession(src string, cfg Config, list bool) (*session, error) {
 	}
 	var rest []string
 	seen := map[string]bool{}
-	for _, t := range s.toks {
+	lx := newLexer(src, false)
+	for t := lx.next(); t.kind != tEOF; t = lx.next() {
 		if t.kind != tIdent {
 			continue
 		}
@@ -264,36 +273,40 @@ func (s *session) errAt(t token, format string, args ...any) *Error {
 	return &Error{Offset: t.off, Line: t.line, Col: t.col, Msg: fmt.Sprintf(format, args...)}
 }
 
-// parseItem parses the tokens of one expression; the last token is its
-// end (tEOF or tSemi).
-func (s *session) parseItem(toks []token) (*Expansion, error) {
-	for _, t := range toks {
-		if t.kind == tIllegal {
-			return nil, s.errAt(t, "%s", t.msg)
-		}
-	}
-	p := &parser{session: s, toks: toks}
+func (s *session) newParser() *parser {
+	p := &parser{session: s, lx: newLexer(s.src, s.list)}
+	p.cur = p.lx.next()
+	return p
+}
+
+// item parses one expression, up to the end of input or a separator.
+func (p *parser) item() (*Expansion, *Error) {
+	p.depth = 0
 	v, err := p.expr()
 	if err != nil {
 		return nil, err
 	}
-	if t := p.tok(); !p.atEnd() {
-		switch t.kind {
-		case tIdent, tNumber, tLParen:
-			return nil, s.errAt(t, "expected operator, found %s (write products with '*')", describe(s.src, t))
-		case tSemi:
-			return nil, s.errAt(t, "expected end of input, found %s (use ParseList to read several expressions)", describe(s.src, t))
+	switch t := p.tok(); t.kind {
+	case tEOF:
+	case tSemi:
+		if !p.list {
+			return nil, p.errAt(t, "expected end of input, found %s (use ParseList to read several expressions)", describe(p.src, t))
 		}
-		return nil, s.errAt(t, "expected operator or end of expression, found %s", describe(s.src, t))
+	case tIdent, tNumber, tLParen:
+		return nil, p.errAt(t, "expected operator, found %s (write products with '*')", describe(p.src, t))
+	default:
+		return nil, p.expected("operator or end of expression")
 	}
-	return &Expansion{Poly: v.p, Order: s.order, Truncated: !v.exact}, nil
+	return &Expansion{Poly: v.p, Order: p.order, Truncated: !v.exact}, nil
 }
 
-// parser parses one expression, computing its value as it goes.
+// parser parses expressions, computing their values as it goes. It reads
+// tokens from the lexer one at a time (no token list is kept), looking at
+// the current token only.
 type parser struct {
 	*session
-	toks  []token
-	i     int
+	lx    *lexer
+	cur   token
 	depth int
 }
 
@@ -305,22 +318,27 @@ type value struct {
 	off, end int
 }
 
-func (p *parser) tok() token { return p.toks[p.i] }
-
-func (p *parser) atEnd() bool {
-	k := p.toks[p.i].kind
-	return k == tEOF || (k == tSemi && p.i == len(p.toks)-1)
-}
+func (p *parser) tok() token { return p.cur }
 
 func (p *parser) advance() {
-	if p.i < len(p.toks)-1 {
-		p.i++
+	if p.cur.kind != tEOF {
+		p.cur = p.lx.next()
 	}
+}
+
+// expected returns the error "expected what, found <current token>", or
+// the lexical error of the current token.
+func (p *parser) expected(what string) *Error {
+	t := p.cur
+	if t.kind == tIllegal {
+		return p.errAt(t, "%s", t.msg)
+	}
+	return p.errAt(t, "expected %s, found %s", what, describe(p.src, t))
 }
 
 func (p *parser) snippet(v value) string { return shorten(p.src[v.off:v.end]) }
 
-func (p *parser) enter() error {
+func (p *parser) enter() *Error {
 	p.depth++
 	if p.depth > maxDepth {
 		return p.errAt(p.tok(), "expression nested too deeply (more than %d levels)", maxDepth)
@@ -331,7 +349,7 @@ func (p *parser) enter() error {
 func (p *parser) leave() { p.depth-- }
 
 // expr = term { ("+" | "-") term } .
-func (p *parser) expr() (value, error) {
+func (p *parser) expr() (value, *Error) {
 	v, err := p.term()
 	if err != nil {
 		return v, err
@@ -354,7 +372,7 @@ func (p *parser) expr() (value, error) {
 }
 
 // term = unary { ("*" | "/") unary } .
-func (p *parser) term() (value, error) {
+func (p *parser) term() (value, *Error) {
 	v, err := p.unary()
 	if err != nil {
 		return v, err
@@ -379,7 +397,7 @@ func (p *parser) term() (value, error) {
 }
 
 // unary = ("+" | "-") unary | power .
-func (p *parser) unary() (value, error) {
+func (p *parser) unary() (value, *Error) {
 	t := p.tok()
 	if t.kind != tPlus && t.kind != tMinus {
 		return p.power()
@@ -401,7 +419,7 @@ func (p *parser) unary() (value, error) {
 }
 
 // power = primary [ ("^" | "**") unary ] .
-func (p *parser) power() (value, error) {
+func (p *parser) power() (value, *Error) {
 	base, err := p.primary()
 	if err != nil {
 		return base, err
@@ -423,7 +441,7 @@ func (p *parser) power() (value, error) {
 }
 
 // primary = number | identifier | function "(" expr ")" | "(" expr ")" .
-func (p *parser) primary() (value, error) {
+func (p *parser) primary() (value, *Error) {
 	t := p.tok()
 	switch t.kind {
 	case tNumber:
@@ -451,13 +469,13 @@ func (p *parser) primary() (value, error) {
 			return v, err
 		}
 		if p.tok().kind != tRParen {
-			return v, p.errAt(p.tok(), "expected ')', found %s", describe(p.src, p.tok()))
+			return v, p.expected("')'")
 		}
 		v.off, v.end = t.off, p.tok().end
 		p.advance()
 		return v, nil
 	}
-	return value{}, p.errAt(t, "expected operand, found %s", describe(p.src, t))
+	return value{}, p.expected("operand")
 }
 
 func (p *parser) variable(name string) *Poly {
@@ -467,9 +485,9 @@ func (p *parser) variable(name string) *Poly {
 }
 
 // call parses "(" expr ")" after a function name and applies the function.
-func (p *parser) call(name string, nameTok token) (value, error) {
+func (p *parser) call(name string, nameTok token) (value, *Error) {
 	if p.tok().kind != tLParen {
-		return value{}, p.errAt(p.tok(), "expected '(' after function name %s, found %s", name, describe(p.src, p.tok()))
+		return value{}, p.expected("'(' after function name " + name)
 	}
 	if err := p.enter(); err != nil {
 		return value{}, err
@@ -481,7 +499,7 @@ func (p *parser) call(name string, nameTok token) (value, error) {
 		return arg, err
 	}
 	if p.tok().kind != tRParen {
-		return arg, p.errAt(p.tok(), "expected ')', found %s", describe(p.src, p.tok()))
+		return arg, p.expected("')'")
 	}
 	whole := value{off: nameTok.off, end: p.tok().end}
 	p.advance()
@@ -514,8 +532,8 @@ func (p *parser) call(name string, nameTok token) (value, error) {
 		k = p.order / u.MinDegree()
 	}
 	a, _ := seriesCoefs(name, k)
-	res, err := compose(a, u, p.order, p.lim.MaxTerms)
-	if err != nil {
+	res, cerr := compose(a, u, p.order, p.lim.MaxTerms)
+	if cerr != nil {
 		return whole, p.tooMany(nameTok, whole)
 	}
 	whole.p = res
@@ -528,14 +546,14 @@ func (p *parser) tooMany(t token, v value) *Error {
 }
 
 // multiply returns v·w, truncated to the order in series mode.
-func (p *parser) multiply(v, w value, op token) (value, error) {
+func (p *parser) multiply(v, w value, op token) (value, *Error) {
 	r := value{off: v.off, end: w.end}
 	maxDeg := -1
 	if p.order > 0 {
 		maxDeg = p.order
 	}
-	prod, err := mul(v.p, w.p, maxDeg, p.lim.MaxTerms)
-	if err != nil {
+	prod, merr := mul(v.p, w.p, maxDeg, p.lim.MaxTerms)
+	if merr != nil {
 		return r, p.tooMany(op, r)
 	}
 	r.p = prod
@@ -550,7 +568,7 @@ func (p *parser) multiply(v, w value, op token) (value, error) {
 
 // divide returns v/w: an exact division by a constant, or in series mode a
 // product with the series of 1/w.
-func (p *parser) divide(v, w value, op token) (value, error) {
+func (p *parser) divide(v, w value, op token) (value, *Error) {
 	r := value{off: v.off, end: w.end}
 	if w.exact && w.p.IsConstant() {
 		c := w.p.constCoef()
@@ -574,7 +592,7 @@ func (p *parser) divide(v, w value, op token) (value, error) {
 }
 
 // raise returns base^ex; ex must be an exact constant.
-func (p *parser) raise(base, ex value, op token) (value, error) {
+func (p *parser) raise(base, ex value, op token) (value, *Error) {
 	r := value{off: base.off, end: ex.end}
 	if !ex.p.IsConstant() || !ex.exact {
 		return r, p.errAt(op, "the exponent %s is not a constant", p.snippet(ex))
@@ -606,13 +624,13 @@ func (p *parser) raise(base, ex value, op token) (value, error) {
 	}
 	if e.IsInt() && n >= 0 {
 		if p.order == 0 {
-			res, err := base.p.Pow(n, p.lim)
-			if err != nil {
+			res, perr := base.p.Pow(n, p.lim)
+			if perr != nil {
 				var le *LimitError
-				if errors.As(err, &le) {
+				if errors.As(perr, &le) {
 					return r, p.errAt(op, "%s", strings.TrimPrefix(strings.Replace(le.Error(), le.What, p.snippet(r), 1), "monomial: "))
 				}
-				return r, p.errAt(op, "%s: %v", p.snippet(r), err)
+				return r, p.errAt(op, "%s: %v", p.snippet(r), perr)
 			}
 			r.p, r.exact = res, true
 			return r, nil
@@ -620,8 +638,8 @@ func (p *parser) raise(base, ex value, op token) (value, error) {
 		deg := base.p.Degree()
 		exactFits := base.exact && deg >= 0 && deg <= p.order/max(n, 1)
 		if base.p.vanishesAtZero() || exactFits {
-			res, err := base.p.pow(n, p.order, p.lim.MaxTerms)
-			if err != nil {
+			res, perr := base.p.pow(n, p.order, p.lim.MaxTerms)
+			if perr != nil {
 				return r, p.tooMany(op, r)
 			}
 			r.p, r.exact = res, exactFits || (base.exact && base.p.IsZero())
@@ -642,7 +660,7 @@ func (p *parser) raise(base, ex value, op token) (value, error) {
 // seriesPower returns base^e as a truncated series by the binomial series:
 // base = c·(1+u) with c the constant term, base^e = c^e·(1+u)^e. fn names
 // the function for messages ("sqrt") or is empty for a power.
-func (p *parser) seriesPower(base value, e *big.Rat, whole value, at token, fn string) (value, error) {
+func (p *parser) seriesPower(base value, e *big.Rat, whole value, at token, fn string) (value, *Error) {
 	c := base.p.constCoef()
 	what := p.snippet(whole)
 	if c.isZero() {
@@ -673,8 +691,8 @@ func (p *parser) seriesPower(base value, e *big.Rat, whole value, at token, fn s
 	if !u.IsZero() {
 		k = p.order / u.MinDegree()
 	}
-	res, err := compose(binomialCoefs(e, k), u, p.order, p.lim.MaxTerms)
-	if err != nil {
+	res, cerr := compose(binomialCoefs(e, k), u, p.order, p.lim.MaxTerms)
+	if cerr != nil {
 		return whole, p.tooMany(at, whole)
 	}
 	whole.p = res.scale(coefFromRat(ce))
@@ -689,6 +707,9 @@ func (p *parser) seriesPower(base value, e *big.Rat, whole value, at token, fn s
 // white space is allowed. Errors are of type *Error.
 func ParseRat(s string) (*big.Rat, error) {
 	toks := newLexer(s, false).tokens()
+	if err := firstIllegal(toks); err != nil {
+		return nil, err
+	}
 	r, i, err := ratTokens(s, toks, 0)
 	if err != nil {
 		return nil, err
@@ -697,6 +718,16 @@ func ParseRat(s string) (*big.Rat, error) {
 		return nil, errAtTok(t, "expected end of number, found %s", describe(s, t))
 	}
 	return r, nil
+}
+
+// firstIllegal returns the error of the first lexical error token.
+func firstIllegal(toks []token) *Error {
+	for _, t := range toks {
+		if t.kind == tIllegal {
+			return errAtTok(t, "%s", t.msg)
+		}
+	}
+	return nil
 }
 
 func errAtTok(t token, format string, args ...any) *Error {
@@ -752,6 +783,9 @@ func ratTokens(src string, toks []token, i int) (*big.Rat, int, *Error) {
 // malformed pairs, bad names or numbers, and repeated names.
 func ParseBindings(s string) (names []string, values []*big.Rat, err error) {
 	toks := newLexer(s, false).tokens()
+	if err := firstIllegal(toks); err != nil {
+		return nil, nil, err
+	}
 	seen := map[string]token{}
 	i := 0
 	if toks[0].kind == tEOF {
