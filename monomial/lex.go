@@ -152,6 +152,7 @@ func (l *lexer) next() token {
 			}
 		case ';':
 			t.kind = tSemi
+			l.depth = 0 // an expression never continues past a ';'
 		case ',':
 			t.kind = tComma
 		case '=':
