@@ -182,7 +182,7 @@ func writeBound(w io.Writer, r *rlct.Result, pen *rlct.PenaltyReport) {
 			fmt.Fprintf(w, "    %d. at %s: λ = %s, θ = %d (%s)\n", i+1, pointString(l.Vars, l.Point), l.Lambda.RatString(), l.Theta, st)
 		}
 	} else if !allZero(r.Point) {
-		fmt.Fprintf(w, "  at the point %s\n", pointString(r.Vars, r.Point))
+		fmt.Fprintf(w, "  at the point %s (polynomials below are in the offsets w − w*)\n", pointString(r.Vars, r.Point))
 	}
 	fmt.Fprintf(w, "  Newton distance t = %s along τ = (%s) in (%s)\n", r.Distance.RatString(), ratList(r.Weights), strings.Join(r.Vars, ", "))
 	pf := r.Principal

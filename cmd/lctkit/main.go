@@ -37,8 +37,9 @@ const (
 type cli struct {
 	Version kong.VersionFlag `help:"Print the version and exit."`
 
-	Bound  boundCmd  `cmd:"" help:"Bound the learning coefficient λ and multiplicity θ of K; exact when certified."`
-	Expand expandCmd `cmd:"" help:"Expand an expression into its exact canonical polynomial."`
+	Bound   boundCmd   `cmd:"" help:"Bound the learning coefficient λ and multiplicity θ of K; exact when certified."`
+	Expand  expandCmd  `cmd:"" help:"Expand an expression into its exact canonical polynomial."`
+	Penalty penaltyCmd `cmd:"" help:"Print the asymptotic penalty λ·log n − (θ−1)·log log n beside the regular one."`
 }
 
 // env is what commands read from and write to; tests replace it.

@@ -3,6 +3,7 @@ package main
 import (
 	"bytes"
 	"encoding/json"
+	"math"
 	"strings"
 	"testing"
 )
@@ -103,6 +104,36 @@ func TestExpand(t *testing.T) {
 		out, errOut, code := runCLI(t, "", tt.args...)
 		if code != exitOK || out != tt.want {
 			t.Errorf("%v: exit %d, got %q, want %q (stderr %s)", tt.args, code, out, tt.want, errOut)
+		}
+	}
+}
+
+func TestPenalty(t *testing.T) {
+	out, _, code := runCLI(t, "", "penalty", "--lambda", "3/4", "--theta", "2", "--n", "1000", "--d", "3", "--json")
+	if code != exitOK {
+		t.Fatalf("exit %d", code)
+	}
+	var rep struct {
+		Singular []float64 `json:"singular"`
+		Regular  []float64 `json:"regular"`
+	}
+	if err := json.Unmarshal([]byte(out), &rep); err != nil {
+		t.Fatal(err)
+	}
+	// λ log n − (θ−1) log log n at n = 1000 with λ = 3/4, θ = 2, and the BIC
+	// penalty (3/2) log n (Watanabe 2009; Schwarz 1978): by hand,
+	// 0.75·6.907755 − log 6.907755 = 5.180817 − 1.932645 = 3.248172, and
+	// 1.5·6.907755 = 10.361633.
+	if math.Abs(rep.Singular[0]-3.248172) > 1e-5 || math.Abs(rep.Regular[0]-10.361633) > 1e-5 {
+		t.Errorf("got %v, %v", rep.Singular, rep.Regular)
+	}
+	for _, bad := range [][]string{
+		{"penalty", "--lambda", "-1", "--n", "100"},
+		{"penalty", "--lambda", "1/2", "--n", "2"},
+		{"penalty", "--lambda", "x", "--n", "100"},
+	} {
+		if _, _, code := runCLI(t, "", bad...); code == exitOK {
+			t.Errorf("%v: accepted", bad)
 		}
 	}
 }

@@ -1,0 +1,81 @@
+package main
+
+import (
+	"encoding/json"
+	"flag"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+)
+
+var update = flag.Bool("update", false, "rewrite the golden files of the examples")
+
+// exampleChecks are the answers of the examples worked out by hand in their
+// README files, with the sources named there; they guard the golden files,
+// which are only regression records.
+var exampleChecks = map[string]struct {
+	lambda string
+	theta  float64
+	status string
+}{
+	// s²(g1² + g2²): normal crossings, min(1/2, 1) (Watanabe 2009, ch. 2).
+	"calibration": {"1/2", 1, "exact"},
+	// Newton value only; the true λ is 1 (rank-2 quadratic form, common practice).
+	"calibration-shifted": {"3/2", 1, "upper-bound"},
+	// lowest terms ab, a², b³: Howald 2001, Trans. AMS 353, halved.
+	"mixture": {"1/2", 2, "exact"},
+}
+
+// TestExamples runs every examples/*/args command line and compares the
+// output with expected.txt beside it.
+func TestExamples(t *testing.T) {
+	dirs, err := filepath.Glob("../../examples/*/args")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(dirs) == 0 {
+		t.Fatal("no examples found")
+	}
+	for _, argsFile := range dirs {
+		dir := filepath.Dir(argsFile)
+		name := filepath.Base(dir)
+		t.Run(name, func(t *testing.T) {
+			raw, err := os.ReadFile(argsFile)
+			if err != nil {
+				t.Fatal(err)
+			}
+			args := strings.Split(strings.TrimRight(string(raw), "\n"), "\n")
+			out, errOut, code := runCLI(t, "", args...)
+			if code != exitOK {
+				t.Fatalf("exit %d: %s", code, errOut)
+			}
+			golden := filepath.Join(dir, "expected.txt")
+			if *update {
+				if err := os.WriteFile(golden, []byte(out), 0o644); err != nil {
+					t.Fatal(err)
+				}
+			}
+			want, err := os.ReadFile(golden)
+			if err != nil {
+				t.Fatalf("%v (run with -update to create it)", err)
+			}
+			if out != string(want) {
+				t.Errorf("output differs from %s:\n--- got\n%s\n--- want\n%s", golden, out, want)
+			}
+			check, ok := exampleChecks[name]
+			if !ok || args[0] != "bound" {
+				return
+			}
+			jout, _, _ := runCLI(t, "", append(args, "--json")...)
+			var rep map[string]any
+			if err := json.Unmarshal([]byte(jout), &rep); err != nil {
+				t.Fatal(err)
+			}
+			if rep["lambda"] != check.lambda || rep["theta"] != check.theta || rep["status"] != check.status {
+				t.Errorf("got (%v, %v, %v), want (%s, %v, %s) as worked out in the README",
+					rep["lambda"], rep["theta"], rep["status"], check.lambda, check.theta, check.status)
+			}
+		})
+	}
+}
