@@ -1,0 +1,552 @@
+package rlct
+
+import (
+	"context"
+	"errors"
+	"math"
+	"reflect"
+	"strings"
+	"testing"
+)
+
+// funcEval adapts a Go function to Evaluator.
+type funcEval struct {
+	n int
+	f func([]float64) float64
+}
+
+func (e funcEval) Eval(x []float64) float64 { return e.f(x) }
+func (e funcEval) NumVars() int             { return e.n }
+
+// exactCurve returns y(n) = n·E_n[K] computed by quadrature from a volume
+// function V(ε) = prior mass of {K < ε} (normalized or not): integrating by
+// parts, Z(n) = ∫ V(t/n) e^(−t) dt and n·∫K e^(−nK) dπ = ∫ V(t/n)(t−1)
+// e^(−t) dt over t > 0. The substitution t = e^s and the trapezoidal rule over
+// s ∈ [−60, 5] converge fast for V(ε) ~ ε^λ·(log terms). This shares no code
+// with the nested sampler.
+func exactCurve(vol func(eps float64) float64, n float64) float64 {
+	const lo, hi, steps = -60.0, 5.0, 20000
+	h := (hi - lo) / steps
+	var z, zt float64
+	for i := 0; i <= steps; i++ {
+		s := lo + h*float64(i)
+		t := math.Exp(s)
+		w := vol(t/n) * math.Exp(-t) * t // dt = t ds
+		if i == 0 || i == steps {
+			w /= 2
+		}
+		z += w
+		zt += w * (t - 1)
+	}
+	return zt / z
+}
+
+func sq(x float64) float64 { return x * x }
+
+// validationCase is a K with a known learning coefficient and, where it can be
+// written down, the exact volume function V(ε) on the box, used to compute the
+// limit of the estimator (the fit applied to the exact curve y(n)) and so its
+// deterministic model bias.
+type validationCase struct {
+	name          string
+	k             func(x []float64) float64
+	lower, upper  []float64
+	prior         []float64
+	lambda, theta float64                   // published values (source beside each case)
+	newton        float64                   // Newton-polyhedron bound on λ
+	vol           func(eps float64) float64 // exact V(ε) up to a constant factor, for ε below the grid's 1/n_min
+}
+
+var validationCases = []validationCase{
+	{
+		// Regular model: λ = d/2, θ = 1 (Watanabe 2009, Algebraic Geometry and
+		// Statistical Learning Theory, section 1.4 / Remark 1.xx, from memory;
+		// Schwarz 1978, "Estimating the dimension of a model", Ann. Statist.
+		// 6(2):461–464). V(ε) = πε/4 for ε ≤ 1 (disk inside the square).
+		name: "x^2+y^2", k: func(x []float64) float64 { return x[0]*x[0] + x[1]*x[1] },
+		lower: []float64{-1, -1}, upper: []float64{1, 1},
+		lambda: 1, theta: 1, newton: 1,
+		vol: func(e float64) float64 { return math.Pi / 4 * e },
+	},
+	{
+		// Single monomial x^2y^2: λ = min over variables of 1/(2·1) = 1/2,
+		// attained twice, so θ = 2 (Arnold, Gusein-Zade & Varchenko 1988,
+		// Singularities of Differentiable Maps Vol. II, chapter on
+		// asymptotics of integrals, from memory). V(ε) = s(1 + log(1/s)),
+		// s = √ε ≤ 1: P(|xy| < s) for x, y uniform on [0,1].
+		name: "x^2*y^2", k: func(x []float64) float64 { return x[0] * x[0] * x[1] * x[1] },
+		lower: []float64{-1, -1}, upper: []float64{1, 1},
+		lambda: 0.5, theta: 2, newton: 0.5,
+		vol: func(e float64) float64 { s := math.Sqrt(e); return s * (1 - math.Log(s)) },
+	},
+	{
+		// Sum of squares of the monomials x^2, y^3: λ = half the log canonical
+		// threshold of the monomial ideal (x^2, y^3), which is 1/t for the
+		// Newton distance t = 6/5 (Howald 2001, "Multiplier ideals of monomial
+		// ideals", Trans. AMS 353:2665–2671, main theorem): λ = 5/12, θ = 1.
+		// V(ε) = c·ε^(1/4+1/6) for ε ≤ 1 (quasi-homogeneous, region inside
+		// the box).
+		name: "x^4+y^6", k: func(x []float64) float64 { return sq(x[0]*x[0]) + sq(x[1]*x[1]*x[1]) },
+		lower: []float64{-1, -1}, upper: []float64{1, 1},
+		lambda: 5.0 / 12, theta: 1, newton: 5.0 / 12,
+		vol: func(e float64) float64 { return math.Pow(e, 5.0/12) },
+	},
+	{
+		// Monomial x^2y^2 with prior |x|^1: λ = min((1+1)/2, (0+1)/2) = 1/2,
+		// attained once, θ = 1 (Watanabe 2009, the normal-crossing case
+		// K = w^(2k), φ = |w^h|: λ = min (h_j+1)/(2k_j), from memory).
+		// V(ε) = 2s − s², s = √ε ≤ 1: P(xy < s) with density 2x on [0,1]
+		// for x and uniform y.
+		name: "x^2*y^2 with prior |x|", k: func(x []float64) float64 { return x[0] * x[0] * x[1] * x[1] },
+		lower: []float64{-1, -1}, upper: []float64{1, 1}, prior: []float64{1, 0},
+		lambda: 0.5, theta: 1, newton: 0.5,
+		vol: func(e float64) float64 { s := math.Sqrt(e); return 2*s - s*s },
+	},
+	{
+		// Degenerate: (x−y)^2 is u^2 after u = x − y, so λ = 1/2, θ = 1
+		// (regular in one variable, as above), while the Newton polyhedron
+		// of x^2 − 2xy + y^2 has distance 1, bound 1. V(ε) = s − s²/4,
+		// s = √ε ≤ 2: x − y has the triangular density (2 − |z|)/4.
+		name: "(x-y)^2", k: func(x []float64) float64 { return sq(x[0] - x[1]) },
+		lower: []float64{-1, -1}, upper: []float64{1, 1},
+		lambda: 0.5, theta: 1, newton: 1,
+		vol: func(e float64) float64 { s := math.Sqrt(e); return s - s*s/4 },
+	},
+	{
+		// Degenerate: (y−x^2)^2 is v^2 after v = y − x^2, λ = 1/2, θ = 1; the
+		// Newton polyhedron of y^2 − 2x^2y + x^4 has vertices (4,0), (0,2),
+		// distance 4/3, bound 3/4. On [−1,1]^2 the band |y − x^2| < s is cut
+		// by the side y = 1 for |x| > r = √(1−s): V(ε) = (2sr + (1+s)(1−r) −
+		// (1−r³)/3)/2.
+		name: "(y-x^2)^2", k: func(x []float64) float64 { return sq(x[1] - x[0]*x[0]) },
+		lower: []float64{-1, -1}, upper: []float64{1, 1},
+		lambda: 0.5, theta: 1, newton: 0.75,
+		vol: func(e float64) float64 {
+			s := math.Sqrt(e)
+			r := math.Sqrt(1 - s)
+			return (2*s*r + (1+s)*(1-r) - (1-r*r*r)/3) / 2
+		},
+	},
+}
+
+// limitFit returns the fit of the exact curve on the estimate's grid: the
+// limit of the estimator for infinitely many live points.
+func limitFit(vol func(float64) float64, e *Estimate) (lambda, theta float64) {
+	grid := make([]float64, len(e.Points))
+	y := make([]float64, len(e.Points))
+	for i, p := range e.Points {
+		grid[i] = p.N
+		y[i] = exactCurve(vol, p.N)
+	}
+	lambda, theta, _ = fitCurve(grid, y, e.Top)
+	return lambda, theta
+}
+
+// TestEstimateValidation checks λ̂ and θ̂ against published values with
+// Live = 100, Runs = 16 (1600 live points), Seed = 1. The tolerance is 4
+// jackknife standard errors (15 degrees of freedom: a correct estimator
+// fails one check with probability about 0.001) plus the deterministic bias
+// of the fitted model, |fit of the exact curve − true value|, computed from
+// the exact V(ε) by quadrature (it comes from the O(n^−1/2) terms of the box
+// boundary and the prior).
+func TestEstimateValidation(t *testing.T) {
+	for _, c := range validationCases {
+		t.Run(c.name, func(t *testing.T) {
+			e, err := EstimateThreshold(context.Background(), funcEval{2, c.k}, EstimateOptions{
+				Lower: c.lower, Upper: c.upper, Prior: c.prior, Live: 100, Runs: 16, Seed: 1})
+			if err != nil {
+				t.Fatal(err)
+			}
+			limL, limT := limitFit(c.vol, e)
+			t.Logf("λ̂ = %.4f ± %.4f (limit %.4f), θ̂ = %.3f ± %.3f (limit %.3f), %d evaluations",
+				e.Lambda, e.LambdaSE, limL, e.Theta, e.ThetaSE, limT, e.Evaluations)
+			if tol := 4*e.LambdaSE + math.Abs(limL-c.lambda); math.Abs(e.Lambda-c.lambda) > tol {
+				t.Errorf("λ̂ = %.4f ± %.4f, want %.4f within %.4f", e.Lambda, e.LambdaSE, c.lambda, tol)
+			}
+			if tol := 4*e.ThetaSE + math.Abs(limT-c.theta); math.Abs(e.Theta-c.theta) > tol {
+				t.Errorf("θ̂ = %.3f ± %.3f, want %.3f within %.3f", e.Theta, e.ThetaSE, c.theta, tol)
+			}
+			// Standard errors of a sane size: the Fisher information of
+			// 1600 live points bounds se(λ̂) below by about 0.005 here.
+			if !(e.LambdaSE > 0.002 && e.LambdaSE < 0.05) {
+				t.Errorf("se(λ̂) = %g is implausible", e.LambdaSE)
+			}
+			v := e.Compare(c.newton)
+			strict := c.newton > c.lambda
+			if v.Consistent == strict {
+				t.Errorf("Compare(%g) = %+v; bound strict: %v", c.newton, v, strict)
+			}
+			if strict && !strings.Contains(v.Text, "probably strict") {
+				t.Errorf("Compare(%g).Text = %q", c.newton, v.Text)
+			}
+		})
+	}
+}
+
+// TestEstimateValidationSlow: three variables with θ = 3 and a regular model
+// in four variables, at larger sample sizes.
+func TestEstimateValidationSlow(t *testing.T) {
+	if testing.Short() {
+		t.Skip("slow")
+	}
+	cases := []struct {
+		name          string
+		d             int
+		k             func(x []float64) float64
+		lambda, theta float64
+		vol           func(float64) float64
+	}{
+		// x^2y^2z^2: λ = 1/2 attained three times, θ = 3 (as for x^2y^2
+		// above). −log|xyz| is a sum of three Exp(1) variables, so
+		// V(ε) = s(1 + L + L²/2), s = √ε, L = log(1/s).
+		{"x^2*y^2*z^2", 3, func(x []float64) float64 { return sq(x[0] * x[1] * x[2]) }, 0.5, 3,
+			func(e float64) float64 { s := math.Sqrt(e); l := -math.Log(s); return s * (1 + l + l*l/2) }},
+		// Regular in four variables: λ = 2, θ = 1 (Watanabe 2009; Schwarz
+		// 1978). V(ε) ∝ ε² for ε ≤ 1 (ball inside the cube).
+		{"w1^2+...+w4^2", 4, func(x []float64) float64 { return x[0]*x[0] + x[1]*x[1] + x[2]*x[2] + x[3]*x[3] }, 2, 1,
+			func(e float64) float64 { return e * e }},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			lo, hi := make([]float64, c.d), make([]float64, c.d)
+			for i := range lo {
+				lo[i], hi[i] = -1, 1
+			}
+			e, err := EstimateThreshold(context.Background(), funcEval{c.d, c.k}, EstimateOptions{
+				Lower: lo, Upper: hi, Live: 200, Runs: 16, Seed: 7})
+			if err != nil {
+				t.Fatal(err)
+			}
+			limL, limT := limitFit(c.vol, e)
+			t.Logf("λ̂ = %.4f ± %.4f (limit %.4f), θ̂ = %.3f ± %.3f (limit %.3f), %d evaluations",
+				e.Lambda, e.LambdaSE, limL, e.Theta, e.ThetaSE, limT, e.Evaluations)
+			if tol := 4*e.LambdaSE + math.Abs(limL-c.lambda); math.Abs(e.Lambda-c.lambda) > tol {
+				t.Errorf("λ̂ = %.4f ± %.4f, want %.4f within %.4f", e.Lambda, e.LambdaSE, c.lambda, tol)
+			}
+			if tol := 4*e.ThetaSE + math.Abs(limT-c.theta); math.Abs(e.Theta-c.theta) > tol {
+				t.Errorf("θ̂ = %.3f ± %.3f, want %.3f within %.3f", e.Theta, e.ThetaSE, c.theta, tol)
+			}
+		})
+	}
+}
+
+// TestEstimateCurveX2 checks the volume and weight bookkeeping of the sampler
+// on K = x² with the uniform prior on [−1,1], where V(ε) = √ε exactly, so
+// Z(n) = ∫_0^1 e^(−nx²) dx = √π·erf(√n)/(2√n) and, integrating x²e^(−nx²) by
+// parts, y(n) = n·E_n[K] = 1/2 − e^(−n)/(2Z(n)). The check spans small n,
+// where the box matters, to large n; tolerance 4 jackknife standard errors.
+func TestEstimateCurveX2(t *testing.T) {
+	cfg, err := newEstimateConfig(funcEval{1, func(x []float64) float64 { return x[0] * x[0] }},
+		EstimateOptions{Lower: []float64{-1}, Upper: []float64{1}, Live: 100, Runs: 16, Seed: 3})
+	if err != nil {
+		t.Fatal(err)
+	}
+	s, err := cfg.sample(context.Background())
+	if err != nil {
+		t.Fatal(err)
+	}
+	ns := []float64{0.25, 1, 4, 16, 100, 1e4, 1e6, 1e8}
+	y, se, _ := newMerger(s.runs).curveSE(ns)
+	for i, n := range ns {
+		z := math.Sqrt(math.Pi) * math.Erf(math.Sqrt(n)) / (2 * math.Sqrt(n))
+		want := 0.5 - math.Exp(-n)/(2*z)
+		if math.Abs(y[i]-want) > 4*se[i] {
+			t.Errorf("y(%g) = %.5f ± %.5f, want %.5f", n, y[i], se[i], want)
+		}
+		if !(se[i] < 0.02) {
+			t.Errorf("y(%g): se = %g too large", n, se[i])
+		}
+	}
+}
+
+// syntheticRun returns a run record for K = x² on [−1,1] with the prior mass
+// sequence X_j = q^(j+phase), q = N/(N+1), laid out exactly (K_j = X_j², since
+// V(ε) = √ε): the removed points, then the N final live points. The first N
+// points in removal order are the initial ones (born under +Inf); the point
+// at position p ≥ N was born when point p−N was removed.
+func syntheticRun(n, dead int, phase float64) *nsRun {
+	q := float64(n) / float64(n+1)
+	r := &nsRun{}
+	for p := range dead + n {
+		x := math.Pow(q, float64(p+1)+phase)
+		birth := math.Inf(1)
+		if p >= n {
+			birth = r.points[p-n].k
+		}
+		r.points = append(r.points, nsPoint{k: x * x, birth: birth})
+	}
+	return r
+}
+
+// TestMergerSynthetic checks the live-point counting of the merge and the
+// weights on exactly laid-out runs: one run keeps N live points, two
+// interleaved runs 2N, so the prior mass after m removals is (N/(N+1))^m or
+// (2N/(2N+1))^m; and y(n) from the weights matches the closed form of
+// TestEstimateCurveX2. The weights are a Riemann sum in log X with relative
+// step 1/(N+1) of integrands that are unimodal in log X, so the relative
+// error of Z and of n·∫K e^(−nK) is at most about 2/N, and that of y(n) about
+// 4/N (we allow 10/N).
+func TestMergerSynthetic(t *testing.T) {
+	const n, dead = 2000, 60000
+	for _, runs := range [][]*nsRun{
+		{syntheticRun(n, dead, 0)},
+		{syntheticRun(n, dead, 0), syntheticRun(n, dead, 0.5)},
+	} {
+		m := newMerger(runs)
+		m.weights(-1)
+		live := float64(n * len(runs))
+		q := live / (live + 1)
+		for j := range dead * len(runs) {
+			wantLog := float64(j)*math.Log(q) - math.Log(live+1)
+			if math.Abs(m.logW[j]-wantLog) > 1e-9*math.Max(1, math.Abs(wantLog)) {
+				t.Fatalf("%d runs: log weight %d = %.12g, want %.12g", len(runs), j, m.logW[j], wantLog)
+			}
+		}
+		// All the weights add up to the prior mass 1.
+		var total float64
+		for _, lw := range m.logW {
+			total += math.Exp(lw)
+		}
+		if math.Abs(total-1) > 1e-9 {
+			t.Errorf("%d runs: weights add up to %.12g", len(runs), total)
+		}
+		ns := []float64{1, 10, 1e3, 1e5, 1e7}
+		y := m.curve(ns, -1)
+		for i, nn := range ns {
+			z := math.Sqrt(math.Pi) * math.Erf(math.Sqrt(nn)) / (2 * math.Sqrt(nn))
+			want := 0.5 - math.Exp(-nn)/(2*z)
+			if math.Abs(y[i]-want) > 10/float64(n) {
+				t.Errorf("%d runs: y(%g) = %.6f, want %.6f", len(runs), nn, y[i], want)
+			}
+		}
+	}
+}
+
+// TestFitExactCurve: on the exact curve of x²y² on [−1,1]² (see
+// validationCases; Z(n) ∝ n^(−1/2)·(log n − ψ(1/2))) the fit with the true
+// top value 1 returns λ = 1/2, θ = 2 and b = −ψ(1/2) = γ + 2 log 2, and on a
+// flat curve θ = 1 whatever the top.
+func TestFitExactCurve(t *testing.T) {
+	grid := make([]float64, 25)
+	y := make([]float64, 25)
+	for i := range grid {
+		grid[i] = math.Pow(10, 2+float64(i)/4)
+		// Z(n) = (√π/4)·n^(−1/2)·(log n − ψ(1/2)) from V(ε) = s(1 + log 1/s),
+		// so y = 1/2 − 1/(log n − ψ(1/2)).
+		y[i] = 0.5 - 1/(math.Log(grid[i])+0.5772156649015329+2*math.Ln2)
+	}
+	l, th, b := fitCurve(grid, y, 1)
+	if math.Abs(l-0.5) > 1e-9 || math.Abs(th-2) > 1e-8 || math.Abs(b-(0.5772156649015329+2*math.Ln2)) > 1e-9 {
+		t.Errorf("exact x²y² curve: λ = %.12f θ = %.12f b = %.12f", l, th, b)
+	}
+	// The quadrature of exactCurve reproduces the same closed form.
+	for _, n := range []float64{100, 1e5, 1e9} {
+		got := exactCurve(func(e float64) float64 { s := math.Sqrt(e); return s * (1 - math.Log(s)) }, n)
+		want := 0.5 - 1/(math.Log(n)+0.5772156649015329+2*math.Ln2)
+		if math.Abs(got-want) > 1e-9 {
+			t.Errorf("exactCurve(x²y², %g) = %.12f, want %.12f", n, got, want)
+		}
+	}
+	for i := range y {
+		y[i] = 0.75
+	}
+	for _, top := range []float64{1e-3, 1, 1e3} {
+		l, th, _ := fitCurve(grid, y, top)
+		if math.Abs(l-0.75) > 1e-12 || math.Abs(th-1) > 1e-12 {
+			t.Errorf("flat curve, top %g: λ = %g θ = %g", top, l, th)
+		}
+	}
+}
+
+// TestDigamma against Abramowitz & Stegun 1964, 6.3.2 (ψ(1) = −γ), 6.3.3
+// (ψ(1/2) = −γ − 2 log 2) and the recurrence 6.3.5.
+func TestDigamma(t *testing.T) {
+	const gamma = 0.5772156649015329
+	for _, c := range []struct{ x, want float64 }{
+		{1, -gamma},
+		{0.5, -gamma - 2*math.Ln2},
+		{1.5, -gamma - 2*math.Ln2 + 2},
+		{3, -gamma + 1 + 0.5},
+		{10.5, 2.3030010342},
+	} {
+		if got := digamma(c.x); math.Abs(got-c.want) > 1e-9 {
+			t.Errorf("ψ(%g) = %.12f, want %.12f", c.x, got, c.want)
+		}
+	}
+}
+
+func quickOptions() EstimateOptions {
+	return EstimateOptions{Lower: []float64{-1, -1}, Upper: []float64{1, 1}, Live: 20, Runs: 4, Decades: 3, Seed: 11}
+}
+
+var quickK = funcEval{2, func(x []float64) float64 { return sq(x[0] * x[1]) }}
+
+// TestEstimateDeterministic: the same seed gives the identical result with
+// any number of workers; another seed gives another result.
+func TestEstimateDeterministic(t *testing.T) {
+	var first *Estimate
+	for _, w := range []int{1, 2, 3, 8} {
+		opt := quickOptions()
+		opt.Workers = w
+		e, err := EstimateThreshold(context.Background(), quickK, opt)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if first == nil {
+			first = e
+		} else if !reflect.DeepEqual(first, e) {
+			t.Errorf("Workers = %d: result differs:\n%+v\n%+v", w, first, e)
+		}
+	}
+	opt := quickOptions()
+	opt.Seed++
+	e, err := EstimateThreshold(context.Background(), quickK, opt)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if e.Lambda == first.Lambda {
+		t.Errorf("seeds %d and %d gave the same λ̂ %v", opt.Seed-1, opt.Seed, e.Lambda)
+	}
+}
+
+func TestEstimateErrors(t *testing.T) {
+	two := []float64{-1, -1}
+	one := []float64{1, 1}
+	cases := []struct {
+		name string
+		k    Evaluator
+		opt  EstimateOptions
+		want string
+	}{
+		{"nil evaluator", nil, EstimateOptions{Lower: two, Upper: one}, "nil Evaluator"},
+		{"no variables", funcEval{0, nil}, EstimateOptions{}, "0 variables"},
+		{"box length", quickK, EstimateOptions{Lower: []float64{-1}, Upper: one}, "1 lower and 2 upper"},
+		{"prior length", quickK, EstimateOptions{Lower: two, Upper: one, Prior: []float64{0}}, "prior has 1 exponents"},
+		{"empty box", quickK, EstimateOptions{Lower: two, Upper: []float64{1, -1}}, "empty box in variable 1"},
+		{"infinite box", quickK, EstimateOptions{Lower: two, Upper: []float64{1, math.Inf(1)}}, "not finite"},
+		{"prior -1", quickK, EstimateOptions{Lower: two, Upper: one, Prior: []float64{0, -1}}, "variable 1 must be"},
+		{"prior NaN", quickK, EstimateOptions{Lower: two, Upper: one, Prior: []float64{math.NaN(), 0}}, "variable 0 must be"},
+		{"live", quickK, EstimateOptions{Lower: two, Upper: one, Live: -5}, "Live = -5"},
+		{"live small", quickK, EstimateOptions{Lower: two, Upper: one, Live: 3}, "Live = 3"},
+		{"runs", quickK, EstimateOptions{Lower: two, Upper: one, Runs: 1}, "Runs = 1"},
+		{"workers", quickK, EstimateOptions{Lower: two, Upper: one, Workers: -1}, "Workers = -1"},
+		{"decades", quickK, EstimateOptions{Lower: two, Upper: one, Decades: 20}, "Decades = 20"},
+		{"steps", quickK, EstimateOptions{Lower: two, Upper: one, Steps: -2}, "Steps = -2"},
+		{"roundoff", quickK, EstimateOptions{Lower: two, Upper: one, RoundOff: -1}, "RoundOff = -1"},
+		{"roundoff too big", quickK, EstimateOptions{Lower: two, Upper: one, RoundOff: 1e-8}, "100·RoundOff"},
+	}
+	for _, c := range cases {
+		t.Run(c.name, func(t *testing.T) {
+			_, err := EstimateThreshold(context.Background(), c.k, c.opt)
+			if err == nil || !strings.Contains(err.Error(), c.want) || !strings.HasPrefix(err.Error(), "rlct: ") {
+				t.Errorf("err = %v, want one containing %q", err, c.want)
+			}
+		})
+	}
+}
+
+// TestEstimateBadK: negative and NaN values of K are reported with the point,
+// small negative values are accepted within RoundOff, a K that is constant
+// on a set of positive mass and a K that does not vanish to second order
+// stop the run with the sentinel errors.
+func TestEstimateBadK(t *testing.T) {
+	opt := quickOptions()
+	neg := funcEval{2, func(x []float64) float64 { return x[0]*x[0] - 0.25 }}
+	_, err := EstimateThreshold(context.Background(), neg, opt)
+	var kerr *KValueError
+	if !errors.As(err, &kerr) || len(kerr.Point) != 2 || !(kerr.Value < 0) ||
+		math.Abs(kerr.Value-(kerr.Point[0]*kerr.Point[0]-0.25)) > 1e-15 || !strings.Contains(err.Error(), "negative") {
+		t.Errorf("negative K: err = %v", err)
+	}
+	nan := funcEval{2, func(x []float64) float64 {
+		if x[0] > 0.5 {
+			return math.NaN()
+		}
+		return x[0] * x[0]
+	}}
+	_, err = EstimateThreshold(context.Background(), nan, opt)
+	if !errors.As(err, &kerr) || !(kerr.Point[0] > 0.5) || !strings.Contains(err.Error(), "not finite") {
+		t.Errorf("NaN K: err = %v", err)
+	}
+	// Expanded (x − y)² evaluates slightly below zero near x = y.
+	expanded := funcEval{2, func(x []float64) float64 { return x[0]*x[0] - 2*x[0]*x[1] + x[1]*x[1] }}
+	opt.RoundOff = 1e-15
+	if _, err := EstimateThreshold(context.Background(), expanded, opt); err != nil {
+		t.Errorf("expanded (x−y)² with RoundOff: %v", err)
+	}
+	opt.RoundOff = 0
+	flat := funcEval{2, func(x []float64) float64 { return math.Max(0, x[0]) }}
+	if _, err := EstimateThreshold(context.Background(), flat, opt); !errors.Is(err, ErrNoProgress) {
+		t.Errorf("K = 0 on half the box: err = %v", err)
+	}
+	plateau := funcEval{2, func(x []float64) float64 { return 1 + math.Max(0, x[0]) }}
+	if _, err := EstimateThreshold(context.Background(), plateau, opt); !errors.Is(err, ErrNoProgress) {
+		t.Errorf("K = 1 on half the box: err = %v", err)
+	}
+	// |x|^(1/50) has λ = 50, far beyond what a C² function vanishing at 0
+	// can have in two variables (λ ≤ 1).
+	steep := funcEval{2, func(x []float64) float64 { return math.Pow(math.Abs(x[0]), 0.02) }}
+	if _, err := EstimateThreshold(context.Background(), steep, opt); !errors.Is(err, ErrTooDeep) {
+		t.Errorf("K = |x|^(1/50): err = %v", err)
+	}
+}
+
+func TestEstimateCancel(t *testing.T) {
+	ctx, cancel := context.WithCancel(context.Background())
+	cancel()
+	if _, err := EstimateThreshold(ctx, quickK, quickOptions()); !errors.Is(err, context.Canceled) {
+		t.Errorf("cancelled before: err = %v", err)
+	}
+	ctx, cancel = context.WithCancel(context.Background())
+	defer cancel()
+	opt := quickOptions()
+	opt.Progress = func(done, total int) {
+		if done > 0 {
+			cancel()
+		}
+	}
+	if _, err := EstimateThreshold(ctx, quickK, opt); !errors.Is(err, context.Canceled) {
+		t.Errorf("cancelled during: err = %v", err)
+	}
+}
+
+func TestEstimateProgress(t *testing.T) {
+	opt := quickOptions()
+	opt.Workers = 2
+	var calls, last, tot int
+	opt.Progress = func(done, total int) {
+		if done < last || total != 1000*opt.Runs || done > total {
+			t.Errorf("progress %d/%d after %d", done, total, last)
+		}
+		calls++
+		last, tot = done, total
+	}
+	if _, err := EstimateThreshold(context.Background(), quickK, opt); err != nil {
+		t.Fatal(err)
+	}
+	if calls < 3 || last != tot {
+		t.Errorf("%d progress calls, last %d/%d", calls, last, tot)
+	}
+}
+
+func TestCompare(t *testing.T) {
+	cases := []struct {
+		lambda, se, bound float64
+		consistent        bool
+		sigmas            float64
+		text              string
+	}{
+		{0.5, 0.01, 1, false, 50, "below the bound by 50.0 standard errors: the bound is probably strict here"},
+		{0.5, 0.01, 0.529, true, 2.9, "consistent with the bound"},
+		{0.5, 0.01, 0.5, true, 0, "consistent with the bound"},
+		{0.5, 0.01, 0.45, true, -5, "consistent with the bound, but above it by 5.0 standard errors"},
+		{0.5, 0.01, 0.531, false, 3.1, "below the bound by 3.1 standard errors"},
+	}
+	for _, c := range cases {
+		e := &Estimate{Lambda: c.lambda, LambdaSE: c.se}
+		v := e.Compare(c.bound)
+		if v.Consistent != c.consistent || math.Abs(v.Sigmas-c.sigmas) > 1e-9 || !strings.HasPrefix(v.Text, c.text) || v.Bound != c.bound {
+			t.Errorf("λ̂ = %g ± %g vs %g: %+v", c.lambda, c.se, c.bound, v)
+		}
+	}
+}
