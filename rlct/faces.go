@@ -410,13 +410,14 @@ func torusWitness(vars []string, u []int, iv interval) *Witness {
 			w.Point = append(w.Point, name+"=1")
 			continue
 		}
-		if iv.exact() && abs(u[j]) == 1 {
-			v := new(big.Rat).Set(r)
-			if u[j] < 0 {
-				v.Inv(v)
+		if iv.exact() {
+			if v, ok := ratRoot(r, abs(u[j])); ok {
+				if u[j] < 0 {
+					v.Inv(v)
+				}
+				w.Point = append(w.Point, name+"="+v.RatString())
+				continue
 			}
-			w.Point = append(w.Point, name+"="+v.RatString())
-			continue
 		}
 		f, _ := r.Float64()
 		v := math.Pow(math.Abs(f), 1/float64(u[j]))
@@ -426,6 +427,37 @@ func torusWitness(vars []string, u []int, iv interval) *Witness {
 		w.Point = append(w.Point, fmt.Sprintf("%s≈%.9g", name, v))
 	}
 	return w
+}
+
+// ratRoot returns the real k-th root of r when it is rational (k ≥ 1; for
+// even k, r must be positive, which torusWitness guarantees).
+func ratRoot(r *big.Rat, k int) (*big.Rat, bool) {
+	num, ok1 := intRoot(new(big.Int).Abs(r.Num()), k)
+	den, ok2 := intRoot(r.Denom(), k)
+	if !ok1 || !ok2 || (r.Sign() < 0 && k%2 == 0) {
+		return nil, false
+	}
+	v := new(big.Rat).SetFrac(num, den)
+	if r.Sign() < 0 {
+		v.Neg(v)
+	}
+	return v, true
+}
+
+// intRoot returns the k-th root of n ≥ 0 when n is a perfect k-th power, by
+// bisection.
+func intRoot(n *big.Int, k int) (*big.Int, bool) {
+	lo, hi := big.NewInt(0), new(big.Int).Add(n, big.NewInt(1))
+	kk := big.NewInt(int64(k))
+	for new(big.Int).Sub(hi, lo).Cmp(big.NewInt(1)) > 0 {
+		mid := new(big.Int).Rsh(new(big.Int).Add(lo, hi), 1)
+		if new(big.Int).Exp(mid, kk, nil).Cmp(n) <= 0 {
+			lo = mid
+		} else {
+			hi = mid
+		}
+	}
+	return lo, new(big.Int).Exp(lo, kk, nil).Cmp(n) == 0
 }
 
 func abs(x int) int {

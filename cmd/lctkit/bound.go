@@ -81,7 +81,7 @@ func showSpecError(e *env, err error) error {
 		if se.Field == "k" {
 			label = "K"
 		}
-		printError(e.stderr, label, se.Src, err)
+		printError(e.stderr, label, se.Src, se.Err)
 		return exitError{exitFailed}
 	}
 	return err
