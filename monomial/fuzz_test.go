@@ -1,0 +1,94 @@
+package monomial
+
+import (
+	"errors"
+	"testing"
+	"unicode/utf8"
+)
+
+// fuzzLimits keep each fuzz input cheap.
+var fuzzLimits = Limits{MaxTerms: 5000, MaxExponent: 60, MaxOrder: 8, MaxBits: 50000}
+
+// FuzzParse checks that no input makes the parser panic, that errors carry
+// sane positions, and that whatever parses prints and re-parses to the same
+// polynomial.
+func FuzzParse(f *testing.F) {
+	for _, tc := range validCases {
+		f.Add(tc.src, uint8(tc.order))
+	}
+	for _, tc := range invalidCases {
+		f.Add(tc.src, uint8(tc.order))
+	}
+	for _, s := range []string{"tanh(x*y+z)", "atan(x)^3/(1+y)", "exp(sin(x))", "(1+x+y)^(-1/2)", "x;y\nz", "((x)", "1/(1+x", "2**-1**2", "-(-(-x))^2"} {
+		f.Add(s, uint8(4))
+	}
+	f.Fuzz(func(t *testing.T, src string, order uint8) {
+		cfg := Config{Order: int(order % 9), Limits: fuzzLimits}
+		e, err := Parse(src, cfg)
+		if err != nil {
+			checkErrorPosition(t, src, err)
+		} else {
+			roundTrip(t, src, e)
+		}
+		list, err := ParseList(src, cfg)
+		if err != nil {
+			checkErrorPosition(t, src, err)
+		} else {
+			for _, e := range list {
+				roundTrip(t, src, e)
+			}
+		}
+		if r, err := ParseRat(src); err == nil {
+			if r2, err := ParseRat(r.RatString()); err != nil || r2.Cmp(r) != 0 {
+				t.Fatalf("ParseRat(%q) = %v, re-read %v, %v", src, r, r2, err)
+			}
+		} else {
+			checkErrorPosition(t, src, err)
+		}
+		if names, values, err := ParseBindings(src); err == nil {
+			if len(names) != len(values) {
+				t.Fatalf("ParseBindings(%q): %d names, %d values", src, len(names), len(values))
+			}
+		} else {
+			checkErrorPosition(t, src, err)
+		}
+	})
+}
+
+func checkErrorPosition(t *testing.T, src string, err error) {
+	t.Helper()
+	var pe *Error
+	if !errors.As(err, &pe) {
+		t.Fatalf("%q: error %v is not an *Error", src, err)
+	}
+	if pe.Offset < 0 || pe.Offset > len(src) || pe.Line < 1 || pe.Col < 1 || pe.Msg == "" {
+		t.Fatalf("%q: bad error position %+v", src, pe)
+	}
+	// Line and Col must describe Offset.
+	line, col := 1, 1
+	for _, r := range src[:pe.Offset] {
+		if r == '\n' {
+			line, col = line+1, 1
+		} else {
+			col++
+		}
+	}
+	if utf8.ValidString(src[:pe.Offset]) && (line != pe.Line || col != pe.Col) {
+		t.Fatalf("%q: error at offset %d says %d:%d, want %d:%d", src, pe.Offset, pe.Line, pe.Col, line, col)
+	}
+}
+
+func roundTrip(t *testing.T, src string, e *Expansion) {
+	t.Helper()
+	s := e.Poly.String()
+	e2, err := Parse(s, Config{Vars: e.Poly.Vars()})
+	if err != nil {
+		t.Fatalf("%q parsed to %q, which does not parse: %v", src, s, err)
+	}
+	if !e2.Poly.Equal(e.Poly) || e2.Truncated {
+		t.Fatalf("%q parsed to %q, which re-parses to %q", src, s, e2.Poly)
+	}
+	if e.Order > 0 && e.Poly.Degree() > e.Order {
+		t.Fatalf("%q: degree %d above order %d", src, e.Poly.Degree(), e.Order)
+	}
+}
