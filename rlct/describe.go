@@ -1,0 +1,234 @@
+package rlct
+
+import (
+	"fmt"
+	"math/big"
+	"slices"
+	"strings"
+
+	"github.com/lctkit/lctkit/monomial"
+	"github.com/lctkit/lctkit/polyhedron"
+)
+
+// Description is the Newton polyhedron P(K) written out in full beside the
+// bound computed from it: the vertices with the terms of K there, the facets
+// as inequalities, the exponents it was built from, and the point t_τ·τ where
+// the weighted ray meets it. Everything is in P(K) coordinates, so in
+// sum-of-squares form the exponents are twice those of the generators.
+type Description struct {
+	// Result is the bound, exactly as Bound returns it.
+	*Result
+	// Vertices are the vertices of P(K), sorted lexicographically.
+	Vertices []VertexReport
+	// Facets are the facets of P(K), sorted by normal and then right-hand
+	// side.
+	Facets []FacetReport
+	// Support holds the points whose Newton polyhedron P(K) is: the
+	// exponents of K, or in sum-of-squares form twice the exponents of the
+	// generators, without duplicates, sorted lexicographically.
+	Support [][]int
+	// Hit is t_τ·τ, the point where the ray from the origin along τ meets
+	// P(K); it lies in the relative interior of the principal face.
+	Hit []*big.Rat
+}
+
+// VertexReport is a vertex of P(K) with the term of K there.
+type VertexReport struct {
+	// Exponent is the vertex, an exponent vector of K.
+	Exponent []int
+	// Monomial is w^Exponent in the parser's syntax, such as "x^4*y^2".
+	Monomial string
+	// Coefficient is the coefficient of w^Exponent in K; it is never zero.
+	// In sum-of-squares form it is Σ_i c_i² with c_i from Generators: the
+	// vertex is 2v for a vertex v of P(⟨g_1, …, g_r⟩), and the only way to
+	// write 2v as a sum of two exponents of the generators is v + v, because
+	// v is a vertex (common practice).
+	Coefficient *big.Rat
+	// Generators holds, in sum-of-squares form only, the coefficient c_i of
+	// w^(Exponent/2) in each generator g_i (zero where g_i lacks the term);
+	// nil in polynomial form.
+	Generators []*big.Rat
+}
+
+// FacetReport is a facet of P(K): the inequality a·x ≥ b holds on P(K), and
+// the facet is P(K) ∩ {a·x = b}.
+type FacetReport struct {
+	// Normal is a, a primitive vector of non-negative integers.
+	Normal []*big.Int
+	// RHS is b.
+	RHS *big.Int
+	// Inequality is a·x ≥ b written with the variable names, such as
+	// "3*x + 2*y >= 12".
+	Inequality string
+	// Vertices are the vertices of P(K) on the facet.
+	Vertices [][]int
+	// Rays names the variables whose unit directions lie in the facet; the
+	// facet is compact when there are none.
+	Rays []string
+}
+
+// Describe bounds p at its point, as Bound does, and describes the Newton
+// polyhedron the bound comes from. It returns the errors of Bound, and an
+// error wrapping polyhedron.ErrTooLarge when the facets cannot be
+// enumerated within opt.Limits.
+func Describe(p *Problem, opt *Options) (*Description, error) {
+	res, err := Bound(p, opt)
+	if err != nil {
+		return nil, err
+	}
+	_, polys, err := p.forms()
+	if err != nil {
+		return nil, err // not reached: Bound has accepted p
+	}
+	if !isOrigin(res.Point) {
+		for i, q := range polys {
+			polys[i] = q.Translate(res.Point)
+		}
+	}
+	facets, err := res.newton.Facets()
+	if err != nil {
+		return nil, fmt.Errorf("listing the facets of the Newton polyhedron: %w", err)
+	}
+	d := &Description{Result: res}
+	scale := res.scale
+	verts := res.newton.Vertices()
+	for _, v := range verts {
+		d.Vertices = append(d.Vertices, vertexReport(res.Vars, polys, v, p.Generators != nil, scale))
+	}
+	for _, f := range facets {
+		d.Facets = append(d.Facets, facetReport(res.Vars, verts, f, scale))
+	}
+	d.Support = scaledSupport(polys, scale)
+	for _, w := range res.Weights {
+		d.Hit = append(d.Hit, new(big.Rat).Mul(res.Distance, w))
+	}
+	return d, nil
+}
+
+// vertexReport describes the vertex v of the base polyhedron.
+func vertexReport(vars []string, polys []*monomial.Poly, v []int, sos bool, scale int) VertexReport {
+	vr := VertexReport{Exponent: scaled(v, scale)}
+	vr.Monomial = monomial.Monomial(vars, monomial.Exponent(vr.Exponent), big.NewRat(1, 1)).String()
+	if !sos {
+		vr.Coefficient = polys[0].Coefficient(monomial.Exponent(v))
+		return vr
+	}
+	vr.Coefficient = new(big.Rat)
+	sq := new(big.Rat)
+	for _, g := range polys {
+		c := g.Coefficient(monomial.Exponent(v))
+		vr.Generators = append(vr.Generators, c)
+		vr.Coefficient.Add(vr.Coefficient, sq.Mul(c, c))
+	}
+	return vr
+}
+
+// facetReport describes facet f of the base polyhedron in P(K) coordinates.
+func facetReport(vars []string, verts [][]int, f polyhedron.Facet, scale int) FacetReport {
+	fr := FacetReport{Normal: f.Normal, RHS: new(big.Int).Mul(f.RHS, big.NewInt(int64(scale)))}
+	fr.Inequality = inequality(vars, fr.Normal, fr.RHS)
+	for _, j := range f.Vertices {
+		fr.Vertices = append(fr.Vertices, scaled(verts[j], scale))
+	}
+	for _, i := range f.Rays {
+		fr.Rays = append(fr.Rays, vars[i])
+	}
+	return fr
+}
+
+// inequality writes a·x ≥ b as "3*x + 2*y >= 12", leaving out zero terms.
+func inequality(vars []string, a []*big.Int, b *big.Int) string {
+	var terms []string
+	for i, c := range a {
+		switch {
+		case c.Sign() == 0:
+		case c.IsInt64() && c.Int64() == 1:
+			terms = append(terms, vars[i])
+		default:
+			terms = append(terms, c.String()+"*"+vars[i])
+		}
+	}
+	if len(terms) == 0 {
+		terms = []string{"0"}
+	}
+	return strings.Join(terms, " + ") + " >= " + b.String()
+}
+
+// scaledSupport returns the exponents of all polys times scale, without
+// duplicates, sorted lexicographically.
+func scaledSupport(polys []*monomial.Poly, scale int) [][]int {
+	seen := map[string]bool{}
+	var out [][]int
+	for _, q := range polys {
+		for _, e := range q.Support() {
+			key := fmt.Sprint([]int(e))
+			if seen[key] {
+				continue
+			}
+			seen[key] = true
+			out = append(out, scaled(e, scale))
+		}
+	}
+	sortLex(out)
+	return out
+}
+
+func scaled(v []int, scale int) []int {
+	out := make([]int, len(v))
+	for i, x := range v {
+		out[i] = x * scale
+	}
+	return out
+}
+
+// sortLex sorts integer vectors of one length lexicographically.
+func sortLex(vs [][]int) {
+	slices.SortFunc(vs, slices.Compare[[]int])
+}
+
+// DescriptionReport is the JSON form of a Description: the fields of Report
+// and, beside them, the vertices and facets.
+type DescriptionReport struct {
+	*Report
+	Vertices []VertexJSON `json:"vertices"`
+	Facets   []FacetJSON  `json:"facets"`
+	// Hit is t_τ·τ.
+	Hit []string `json:"hit_point"`
+}
+
+// VertexJSON is the JSON form of a VertexReport; numbers are exact strings.
+type VertexJSON struct {
+	Exponent    []int    `json:"exponent"`
+	Monomial    string   `json:"monomial"`
+	Coefficient string   `json:"coefficient"`
+	Generators  []string `json:"generators,omitempty"`
+}
+
+// FacetJSON is the JSON form of a FacetReport; numbers are exact strings.
+type FacetJSON struct {
+	Normal     []string `json:"normal"`
+	RHS        string   `json:"rhs"`
+	Inequality string   `json:"inequality"`
+	Vertices   [][]int  `json:"vertices"`
+	Rays       []string `json:"rays,omitempty"`
+}
+
+// Report returns the JSON form of d.
+func (d *Description) Report() *DescriptionReport {
+	out := &DescriptionReport{Report: d.Result.Report(), Hit: ratStrings(d.Hit)}
+	for _, v := range d.Vertices {
+		vj := VertexJSON{Exponent: v.Exponent, Monomial: v.Monomial, Coefficient: v.Coefficient.RatString()}
+		if v.Generators != nil {
+			vj.Generators = ratStrings(v.Generators)
+		}
+		out.Vertices = append(out.Vertices, vj)
+	}
+	for _, f := range d.Facets {
+		fj := FacetJSON{RHS: f.RHS.String(), Inequality: f.Inequality, Vertices: f.Vertices, Rays: f.Rays}
+		for _, a := range f.Normal {
+			fj.Normal = append(fj.Normal, a.String())
+		}
+		out.Facets = append(out.Facets, fj)
+	}
+	return out
+}
