@@ -3,7 +3,6 @@ package polyhedron
 import (
 	"fmt"
 	"math/big"
-	"slices"
 )
 
 // Hit is the result of Distance: the Newton distance t_τ along τ together
@@ -129,9 +128,19 @@ func (n *Newton) FaceAt(x []*big.Rat) (*Face, error) {
 
 // faceFromShot computes the face holding x in its relative interior, given
 // an optimal ray-shooting solution whose hit point is x.
+//
+// The optimal dual (a, b) exposes a face F_a ⊇ F whose generators T are the
+// tight vertices and the rays e_i with a_i = 0. One exact tableau over T
+// (rows: x = Σ w_g g, Σ_v w_v = 1) is reused with changing objectives: each
+// round maximises the total weight of the generators not yet seen positive
+// (U). When that maximum is 0, F is the set of generators seen positive, and
+// the optimal dual of that round is (a”, b”) with a”·x = b”, a”·g >= b”
+// on F and a”·g >= b” + 1 on U (a”_i >= 0 resp. >= 1 for rays); it is
+// tight on F. The face normal is K·a + a” with the least integer K >= 1
+// that makes it positive where a is and strict on every vertex outside
+// F_a, which exposes exactly F.
 func (n *Newton) faceFromShot(x []*big.Rat, s *shot) (*Face, error) {
 	d := n.d
-	// Candidate generators: tight vertices and rays with a_i = 0.
 	var rays []int
 	for i, ai := range s.a {
 		if ai.Sign() == 0 {
@@ -139,93 +148,90 @@ func (n *Newton) faceFromShot(x []*big.Rat, s *shot) (*Face, error) {
 		}
 	}
 	verts := s.tight
-	// Known positive generators from the optimal solution.
-	inV := make([]bool, len(verts))
-	inR := make([]bool, len(rays))
+	nc := len(verts) + len(rays)
+	known := make([]bool, nc)
 	for k, j := range verts {
 		if w, ok := s.weights[j]; ok && w.Sign() > 0 {
-			inV[k] = true
+			known[k] = true
 		}
 	}
 	for k, i := range rays {
 		if s.slack[i].Sign() > 0 {
-			inR[k] = true
+			known[len(verts)+k] = true
 		}
 	}
-	// LP over representations: columns = tight vertices then tight rays.
-	nc := len(verts) + len(rays)
-	lp := &LP{A: make([][]*big.Rat, d+1), B: make([]*big.Rat, d+1), C: make([]*big.Rat, nc)}
-	for i := 0; i <= d; i++ {
-		lp.A[i] = make([]*big.Rat, nc)
-		if i < d {
-			lp.B[i] = x[i]
-		} else {
-			lp.B[i] = big.NewRat(1, 1)
-		}
-	}
-	for k, j := range verts {
+	rhs := make([]*big.Rat, d+1)
+	copy(rhs, x)
+	rhs[d] = big.NewRat(1, 1)
+	t := newTableau(rhs)
+	col := make([]*big.Rat, d+1)
+	zero := new(big.Rat)
+	for _, j := range verts {
 		for i := 0; i < d; i++ {
-			lp.A[i][k] = new(big.Rat).SetInt64(int64(n.vertices[j][i]))
+			col[i] = new(big.Rat).SetInt64(int64(n.vertices[j][i]))
 		}
-		lp.A[d][k] = new(big.Rat)
-		lp.A[d][k].SetInt64(1)
+		col[d] = ratOne
+		t.addColumn(col, zero)
 	}
-	for k, r := range rays {
-		c := len(verts) + k
-		for i := 0; i <= d; i++ {
-			lp.A[i][c] = new(big.Rat)
+	for _, r := range rays {
+		for i := range col {
+			col[i] = zero
 		}
-		lp.A[r][c].SetInt64(1)
+		col[r] = ratOne
+		t.addColumn(col, zero)
 	}
+	if st := t.solve(); st != Optimal {
+		panic("polyhedron: internal error: hit point has no representation: " + st.String())
+	}
+	m := d + 1
+	var a2 []*big.Rat // a'' (nil means 0)
+	var b2 *big.Rat
+	minusOne := big.NewRat(-1, 1)
 	for {
 		any := false
 		for c := 0; c < nc; c++ {
-			var known bool
-			if c < len(verts) {
-				known = inV[c]
+			if known[c] {
+				t.cost[m+c] = zero
 			} else {
-				known = inR[c-len(verts)]
-			}
-			if known {
-				lp.C[c] = new(big.Rat)
-			} else {
-				lp.C[c] = big.NewRat(-1, 1)
+				t.cost[m+c] = minusOne
 				any = true
 			}
 		}
 		if !any {
 			break
 		}
-		sol := lp.Solve()
-		if sol.Status != Optimal {
-			panic("polyhedron: internal error: face LP " + sol.Status.String())
+		t.setPhase2()
+		if st := t.iterate(); st != Optimal {
+			panic("polyhedron: internal error: face LP " + st.String())
 		}
-		if sol.Value.Sign() == 0 {
+		if t.z.Sign() == 0 {
+			y := t.duals()
+			a2 = make([]*big.Rat, d)
+			for i := range a2 {
+				a2[i] = new(big.Rat).Neg(y[i])
+			}
+			b2 = y[d]
 			break
 		}
-		for c := 0; c < nc; c++ {
-			if sol.X[c].Sign() > 0 {
-				if c < len(verts) {
-					inV[c] = true
-				} else {
-					inR[c-len(verts)] = true
-				}
+		for r, c := range t.basis {
+			if c >= m && t.rhs[r].Sign() > 0 {
+				known[c-m] = true
 			}
 		}
 	}
 	f := &Face{}
 	for k, j := range verts {
-		if inV[k] {
+		if known[k] {
 			f.Vertices = append(f.Vertices, j)
 		}
 	}
 	for k, i := range rays {
-		if inR[k] {
+		if known[len(verts)+k] {
 			f.Rays = append(f.Rays, i)
 		}
 	}
 	f.Dim = n.faceDim(f.Vertices, f.Rays)
-	f.Normal, f.RHS = n.exposingNormal(f.Vertices, f.Rays)
+	f.Normal, f.RHS = n.combineNormals(s.a, s.b, a2, b2, s.tight)
 	n.attachFacets(f)
 	return f, nil
 }
@@ -253,121 +259,95 @@ func (n *Newton) faceDim(verts, rays []int) int {
 	return rankInt(rows, n.d)
 }
 
-// exposingNormal finds a primitive a >= 0 and b with a·v = b on the given
-// vertices, a·v > b on the other vertices, a_i = 0 exactly for i in rays. It
-// solves the exact LP
-//
-//	minimise Σ a_i  s.t.  a·v − b = 0 (v in face),  a·v − b >= 1 (v not in face),
-//	                      a_i = 0 (i in rays),  a_i >= 1 (i not in rays),
-//
-// adding the constraints of vertices outside the face only when violated
-// (cutting planes, checked over all vertices in exact integer arithmetic).
-func (n *Newton) exposingNormal(verts, rays []int) ([]*big.Int, *big.Int) {
-	d := n.d
-	inFace := make(map[int]bool, len(verts))
-	for _, j := range verts {
-		inFace[j] = true
+// combineNormals returns the primitive form of K·(a, b) + (a2, b2) for the
+// least integer K >= 1 such that the result is > 0 wherever a is and
+// strictly above its right-hand side on every vertex not in tight (the
+// vertices with a·v == b). a2 == nil stands for 0.
+func (n *Newton) combineNormals(a []*big.Rat, b *big.Rat, a2 []*big.Rat, b2 *big.Rat, tight []int) ([]*big.Int, *big.Int) {
+	ai, bi := scaleToInts(a, b)
+	if a2 == nil {
+		return primitive(ai, bi)
 	}
-	isRay := make([]bool, d)
-	for _, i := range rays {
-		isRay[i] = true
+	ci, di := scaleToInts(a2, b2)
+	// K > −c_i/a_i for a_i > 0, and K > (d − c·v)/(a·v − b) for vertices off F_a.
+	best := new(big.Rat) // K must exceed best
+	q := new(big.Rat)
+	for i := range ai {
+		if ai[i].Sign() > 0 && ci[i].Sign() < 0 {
+			q.SetFrac(new(big.Int).Neg(ci[i]), ai[i])
+			if q.Cmp(best) > 0 {
+				best.Set(q)
+			}
+		}
 	}
-	var cuts []int // vertices outside the face whose constraint is present
-	for {
-		// Variables: a_0..a_{d-1}, b⁺, b⁻, then one surplus per inequality
-		// (cuts, then coordinates not in rays). Rows: face vertices, cuts,
-		// coordinate bounds, ray equalities.
-		var free []int
-		for i := 0; i < d; i++ {
-			if !isRay[i] {
-				free = append(free, i)
-			}
-		}
-		nv := d + 2 + len(cuts) + len(free)
-		var A [][]*big.Rat
-		var B []*big.Rat
-		row := func() []*big.Rat {
-			r := make([]*big.Rat, nv)
-			for k := range r {
-				r[k] = new(big.Rat)
-			}
-			return r
-		}
-		addVertexRow := func(j int, rhs int64, surplus int) {
-			r := row()
-			for i := 0; i < d; i++ {
-				r[i].SetInt64(int64(n.vertices[j][i]))
-			}
-			r[d].SetInt64(-1)
-			r[d+1].SetInt64(1)
-			if surplus >= 0 {
-				r[surplus].SetInt64(-1)
-			}
-			A = append(A, r)
-			B = append(B, big.NewRat(rhs, 1))
-		}
-		for _, j := range verts {
-			addVertexRow(j, 0, -1)
-		}
-		for k, j := range cuts {
-			addVertexRow(j, 1, d+2+k)
-		}
-		for k, i := range free {
-			r := row()
-			r[i].SetInt64(1)
-			r[d+2+len(cuts)+k].SetInt64(-1)
-			A = append(A, r)
-			B = append(B, big.NewRat(1, 1))
-		}
-		for _, i := range rays {
-			r := row()
-			r[i].SetInt64(1)
-			A = append(A, r)
-			B = append(B, new(big.Rat))
-		}
-		C := make([]*big.Rat, nv)
-		for k := range C {
-			C[k] = new(big.Rat)
-			if k < d {
-				C[k].SetInt64(1)
-			}
-		}
-		sol := (&LP{A: A, B: B, C: C}).Solve()
-		if sol.Status != Optimal {
-			panic("polyhedron: internal error: exposing-normal LP " + sol.Status.String())
-		}
-		a := sol.X[:d]
-		b := new(big.Rat).Sub(sol.X[d], sol.X[d+1])
-		ai, bi := scaleToInts(a, b)
-		// Check all vertices: a·v − b >= 1 scaled, i.e. a·v > b suffices for
-		// exposure, but we demand the LP's constraint to keep it bounded.
-		// Any vertex with a·v <= b outside the face is violated.
-		var worst []int
-		var acc, prod big.Int
-		for j, v := range n.vertices {
-			if inFace[j] {
-				continue
-			}
-			acc.SetInt64(0)
-			for i, x := range v {
-				if x != 0 {
-					prod.Mul(ai[i], prod.SetInt64(int64(x)))
-					acc.Add(&acc, &prod)
-				}
-			}
-			if acc.Cmp(bi) <= 0 {
-				worst = append(worst, j)
-				if len(worst) >= 2*(d+1) {
-					break
-				}
-			}
-		}
-		if len(worst) == 0 {
-			return primitive(ai, bi)
-		}
-		cuts = append(cuts, worst...)
-		slices.Sort(cuts)
+	isTight := make(map[int]bool, len(tight))
+	for _, j := range tight {
+		isTight[j] = true
 	}
+	av, cv := newDotter(ai), newDotter(ci)
+	num, den := new(big.Int), new(big.Int)
+	for j, v := range n.vertices {
+		if isTight[j] {
+			continue
+		}
+		den.Sub(av.dot(v), bi)
+		num.Sub(di, cv.dot(v))
+		if num.Sign() <= 0 {
+			continue
+		}
+		q.SetFrac(num, den)
+		if q.Cmp(best) > 0 {
+			best.Set(q)
+		}
+	}
+	k := new(big.Int).Quo(best.Num(), best.Denom()) // floor (best >= 0)
+	k.Add(k, big.NewInt(1))
+	out := make([]*big.Int, len(ai))
+	for i := range out {
+		out[i] = new(big.Int).Mul(k, ai[i])
+		out[i].Add(out[i], ci[i])
+	}
+	rhs := new(big.Int).Mul(k, bi)
+	rhs.Add(rhs, di)
+	return primitive(out, rhs)
+}
+
+// dotter evaluates an integer vector on points, in int64 when it fits.
+type dotter struct {
+	big   []*big.Int
+	small []int64
+	fits  bool
+	acc   big.Int
+	prod  big.Int
+}
+
+func newDotter(a []*big.Int) *dotter {
+	dt := &dotter{big: a, small: make([]int64, len(a)), fits: true}
+	for i, x := range a {
+		if !x.IsInt64() {
+			dt.fits = false
+			break
+		}
+		dt.small[i] = x.Int64()
+	}
+	return dt
+}
+
+// dot returns a·v; the result is only valid until the next call.
+func (dt *dotter) dot(v []int) *big.Int {
+	if dt.fits {
+		if s, ok := checkedDot(dt.small, v); ok {
+			return dt.acc.SetInt64(s)
+		}
+	}
+	dt.acc.SetInt64(0)
+	for i, x := range v {
+		if x != 0 {
+			dt.prod.Mul(dt.big[i], dt.prod.SetInt64(int64(x)))
+			dt.acc.Add(&dt.acc, &dt.prod)
+		}
+	}
+	return &dt.acc
 }
 
 // primitive divides (a, b) by the gcd of the entries of a (which must divide

@@ -168,8 +168,9 @@ func TestDistanceHandDrawn(t *testing.T) {
 			// lies on four of them: x >= 1, y >= 1, x + z >= 3, y + z >= 3, but its
 			// codimension is 3, not 4. Along τ = (1,1,2): t·τ needs t >= 1 from
 			// x >= 1, and t = 1 gives (1,1,2) itself. Smallest exposing normal with
-			// all entries >= 1: a·(1,1,2) < a·(2,2,1) means a3 < a1 + a2, so
-			// (1,1,1) with RHS 4 (other vertex: 5).
+			// all entries >= 1: a·(1,1,2) < a·(2,2,1) means a3 < a1 + a2, e.g.
+			// (1,1,1) with RHS 4 (other vertex: 5); not unique, so only
+			// exposure is checked.
 			name: "non-simple vertex", d: 3, points: [][]int{{1, 1, 2}, {2, 2, 1}}, tau: rats(1, 1, 2),
 			verts: [][]int{{1, 1, 2}, {2, 2, 1}}, t: big.NewRat(1, 1), face: []int{0}, dim: 0,
 			normal: []int64{1, 1, 1}, rhs: 4,
@@ -178,8 +179,8 @@ func TestDistanceHandDrawn(t *testing.T) {
 			// Same polyhedron along the diagonal: t·(1,1,1) needs x + z = 2t >= 3,
 			// t = 3/2; the hit point (3/2,3/2,3/2) is on x + z = 3 and y + z = 3
 			// only, whose intersection with P is the segment between the two
-			// vertices: a compact edge, dim 1, codim 2, normal (1,1,2) (the sum of
-			// the two facet normals), RHS 6.
+			// vertices: a compact edge, dim 1, codim 2, exposed e.g. by (1,1,2)
+			// (the sum of the two facet normals), RHS 6.
 			name: "edge in 3-D", d: 3, points: [][]int{{1, 1, 2}, {2, 2, 1}}, tau: rats(1, 1, 1),
 			verts: [][]int{{1, 1, 2}, {2, 2, 1}}, t: big.NewRat(3, 2), face: []int{0, 1}, dim: 1,
 			normal: []int64{1, 1, 2}, rhs: 6,
@@ -212,10 +213,32 @@ func TestDistanceHandDrawn(t *testing.T) {
 			if f.Compact() != (len(tc.rays) == 0) {
 				t.Errorf("Compact() = %v", f.Compact())
 			}
-			if got := intsOf(f.Normal); !slices.Equal(got, tc.normal) || f.RHS.Int64() != tc.rhs {
+			// The normal must expose exactly the face; for a facet it is unique
+			// (primitive), so compare it with the hand-computed one.
+			checkExposes(t, n, f)
+			if got := intsOf(f.Normal); f.Dim == tc.d-1 && (!slices.Equal(got, tc.normal) || f.RHS.Int64() != tc.rhs) {
 				t.Errorf("face normal %v RHS %v, want %v %v", got, f.RHS, tc.normal, tc.rhs)
 			}
 		})
+	}
+}
+
+// checkExposes checks that f.Normal·x >= f.RHS holds on every vertex with
+// equality exactly on f's vertices, and that the normal vanishes exactly on
+// f's rays.
+func checkExposes(t *testing.T, n *Newton, f *Face) {
+	t.Helper()
+	for j, v := range n.Vertices() {
+		c := dotInt(f.Normal, v).Cmp(f.RHS)
+		if c < 0 || (c == 0) != slices.Contains(f.Vertices, j) {
+			t.Errorf("normal %v >= %v does not expose vertices %v", f.Normal, f.RHS, f.Vertices)
+			return
+		}
+	}
+	for i, a := range f.Normal {
+		if a.Sign() < 0 || (a.Sign() == 0) != slices.Contains(f.Rays, i) {
+			t.Errorf("normal %v does not match rays %v", f.Normal, f.Rays)
+		}
 	}
 }
 

@@ -332,8 +332,12 @@ func isVertex(p []int, pts [][]int, q []int) bool {
 			return true
 		}
 	}
-	// Exact LP: shoot from p in direction −(1,…,1) within the coordinates of
-	// supp(p); p is a vertex iff min{t : p + t·1 ∈ conv(Q) + orthant} > 0.
+	// LP: shoot from p along (1,…,1) within the coordinates of supp(p); p is
+	// a vertex iff t0 = min{t : p + t·1 ∈ conv(Q) + orthant} > 0. A float64
+	// solve proposes an answer with a certificate that is checked exactly
+	// (t0 > 0: a rounded integer normal A >= 0 with A·p < A·q for all q;
+	// t0 < 0: rounded rational weights λ with Σ λ_j q_j <= p); otherwise, or
+	// if the check fails, the exact LP decides.
 	sub := make([][]int, len(q))
 	for k, j := range q {
 		sub[k] = make([]int, len(coords))
@@ -341,14 +345,104 @@ func isVertex(p []int, pts [][]int, q []int) bool {
 			sub[k][t] = pts[j][i]
 		}
 	}
+	pr := make([]int, len(coords))
+	pf := make([]float64, len(coords))
+	ones := make([]float64, len(coords))
+	for t, i := range coords {
+		pr[t] = p[i]
+		pf[t] = float64(p[i])
+		ones[t] = 1
+	}
+	if fs, ok := shootFloat(sub, pf, ones); ok {
+		if fs.t > 1e-7 && certifyOutside(fs.a, pr, sub) {
+			return true
+		}
+		if fs.t < -1e-7 && certifyInside(fs.weights, pr, sub) {
+			return false
+		}
+	}
 	x0 := make([]*big.Rat, len(coords))
 	tau := make([]*big.Rat, len(coords))
-	for t, i := range coords {
-		x0[t] = new(big.Rat).SetInt64(int64(p[i]))
+	for t := range coords {
+		x0[t] = new(big.Rat).SetInt64(int64(pr[t]))
 		tau[t] = big.NewRat(1, 1)
 	}
 	s := shoot(sub, x0, tau)
 	return s.t.Sign() > 0
+}
+
+const certScale = 1 << 20
+
+// certifyOutside rounds a float normal a to integers A >= 0 and checks
+// exactly that A·p < A·q for every q, which proves p ∉ conv(Q) + orthant.
+func certifyOutside(a []float64, p []int, q [][]int) bool {
+	top := 0.0
+	for _, x := range a {
+		top = max(top, x)
+	}
+	if top <= 0 {
+		return false
+	}
+	A := make([]int64, len(a))
+	for i, x := range a {
+		if x > 0 {
+			A[i] = int64(math.Round(x / top * certScale))
+		}
+	}
+	ap, ok := checkedDot(A, p)
+	if !ok {
+		return false
+	}
+	for _, v := range q {
+		av, ok := checkedDot(A, v)
+		if !ok || av <= ap {
+			return false
+		}
+	}
+	return true
+}
+
+// certifyInside rounds float convex weights to rationals with denominator
+// certScale and checks exactly that Σ λ_j q_j <= p coordinatewise, which
+// proves p ∈ conv(Q) + orthant.
+func certifyInside(w map[int]float64, p []int, q [][]int) bool {
+	idx := make([]int, 0, len(w))
+	for j := range w {
+		idx = append(idx, j)
+	}
+	slices.Sort(idx)
+	lam := make([]int64, len(idx))
+	var sum int64
+	big := 0
+	for k, j := range idx {
+		lam[k] = int64(math.Round(max(w[j], 0) * certScale))
+		sum += lam[k]
+		if lam[k] > lam[big] {
+			big = k
+		}
+	}
+	lam[big] += certScale - sum
+	if lam[big] < 0 {
+		return false
+	}
+	for i := range p {
+		var s int64
+		for k, j := range idx {
+			term, ok := mul64(lam[k], int64(q[j][i]))
+			if !ok {
+				return false
+			}
+			s += term
+			if s < 0 {
+				return false
+			}
+		}
+		lim, ok := mul64(certScale, int64(p[i]))
+		if !ok || s > lim {
+			return false
+		}
+	}
+	return true
 }
 
 // checkedDot returns a·v for an int64 vector a and a point v, and false on

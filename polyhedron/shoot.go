@@ -1,7 +1,6 @@
 package polyhedron
 
 import (
-	"math"
 	"math/big"
 	"slices"
 )
@@ -68,43 +67,27 @@ func shoot(pts [][]int, x0, tau []*big.Rat) *shot {
 		colPoint = append(colPoint, j)
 	}
 
-	// Initial columns: the points that alone need the smallest t (a float
-	// heuristic only; the answer is certified exactly below).
+	// Initial columns: the basic points of a float64 solution of the same LP
+	// (a heuristic only; the answer is certified exactly below), or else the
+	// points that alone need the smallest t.
 	xf := make([]float64, d)
 	tf := make([]float64, d)
 	for i := 0; i < d; i++ {
 		xf[i], _ = x0[i].Float64()
 		tf[i], _ = tau[i].Float64()
 	}
-	type cand struct {
-		j int
-		v float64
-	}
-	var best []cand
-	k0 := min(m, len(pts))
-	for j, p := range pts {
-		need := math.Inf(-1)
-		for i := 0; i < d; i++ {
-			need = max(need, (float64(p[i])-xf[i])/tf[i])
+	var initial []int
+	if fs, ok := shootFloat(pts, xf, tf); ok {
+		for j := range fs.weights {
+			initial = append(initial, j)
 		}
-		if len(best) < k0 || need < best[len(best)-1].v {
-			best = append(best, cand{j, need})
-			slices.SortFunc(best, func(x, y cand) int {
-				switch {
-				case x.v < y.v:
-					return -1
-				case x.v > y.v:
-					return 1
-				}
-				return x.j - y.j
-			})
-			if len(best) > k0 {
-				best = best[:k0]
-			}
-		}
+		slices.Sort(initial)
 	}
-	for _, c := range best {
-		addPoint(c.j)
+	if len(initial) == 0 {
+		initial = initialPoints(pts, xf, tf, m)
+	}
+	for _, j := range initial {
+		addPoint(j)
 	}
 
 	res := &shot{}
