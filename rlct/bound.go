@@ -194,7 +194,7 @@ func Bound(p *Problem, opt *Options) (*Result, error) {
 	res.Distance = new(big.Rat).Mul(hit.T, big.NewRat(int64(res.scale), 1))
 	res.Lambda = new(big.Rat).Inv(res.Distance)
 	res.Theta = hit.Face.Codim(d)
-	res.Principal = an.report(hit.Face)
+	res.Principal = an.report(hit.Face, nil)
 	res.Principal.Principal = true
 
 	lattice, lerr := newton.CompactFaces()

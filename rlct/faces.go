@@ -103,10 +103,20 @@ type analysis struct {
 	polys []*monomial.Poly
 	sos   bool
 	vars  []string
+
+	// terms caches the exponents and coefficients of each polynomial, so
+	// that the many faces are matched against plain integer slices.
+	terms [][]termData
 }
 
-// report describes face f of the base polyhedron in P(K) coordinates.
-func (an *analysis) report(f *polyhedron.Face) FaceReport {
+type termData struct {
+	exp  monomial.Exponent
+	coef *big.Rat
+}
+
+// report describes face f of the base polyhedron in P(K) coordinates, with
+// the face polynomial printed from parts (nil: computed here).
+func (an *analysis) report(f *polyhedron.Face, parts []*monomial.Poly) FaceReport {
 	d := len(an.vars)
 	verts := an.res.newton.Vertices()
 	fr := FaceReport{Dim: f.Dim, Codim: f.Codim(d), Compact: f.Compact(), Normal: f.Normal}
@@ -121,25 +131,86 @@ func (an *analysis) report(f *polyhedron.Face) FaceReport {
 	for _, i := range f.Rays {
 		fr.Rays = append(fr.Rays, an.vars[i])
 	}
-	fr.Polynomial = an.facePolynomial(an.parts(f))
+	if parts == nil {
+		parts = an.parts(f)
+	}
+	fr.Polynomial = an.facePolynomial(parts)
 	return fr
 }
 
-// parts returns, for each analysed polynomial, its part on face f.
+// parts returns, for each analysed polynomial, its part on face f: the
+// terms whose exponent e has Normal·e = RHS.
 func (an *analysis) parts(f *polyhedron.Face) []*monomial.Poly {
-	out := make([]*monomial.Poly, len(an.polys))
-	dot := new(big.Int)
-	t := new(big.Int)
-	for i, q := range an.polys {
-		out[i] = q.Filter(func(e monomial.Exponent) bool {
-			dot.SetInt64(0)
-			for k, a := range f.Normal {
-				dot.Add(dot, t.Mul(a, big.NewInt(int64(e[k]))))
+	if an.terms == nil {
+		an.terms = make([][]termData, len(an.polys))
+		for i, q := range an.polys {
+			for e, c := range q.All() {
+				an.terms[i] = append(an.terms[i], termData{e, c})
 			}
-			return dot.Cmp(f.RHS) == 0
-		})
+		}
+	}
+	onFace := faceTest(f)
+	out := make([]*monomial.Poly, len(an.polys))
+	for i, ts := range an.terms {
+		var exps []monomial.Exponent
+		var coefs []*big.Rat
+		for _, t := range ts {
+			if onFace(t.exp) {
+				exps = append(exps, t.exp)
+				coefs = append(coefs, t.coef)
+			}
+		}
+		p, err := monomial.FromTerms(an.vars, exps, coefs)
+		if err != nil {
+			panic("rlct: internal error: " + err.Error())
+		}
+		out[i] = p
 	}
 	return out
+}
+
+// faceTest returns a test for Normal·e = RHS, in int64 arithmetic when the
+// normal is small enough that no sum can overflow, in big.Int otherwise.
+func faceTest(f *polyhedron.Face) func(monomial.Exponent) bool {
+	small := f.RHS.IsInt64() && f.RHS.Int64() < 1<<31
+	a := make([]int64, len(f.Normal))
+	for i, x := range f.Normal {
+		if !x.IsInt64() || x.Int64() >= 1<<31 {
+			small = false
+			break
+		}
+		a[i] = x.Int64()
+	}
+	if small {
+		b := f.RHS.Int64()
+		return func(e monomial.Exponent) bool {
+			// Entries of a are in [0, 2^31), b < 2^31, and the partial
+			// sums only grow, so stopping once past b is safe and no
+			// product or sum reaches 2^63 before that.
+			var s int64
+			for i, x := range e {
+				if a[i] == 0 {
+					continue
+				}
+				if x >= 1<<31 {
+					return false // a[i]·x ≥ 2^31 > b
+				}
+				s += a[i] * int64(x)
+				if s > b {
+					return false
+				}
+			}
+			return s == b
+		}
+	}
+	dot, t := new(big.Int), new(big.Int)
+	return func(e monomial.Exponent) bool {
+		dot.SetInt64(0)
+		for k, a := range f.Normal {
+			dot.Add(dot, t.Mul(a, big.NewInt(int64(e[k]))))
+		}
+		return dot.Cmp(f.RHS) == 0
+	}
 }
 
 // facePolynomial prints the face polynomial of K from the parts.
@@ -182,24 +253,36 @@ func (an *analysis) checkVertices() error {
 func (an *analysis) checkFaces(lat *polyhedron.Lattice, principal *polyhedron.Face) error {
 	res := an.res
 	verts := res.newton.Vertices()
+	failed := 0
 	for _, f := range lat.Faces {
-		fr := an.report(f)
-		fr.Principal = sameFace(f, principal)
 		parts := an.parts(f)
+		fr := an.report(f, parts)
+		fr.Principal = sameFace(f, principal)
 		if err := an.decide(&fr, f, parts, verts); err != nil {
 			return err
 		}
-		switch fr.Verdict {
-		case Degenerate:
+		if fr.Verdict != Nondegenerate {
+			failed++
+		}
+		switch {
+		case failed > maxFaceReasons || fr.Verdict == Nondegenerate:
+		case fr.Verdict == Degenerate:
 			res.Reasons = append(res.Reasons, fmt.Sprintf("the face with vertices %s is degenerate: its face polynomial %s vanishes at %s in the real torus",
 				formatVertices(fr.Vertices), fr.Polynomial, strings.Join(fr.Witness.Point, ", ")))
-		case Undetermined:
+		case fr.Verdict == Undetermined:
 			res.Reasons = append(res.Reasons, fmt.Sprintf("the face with vertices %s could not be decided: %s", formatVertices(fr.Vertices), fr.Reason))
 		}
 		res.Faces = append(res.Faces, fr)
 	}
+	if failed > maxFaceReasons {
+		res.Reasons = append(res.Reasons, fmt.Sprintf("%d more of the %d compact faces are degenerate or undetermined (see the per-face verdicts)", failed-maxFaceReasons, len(lat.Faces)))
+	}
 	return nil
 }
+
+// maxFaceReasons is how many failing faces are described in Result.Reasons;
+// the rest are counted there and listed in Result.Faces.
+const maxFaceReasons = 3
 
 // decide applies the sound tests to one compact face, in order.
 func (an *analysis) decide(fr *FaceReport, f *polyhedron.Face, parts []*monomial.Poly, verts [][]int) error {
