@@ -33,7 +33,7 @@ func (c *estimateConfig) estimate(ctx context.Context) (*Estimate, error) {
 		est.Depth += r.depth / float64(c.runs)
 	}
 	m := newMerger(s.runs)
-	full, se, ys := m.curveSE(s.grid)
+	full, se, ys := m.curveSE(s.grid, c.workers)
 	est.Lambda, est.Theta, est.Offset = fitCurve(s.grid, full, s.top)
 	// Jackknife over runs (common practice; Efron 1982, The Jackknife, the
 	// Bootstrap and Other Resampling Plans, SIAM, chapter 3; from memory).
@@ -51,13 +51,25 @@ func (c *estimateConfig) estimate(ctx context.Context) (*Estimate, error) {
 }
 
 // curveSE returns y(n) on the grid for the merged run of all runs, its
-// jackknife standard errors, and the leave-one-run-out curves.
-func (m *merger) curveSE(grid []float64) (y, se []float64, loo [][]float64) {
-	y = m.curve(grid, -1)
-	loo = make([][]float64, m.runs)
-	for r := range m.runs {
-		loo[r] = m.curve(grid, r)
+// jackknife standard errors, and the leave-one-run-out curves, computed on
+// up to workers goroutines.
+func (m *merger) curveSE(grid []float64, workers int) (y, se []float64, loo [][]float64) {
+	loo = make([][]float64, m.runs+1)
+	var wg sync.WaitGroup
+	next := make(chan int)
+	for range max(1, min(workers, m.runs+1)) {
+		wg.Go(func() {
+			for r := range next {
+				loo[r] = m.curve(grid, r-1) // r = 0: all runs
+			}
+		})
 	}
+	for r := range m.runs + 1 {
+		next <- r
+	}
+	close(next)
+	wg.Wait()
+	y, loo = loo[0], loo[1:]
 	se = make([]float64, len(grid))
 	col := make([]float64, m.runs)
 	for g := range grid {
@@ -226,7 +238,6 @@ type merger struct {
 	run      []int
 	births   []float64 // all births, decreasing
 	birthRun []int
-	logW     []float64 // scratch: log weights
 	runs     int
 }
 
@@ -251,7 +262,7 @@ func newMerger(runs []*nsRun) *merger {
 		return cmp.Compare(a.i, b.i)
 	})
 	m := &merger{k: make([]float64, len(all)), birth: make([]float64, len(all)), run: make([]int, len(all)),
-		logW: make([]float64, len(all)), runs: len(runs)}
+		runs: len(runs)}
 	for j, t := range all {
 		m.k[j], m.birth[j], m.run[j] = t.p.k, t.p.birth, t.run
 	}
@@ -264,20 +275,21 @@ func newMerger(runs []*nsRun) *merger {
 	return m
 }
 
-// weights computes the log prior-mass weights of the merged run of all runs
-// except skip (skip < 0: all runs) into m.logW, with −Inf for the points of
-// the skipped run. At the removal of the point with K = k, the live points
+// weights returns the log prior-mass weights of the merged run of all runs
+// except skip (skip < 0: all runs), in the order of m.k, with −Inf for the
+// points of the skipped run. At the removal of the point with K = k, the live points
 // are those (of the included runs) born under a constraint above k and not
 // yet removed (Higson et al. 2019, section 2); the prior mass shrinks by the
 // expected factor n/(n+1) for n live points (Skilling 2006, section 5), and
 // the last point carries all the remaining mass.
-func (m *merger) weights(skip int) {
+func (m *merger) weights(skip int) []float64 {
+	logW := make([]float64, len(m.k))
 	logX := 0.0
 	removed, born, pb := 0, 0, 0
 	lastJ := -1
 	for j, k := range m.k {
 		if m.run[j] == skip {
-			m.logW[j] = math.Inf(-1)
+			logW[j] = math.Inf(-1)
 			continue
 		}
 		for pb < len(m.births) && m.births[pb] > k {
@@ -291,32 +303,33 @@ func (m *merger) weights(skip int) {
 		if live < 1 { // cannot happen for consistent records; keep the sums finite
 			live = 1
 		}
-		m.logW[j] = logX - math.Log(live+1)
+		logW[j] = logX - math.Log(live+1)
 		logX += math.Log(live / (live + 1))
 		lastJ = j
 	}
 	if lastJ >= 0 {
 		// The last point stands for all the mass below the previous one.
-		m.logW[lastJ] = logAddExp(m.logW[lastJ], logX)
+		logW[lastJ] = logAddExp(logW[lastJ], logX)
 	}
+	return logW
 }
 
 // curve returns y(n) = n·E_n[K] on the grid for the merged run without run
 // skip (skip < 0: all runs).
 func (m *merger) curve(grid []float64, skip int) []float64 {
-	m.weights(skip)
+	logW := m.weights(skip)
 	y := make([]float64, len(grid))
 	for g, n := range grid {
 		top := math.Inf(-1)
 		for j, k := range m.k {
-			if a := m.logW[j] - n*k; a > top {
+			if a := logW[j] - n*k; a > top {
 				top = a
 			}
 		}
 		var z, zk float64
 		for j, k := range m.k {
-			a := m.logW[j] - n*k - top
-			if a < -50 {
+			a := logW[j] - n*k - top
+			if a < -40 { // below 1e−17 of the largest term
 				continue
 			}
 			e := math.Exp(a)

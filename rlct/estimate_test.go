@@ -60,8 +60,8 @@ type validationCase struct {
 var validationCases = []validationCase{
 	{
 		// Regular model: λ = d/2, θ = 1 (Watanabe 2009, Algebraic Geometry and
-		// Statistical Learning Theory, section 1.4 / Remark 1.xx, from memory;
-		// Schwarz 1978, "Estimating the dimension of a model", Ann. Statist.
+		// Statistical Learning Theory, Cambridge University Press, the regular
+		// case, from memory; Schwarz 1978, "Estimating the dimension of a model", Ann. Statist.
 		// 6(2):461–464). V(ε) = πε/4 for ε ≤ 1 (disk inside the square).
 		name: "x^2+y^2", k: func(x []float64) float64 { return x[0]*x[0] + x[1]*x[1] },
 		lower: []float64{-1, -1}, upper: []float64{1, 1},
@@ -246,7 +246,7 @@ func TestEstimateCurveX2(t *testing.T) {
 		t.Fatal(err)
 	}
 	ns := []float64{0.25, 1, 4, 16, 100, 1e4, 1e6, 1e8}
-	y, se, _ := newMerger(s.runs).curveSE(ns)
+	y, se, _ := newMerger(s.runs).curveSE(ns, 2)
 	for i, n := range ns {
 		z := math.Sqrt(math.Pi) * math.Erf(math.Sqrt(n)) / (2 * math.Sqrt(n))
 		want := 0.5 - math.Exp(-n)/(2*z)
@@ -293,18 +293,18 @@ func TestMergerSynthetic(t *testing.T) {
 		{syntheticRun(n, dead, 0), syntheticRun(n, dead, 0.5)},
 	} {
 		m := newMerger(runs)
-		m.weights(-1)
+		logW := m.weights(-1)
 		live := float64(n * len(runs))
 		q := live / (live + 1)
 		for j := range dead * len(runs) {
 			wantLog := float64(j)*math.Log(q) - math.Log(live+1)
-			if math.Abs(m.logW[j]-wantLog) > 1e-9*math.Max(1, math.Abs(wantLog)) {
-				t.Fatalf("%d runs: log weight %d = %.12g, want %.12g", len(runs), j, m.logW[j], wantLog)
+			if math.Abs(logW[j]-wantLog) > 1e-9*math.Max(1, math.Abs(wantLog)) {
+				t.Fatalf("%d runs: log weight %d = %.12g, want %.12g", len(runs), j, logW[j], wantLog)
 			}
 		}
 		// All the weights add up to the prior mass 1.
 		var total float64
-		for _, lw := range m.logW {
+		for _, lw := range logW {
 			total += math.Exp(lw)
 		}
 		if math.Abs(total-1) > 1e-9 {
