@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"math/big"
 	"math/bits"
+	"math/rand/v2"
 	"slices"
 )
 
@@ -83,6 +84,7 @@ type ddState struct {
 	useBig  bool
 	tight   [][]uint64 // tight constraint sets
 	maxRays int
+	zobrist []uint64 // random word per constraint (hashing of tight sets)
 }
 
 func enumerateFacets(d int, verts [][]int, maxRays int) ([]Facet, [][]uint64, error) {
@@ -118,6 +120,11 @@ func (st *ddState) constraint(k int) (coord int, v []int) {
 
 func (st *ddState) run() error {
 	d := st.d
+	rng := rand.New(rand.NewPCG(1, 2))
+	st.zobrist = make([]uint64, d+len(st.verts))
+	for k := range st.zobrist {
+		st.zobrist[k] = rng.Uint64()
+	}
 	// initial rays for constraints 0..d-1 and vertex 0
 	v0 := st.verts[0]
 	addRay := func(c []int64, tight []uint64) {
@@ -239,32 +246,108 @@ func (st *ddState) addConstraint(k int) error {
 	var newLarge [][]*big.Int
 	var newTight [][]uint64
 	z := make([]uint64, st.words)
-	for _, p := range pos {
-		tp := st.tight[p]
-		for _, q := range neg {
-			tq := st.tight[q]
-			cnt := 0
-			for w := range z {
-				z[w] = tp[w] & tq[w]
-				cnt += bits.OnesCount64(z[w])
+	var failed error
+	try := func(p, q int) bool {
+		tp, tq := st.tight[p], st.tight[q]
+		cnt := 0
+		for w := range z {
+			z[w] = tp[w] & tq[w]
+			cnt += bits.OnesCount64(z[w])
+		}
+		if cnt < need || !st.adjacent(z, cnt) {
+			return true
+		}
+		nt := slices.Clone(z)
+		setBit(nt, k)
+		if st.useBig {
+			newLarge = append(newLarge, combineBig(st.large[p], st.large[q], bigVals[p], bigVals[q]))
+		} else {
+			c, ok := combine64(st.small[p], st.small[q], vals[p], vals[q])
+			if !ok {
+				failed = errOverflow
+				return false
 			}
-			if cnt < need || !st.adjacent(z, cnt) {
-				continue
-			}
-			nt := slices.Clone(z)
-			setBit(nt, k)
-			if st.useBig {
-				newLarge = append(newLarge, combineBig(st.large[p], st.large[q], bigVals[p], bigVals[q]))
-			} else {
-				c, ok := combine64(st.small[p], st.small[q], vals[p], vals[q])
-				if !ok {
-					return errOverflow
+			newSmall = append(newSmall, c)
+		}
+		newTight = append(newTight, nt)
+		if nr+len(newTight) > st.maxRays {
+			failed = fmt.Errorf("%w: more than %d rays in the double description method", ErrTooLarge, st.maxRays)
+			return false
+		}
+		return true
+	}
+	// Candidate pairs share at least dim−2 tight constraints. Rays whose
+	// tight set T has few subsets of size dim−2 are indexed by the Zobrist
+	// hashes of those subsets, so that such pairs are found by lookup; pairs
+	// involving a ray with many such subsets (degenerate) are scanned.
+	// Collisions only add candidates; the count check above filters them.
+	// The smaller side is indexed, the larger one probes.
+	small, large := neg, pos
+	pair := func(x, y int) bool { return try(y, x) } // x from small (neg), y from large (pos)
+	if len(pos) < len(neg) {
+		small, large = pos, neg
+		pair = try
+	}
+	index := make(map[uint64][]int32)
+	var degSmall, simpleSmall []int
+	var elems []int
+	for _, x := range small {
+		elems = st.elems(x, elems[:0])
+		r := len(elems) - need
+		if r < 0 {
+			continue // shares fewer than dim−2 constraints with anything
+		}
+		if binomialCapped(len(elems), r, maxSubsets) > maxSubsets {
+			degSmall = append(degSmall, x)
+			continue
+		}
+		simpleSmall = append(simpleSmall, x)
+		h := st.hash(elems)
+		forSubsets(elems, r, func(removed uint64) {
+			index[h^removed] = append(index[h^removed], int32(x))
+		}, st.zobrist)
+	}
+	var seen []int32
+	for _, y := range large {
+		elems = st.elems(y, elems[:0])
+		r := len(elems) - need
+		if r < 0 {
+			continue
+		}
+		if binomialCapped(len(elems), r, maxSubsets) > maxSubsets {
+			for _, x := range simpleSmall {
+				if !pair(x, y) {
+					return failed
 				}
-				newSmall = append(newSmall, c)
 			}
-			newTight = append(newTight, nt)
-			if nr+len(newTight) > st.maxRays {
-				return fmt.Errorf("%w: more than %d rays in the double description method", ErrTooLarge, st.maxRays)
+			continue
+		}
+		h := st.hash(elems)
+		seen = seen[:0]
+		ok := true
+		forSubsets(elems, r, func(removed uint64) {
+			if !ok {
+				return
+			}
+			for _, x := range index[h^removed] {
+				if slices.Contains(seen, x) {
+					continue
+				}
+				seen = append(seen, x)
+				if !pair(int(x), y) {
+					ok = false
+					return
+				}
+			}
+		}, st.zobrist)
+		if !ok {
+			return failed
+		}
+	}
+	for _, x := range degSmall {
+		for _, y := range large {
+			if !pair(x, y) {
+				return failed
 			}
 		}
 	}
@@ -329,6 +412,60 @@ func (st *ddState) adjacent(z []uint64, cnt int) bool {
 		return false
 	}
 	return rankInt(rows, len(cols)+1) == need
+}
+
+// maxSubsets bounds the number of (dim−2)-subsets of a tight set for which a
+// ray is indexed by hashing instead of scanned.
+const maxSubsets = 64
+
+// elems appends the indices of the tight constraints of ray r to buf.
+func (st *ddState) elems(r int, buf []int) []int {
+	for w, x := range st.tight[r] {
+		for ; x != 0; x &= x - 1 {
+			buf = append(buf, 64*w+bits.TrailingZeros64(x))
+		}
+	}
+	return buf
+}
+
+// hash is the Zobrist hash (xor of per-constraint random words) of a set.
+func (st *ddState) hash(elems []int) uint64 {
+	var h uint64
+	for _, k := range elems {
+		h ^= st.zobrist[k]
+	}
+	return h
+}
+
+// forSubsets calls f with the xor of the Zobrist words of every r-subset of
+// elems (the elements removed to leave a subset of size len(elems)−r).
+func forSubsets(elems []int, r int, f func(uint64), zob []uint64) {
+	var rec func(start, left int, h uint64)
+	rec = func(start, left int, h uint64) {
+		if left == 0 {
+			f(h)
+			return
+		}
+		for i := start; i <= len(elems)-left; i++ {
+			rec(i+1, left-1, h^zob[elems[i]])
+		}
+	}
+	rec(0, r, 0)
+}
+
+// binomialCapped returns C(n, r), or limit+1 if it exceeds limit.
+func binomialCapped(n, r, limit int) int {
+	if r > n-r {
+		r = n - r
+	}
+	c := 1
+	for i := 1; i <= r; i++ {
+		c = c * (n - r + i) / i
+		if c > limit {
+			return limit + 1
+		}
+	}
+	return c
 }
 
 func combine64(p, q []int64, vp, vq int64) ([]int64, bool) {

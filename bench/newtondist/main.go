@@ -4,9 +4,15 @@
 // face hit (dimension, codimension, compactness, number of vertices) and
 // the sizes of the reduction. With -facets it instead enumerates all facets
 // and prints t = max over facets of b/(a·τ). It is the lctkit side of
-// bench/compare.sh.
+// bench/compare.sh, and also writes the peers' inputs and reads their
+// outputs:
 //
-//	go run ./bench/newtondist [-facets] FILE
+//	newtondist [-facets] FILE   distance and face (or facets) of FILE
+//	newtondist -ext FILE        V-representation (Pareto-minimal points and the
+//	                            d unit rays) in the lrs/cdd input format
+//	newtondist -lp FILE         the ray-shooting LP over all points in CPLEX LP format
+//	newtondist -ine HFILE       exact max over the inequalities c + a·x >= 0 of an
+//	                            H-representation (lrs/cdd output) of −c/(a·τ)
 package main
 
 import (
@@ -24,10 +30,20 @@ import (
 
 func main() {
 	facets := flag.Bool("facets", false, "enumerate facets and take the maximum of b/(a·τ)")
+	ext := flag.Bool("ext", false, "write the V-representation of the Pareto-minimal points")
+	lp := flag.Bool("lp", false, "write the ray-shooting LP in CPLEX LP format")
+	ine := flag.Bool("ine", false, "read an H-representation and print the exact distance")
 	flag.Parse()
 	if flag.NArg() != 1 {
-		fmt.Fprintln(os.Stderr, "usage: newtondist [-facets] FILE")
+		fmt.Fprintln(os.Stderr, "usage: newtondist [-facets|-ext|-lp|-ine] FILE")
 		os.Exit(2)
+	}
+	if *ine {
+		if err := maxOverIne(flag.Arg(0)); err != nil {
+			fmt.Fprintln(os.Stderr, err)
+			os.Exit(1)
+		}
+		return
 	}
 	d, pts, err := read(flag.Arg(0))
 	if err != nil {
@@ -41,6 +57,14 @@ func main() {
 		os.Exit(1)
 	}
 	built := time.Since(start)
+	if *ext {
+		writeExt(d, n.Minimal())
+		return
+	}
+	if *lp {
+		writeLP(d, pts)
+		return
+	}
 	tau := make([]*big.Rat, d)
 	for i := range tau {
 		tau[i] = big.NewRat(1, 1)
@@ -115,4 +139,105 @@ func read(path string) (int, [][]int, error) {
 		return 0, nil, fmt.Errorf("%s: header announces %d points, file has %d", path, want, len(pts))
 	}
 	return d, pts, nil
+}
+
+func writeExt(d int, pts [][]int) {
+	w := bufio.NewWriter(os.Stdout)
+	defer w.Flush()
+	fmt.Fprintf(w, "newton\nV-representation\nbegin\n%d %d integer\n", len(pts)+d, d+1)
+	for _, p := range pts {
+		w.WriteString("1")
+		for _, x := range p {
+			fmt.Fprintf(w, " %d", x)
+		}
+		w.WriteString("\n")
+	}
+	for i := 0; i < d; i++ {
+		w.WriteString("0")
+		for k := 0; k < d; k++ {
+			if k == i {
+				w.WriteString(" 1")
+			} else {
+				w.WriteString(" 0")
+			}
+		}
+		w.WriteString("\n")
+	}
+	w.WriteString("end\n")
+}
+
+// writeLP writes: minimise t subject to Σ_j v_ji l_j − t <= 0 (each i),
+// Σ_j l_j = 1, all variables >= 0; one term per line.
+func writeLP(d int, pts [][]int) {
+	w := bufio.NewWriter(os.Stdout)
+	defer w.Flush()
+	w.WriteString("Minimize\n obj: t\nSubject To\n")
+	for i := 0; i < d; i++ {
+		fmt.Fprintf(w, " c%d:", i)
+		for j, p := range pts {
+			if p[i] != 0 {
+				fmt.Fprintf(w, "\n + %d l%d", p[i], j)
+			}
+		}
+		w.WriteString("\n - t <= 0\n")
+	}
+	w.WriteString(" conv:")
+	for j := range pts {
+		fmt.Fprintf(w, "\n + l%d", j)
+	}
+	w.WriteString("\n = 1\nEnd\n")
+}
+
+// maxOverIne prints the exact max over the rows c + a·x >= 0 (a != 0) of an
+// H-representation of −c/(a·(1,…,1)).
+func maxOverIne(path string) error {
+	b, err := os.ReadFile(path)
+	if err != nil {
+		return err
+	}
+	in, header := false, false
+	var best *big.Rat
+	rows := 0
+	for _, line := range strings.Split(string(b), "\n") {
+		line = strings.TrimSpace(line)
+		switch {
+		case line == "begin":
+			in, header = true, true
+			continue
+		case line == "end":
+			in = false
+			continue
+		case !in || line == "" || strings.HasPrefix(line, "*"):
+			continue
+		case header:
+			header = false
+			continue
+		}
+		f := strings.Fields(line)
+		c, ok := new(big.Rat).SetString(f[0])
+		if !ok {
+			return fmt.Errorf("%s: bad entry %q", path, f[0])
+		}
+		s := new(big.Rat)
+		for _, x := range f[1:] {
+			r, ok := new(big.Rat).SetString(x)
+			if !ok {
+				return fmt.Errorf("%s: bad entry %q", path, x)
+			}
+			s.Add(s, r)
+		}
+		if s.Sign() == 0 {
+			continue
+		}
+		rows++
+		q := new(big.Rat).Quo(new(big.Rat).Neg(c), s)
+		if best == nil || q.Cmp(best) > 0 {
+			best = q
+		}
+	}
+	if best == nil {
+		return fmt.Errorf("%s: no inequalities", path)
+	}
+	fmt.Printf("t=%s facets=%d\n", best.RatString(), rows)
+	return nil
 }
