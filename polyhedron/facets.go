@@ -1,6 +1,7 @@
 package polyhedron
 
 import (
+	"context"
 	"errors"
 	"fmt"
 	"math/big"
@@ -41,7 +42,7 @@ type Facet struct {
 // of the final facet count.
 func (n *Newton) Facets() ([]Facet, error) {
 	n.facetsOnce.Do(func() {
-		n.facets, n.vertexFacets, n.facetsErr = enumerateFacets(n.d, n.vertices, n.limits.MaxRays)
+		n.facets, n.vertexFacets, n.facetsErr = enumerateFacets(n.d, n.vertices, n.limits.MaxRays, n.limits.Context)
 		n.facetsDone.Store(n.facetsErr == nil)
 	})
 	return n.facets, n.facetsErr
@@ -84,14 +85,16 @@ type ddState struct {
 	useBig  bool
 	tight   [][]uint64 // tight constraint sets
 	maxRays int
+	// ctx is Limits.Context, checked before each added constraint.
+	ctx     context.Context
 	zobrist []uint64 // random word per constraint (hashing of tight sets)
 }
 
-func enumerateFacets(d int, verts [][]int, maxRays int) ([]Facet, [][]uint64, error) {
-	st := &ddState{d: d, dim: d + 1, verts: verts, words: (d + len(verts) + 63) / 64, maxRays: maxRays}
+func enumerateFacets(d int, verts [][]int, maxRays int, ctx context.Context) ([]Facet, [][]uint64, error) {
+	st := &ddState{d: d, dim: d + 1, verts: verts, words: (d + len(verts) + 63) / 64, maxRays: maxRays, ctx: ctx}
 	err := st.run()
 	if errors.Is(err, errOverflow) {
-		st = &ddState{d: d, dim: d + 1, verts: verts, words: (d + len(verts) + 63) / 64, maxRays: maxRays, useBig: true}
+		st = &ddState{d: d, dim: d + 1, verts: verts, words: (d + len(verts) + 63) / 64, maxRays: maxRays, useBig: true, ctx: ctx}
 		err = st.run()
 	}
 	if err != nil {
@@ -162,6 +165,9 @@ func (st *ddState) run() error {
 		addRay(c, t)
 	}
 	for j := 1; j < len(st.verts); j++ {
+		if err := contextErr(st.ctx); err != nil {
+			return err
+		}
 		if err := st.addConstraint(d + j); err != nil {
 			return err
 		}

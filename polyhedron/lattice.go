@@ -128,6 +128,9 @@ func (n *Newton) buildLattice() (*Lattice, error) {
 		var next []*node
 		var nextSub [][]int
 		for gi, g := range level {
+			if err := contextErr(n.limits.Context); err != nil {
+				return nil, err
+			}
 			for u := 0; u < nv; u++ {
 				if hasBit(g.verts, u) {
 					continue

@@ -1,6 +1,7 @@
 package polyhedron
 
 import (
+	"context"
 	"errors"
 	"fmt"
 	"math"
@@ -59,6 +60,14 @@ type Limits struct {
 	// MaxFaces bounds the number of compact faces built by CompactFaces
 	// (default 1,000,000).
 	MaxFaces int
+	// Context, if non-nil, lets the caller stop the enumerations: Facets
+	// checks it before each vertex constraint it adds, and CompactFaces
+	// before extending each face of the level it is on. Once the context
+	// is done they return an error wrapping ctx.Err() (test with
+	// errors.Is(err, context.DeadlineExceeded), for instance). Their results
+	// are cached, so later calls on the same Newton return that error too:
+	// build a new Newton to retry. New and Distance do not check it.
+	Context context.Context
 }
 
 const (
