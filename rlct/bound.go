@@ -1,6 +1,7 @@
 package rlct
 
 import (
+	"context"
 	"errors"
 	"fmt"
 	"math/big"
@@ -70,6 +71,14 @@ type Problem struct {
 type Options struct {
 	// Limits bounds the enumeration of facets and faces (zero: defaults).
 	Limits polyhedron.Limits
+
+	// Context, if non-nil, lets the caller stop a long computation: Bound
+	// checks it on entry (so BoundAt checks it between points), before each
+	// compact face it decides, and passes it to the polyhedron enumerations
+	// when Limits.Context is nil (see polyhedron.Limits). Once it is done,
+	// Bound returns an error wrapping ctx.Err() instead of a partial
+	// answer. Parsing (Spec.Problem) and the distance LP do not check it.
+	Context context.Context
 }
 
 // Result is the answer for one point.
@@ -124,6 +133,13 @@ func Bound(p *Problem, opt *Options) (*Result, error) {
 	if opt == nil {
 		opt = &Options{}
 	}
+	if err := stopped(opt.Context); err != nil {
+		return nil, err
+	}
+	lim := opt.Limits
+	if lim.Context == nil {
+		lim.Context = opt.Context
+	}
 	vars, polys, err := p.forms()
 	if err != nil {
 		return nil, err
@@ -173,7 +189,7 @@ func Bound(p *Problem, opt *Options) (*Result, error) {
 			support = append(support, []int(e))
 		}
 	}
-	newton, err := polyhedron.NewWithLimits(d, support, opt.Limits)
+	newton, err := polyhedron.NewWithLimits(d, support, lim)
 	if err != nil {
 		return nil, err
 	}
@@ -181,7 +197,7 @@ func Bound(p *Problem, opt *Options) (*Result, error) {
 	if sos {
 		res.scale, res.Form = 2, "sum-of-squares"
 	}
-	an := &analysis{res: res, polys: polys, sos: sos, vars: vars}
+	an := &analysis{res: res, polys: polys, sos: sos, vars: vars, ctx: opt.Context}
 	if !sos {
 		if err := an.checkVertices(); err != nil {
 			return nil, err
@@ -198,6 +214,9 @@ func Bound(p *Problem, opt *Options) (*Result, error) {
 	res.Principal.Principal = true
 
 	lattice, lerr := newton.CompactFaces()
+	if isStop(lerr) {
+		return nil, lerr
+	}
 	if lerr != nil {
 		res.Reasons = append(res.Reasons, fmt.Sprintf("the compact faces could not be enumerated (%v), so nondegeneracy was not checked", lerr))
 	} else {

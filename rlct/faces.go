@@ -1,6 +1,7 @@
 package rlct
 
 import (
+	"context"
 	"fmt"
 	"math"
 	"math/big"
@@ -107,6 +108,9 @@ type analysis struct {
 	// terms caches the exponents and coefficients of each polynomial, so
 	// that the many faces are matched against plain integer slices.
 	terms [][]termData
+
+	// ctx is Options.Context, checked before each face is decided.
+	ctx context.Context
 }
 
 type termData struct {
@@ -255,6 +259,9 @@ func (an *analysis) checkFaces(lat *polyhedron.Lattice, principal *polyhedron.Fa
 	verts := res.newton.Vertices()
 	failed := 0
 	for _, f := range lat.Faces {
+		if err := stopped(an.ctx); err != nil {
+			return err
+		}
 		parts := an.parts(f)
 		fr := an.report(f, parts)
 		fr.Principal = sameFace(f, principal)
