@@ -126,7 +126,7 @@ func vertexReport(vars []string, polys []*monomial.Poly, v []int, sos bool, scal
 // facetReport describes facet f of the base polyhedron in P(K) coordinates.
 func facetReport(vars []string, verts [][]int, f polyhedron.Facet, scale int) FacetReport {
 	fr := FacetReport{Normal: f.Normal, RHS: new(big.Int).Mul(f.RHS, big.NewInt(int64(scale)))}
-	fr.Inequality = inequality(vars, fr.Normal, fr.RHS)
+	fr.Inequality = FormatInequality(vars, fr.Normal, fr.RHS)
 	for _, j := range f.Vertices {
 		fr.Vertices = append(fr.Vertices, scaled(verts[j], scale))
 	}
@@ -136,8 +136,13 @@ func facetReport(vars []string, verts [][]int, f polyhedron.Facet, scale int) Fa
 	return fr
 }
 
-// inequality writes a·x ≥ b as "3*x + 2*y >= 12", leaving out zero terms.
-func inequality(vars []string, a []*big.Int, b *big.Int) string {
+// FormatInequality writes a·x ≥ b with the variable names, as in
+// "3*x + 2*y >= 12": terms with a zero coefficient are left out and a
+// coefficient 1 is not written. It panics if len(a) != len(vars).
+func FormatInequality(vars []string, a []*big.Int, b *big.Int) string {
+	if len(a) != len(vars) {
+		panic("rlct: FormatInequality: length mismatch")
+	}
 	var terms []string
 	for i, c := range a {
 		switch {

@@ -296,3 +296,26 @@ func ExampleDescribe() {
 	// facet 2*x + y >= 6
 	// λ = 1/2 θ = 2 exact
 }
+
+func TestFormatInequality(t *testing.T) {
+	vars := []string{"x", "y", "z"}
+	tests := []struct {
+		a    []int64
+		b    int64
+		want string
+	}{
+		{[]int64{3, 2, 0}, 12, "3*x + 2*y >= 12"},
+		{[]int64{0, 0, 1}, 0, "z >= 0"},
+		{[]int64{1, 1, 1}, 3, "x + y + z >= 3"},
+		{[]int64{0, 0, 0}, 0, "0 >= 0"},
+	}
+	for _, tt := range tests {
+		a := make([]*big.Int, len(tt.a))
+		for i, x := range tt.a {
+			a[i] = big.NewInt(x)
+		}
+		if got := FormatInequality(vars, a, big.NewInt(tt.b)); got != tt.want {
+			t.Errorf("%v >= %d: got %q, want %q", tt.a, tt.b, got, tt.want)
+		}
+	}
+}
