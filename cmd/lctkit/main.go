@@ -40,6 +40,8 @@ type cli struct {
 	Bound   boundCmd   `cmd:"" help:"Bound the learning coefficient λ and multiplicity θ of K; exact when certified."`
 	Expand  expandCmd  `cmd:"" help:"Expand an expression into its exact canonical polynomial."`
 	Penalty penaltyCmd `cmd:"" help:"Print the asymptotic penalty λ·log n − (θ−1)·log log n beside the regular one."`
+	Faces   facesCmd   `cmd:"" help:"Print the Newton polyhedron: vertices, facets, compact faces with their verdicts, the principal face."`
+	Draw    drawCmd    `cmd:"" help:"Draw the Newton polyhedron of K in 2 or 3 variables as an SVG picture."`
 }
 
 // env is what commands read from and write to; tests replace it.

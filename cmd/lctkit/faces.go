@@ -1,0 +1,220 @@
+package main
+
+import (
+	"bytes"
+	"errors"
+	"fmt"
+	"io"
+	"math/big"
+	"strings"
+	"text/tabwriter"
+
+	"github.com/lctkit/lctkit/rlct"
+)
+
+// facesCmd prints the Newton polyhedron: vertices, facets and compact faces.
+type facesCmd struct {
+	Expr string `arg:"" optional:"" help:"K(w), an expression vanishing at the point; - reads it from standard input. Without it the bundled example is described."`
+	problemFlags
+	JSON bool `help:"Print one JSON object (several points: an object with \"locals\", one entry per point)."`
+}
+
+// Help is shown under the command's usage.
+func (c *facesCmd) Help() string {
+	return `Prints the Newton polyhedron P(K) behind the bound: its vertices with the
+terms of K there (in sum-of-squares form, the coefficient in each generator),
+its facets as inequalities, and every compact face with its face polynomial
+and nondegeneracy verdict; the principal face, which meets the ray along τ,
+is marked with *. Exponents are those of K, so in sum-of-squares form they are
+twice those of the generators.
+
+Examples:
+  lctkit faces 'x^4 + y^6'
+  lctkit faces '(y - x^2)^2'                  # a degenerate edge, with a witness
+  lctkit faces --sos 'a*b; a*c' --prior a=1 --json`
+}
+
+// Run describes the polyhedron at each point.
+func (c *facesCmd) Run(e *env) error {
+	s, note, err := c.spec(c.Expr, e)
+	if err != nil {
+		return err
+	}
+	if note != "" && !c.JSON {
+		fmt.Fprintln(e.stdout, note)
+	}
+	descs, err := describe(s, e)
+	if err != nil {
+		if c.JSON {
+			var ee exitError
+			if !errors.As(err, &ee) {
+				writeJSON(e.stdout, &rlct.Report{Error: err.Error()})
+			}
+		}
+		return err
+	}
+	if c.JSON {
+		if len(descs) == 1 {
+			return writeJSON(e.stdout, descs[0].Report())
+		}
+		var all struct {
+			Locals []*rlct.DescriptionReport `json:"locals"`
+		}
+		for _, d := range descs {
+			all.Locals = append(all.Locals, d.Report())
+		}
+		return writeJSON(e.stdout, &all)
+	}
+	for i, d := range descs {
+		if len(descs) > 1 {
+			if i > 0 {
+				fmt.Fprintln(e.stdout)
+			}
+			fmt.Fprintf(e.stdout, "point %d of %d: %s\n", i+1, len(descs), pointString(d.Vars, d.Point))
+		}
+		writeFaces(e.stdout, d)
+	}
+	return nil
+}
+
+// describe parses the spec and describes the polyhedron at each of its
+// points (the origin when none is given), printing positioned errors.
+func describe(s *rlct.Spec, e *env) ([]*rlct.Description, error) {
+	p, points, err := s.Problem()
+	if err != nil {
+		return nil, showSpecError(e, err)
+	}
+	if len(points) == 0 {
+		points = [][]*big.Rat{nil}
+	}
+	var out []*rlct.Description
+	for i, w := range points {
+		q := *p
+		q.Point = w
+		d, err := rlct.Describe(&q, nil)
+		if err != nil {
+			if len(points) > 1 {
+				return nil, fmt.Errorf("point %d: %w", i+1, err)
+			}
+			return nil, err
+		}
+		out = append(out, d)
+	}
+	return out, nil
+}
+
+// writeFaces prints one description as text.
+func writeFaces(out io.Writer, d *rlct.Description) {
+	var buf bytes.Buffer
+	writeFacesTo(&buf, d)
+	// The tab writer pads the short header lines; drop the trailing blanks.
+	for line := range strings.Lines(buf.String()) {
+		fmt.Fprintln(out, strings.TrimRight(line, " \n"))
+	}
+}
+
+func writeFacesTo(w io.Writer, d *rlct.Description) {
+	status := "exact"
+	if d.Status != rlct.Exact {
+		status = "upper bound"
+	}
+	where := "at the origin"
+	if !allZero(d.Point) {
+		where = "at " + pointString(d.Vars, d.Point)
+	}
+	fmt.Fprintf(w, "Newton polyhedron P(K) in (%s), %s", strings.Join(d.Vars, ", "), where)
+	if d.Form == "sum-of-squares" {
+		fmt.Fprint(w, "; K is a sum of squares, so P(K) = 2·P(g1, …, gr)")
+	}
+	fmt.Fprintln(w)
+	fmt.Fprintf(w, "λ = %s   θ = %d   (%s)\n", d.Lambda.RatString(), d.Theta, status)
+	fmt.Fprintf(w, "the ray along τ = (%s) meets P(K) at t_τ·τ = (%s), t_τ = %s\n",
+		ratList(d.Weights), ratList(d.Hit), d.Distance.RatString())
+
+	fmt.Fprintf(w, "\nvertices (%d):\n", len(d.Vertices))
+	tw := tabwriter.NewWriter(w, 0, 0, 3, ' ', 0)
+	for _, v := range d.Vertices {
+		line := fmt.Sprintf("  %s\t%s\tcoefficient %s", vertexList([][]int{v.Exponent}), v.Monomial, v.Coefficient.RatString())
+		if v.Generators != nil {
+			parts := make([]string, len(v.Generators))
+			names := make([]string, len(v.Generators))
+			for i, c := range v.Generators {
+				parts[i] = c.RatString() + "^2"
+				if c.Sign() < 0 || !c.IsInt() {
+					parts[i] = "(" + c.RatString() + ")^2"
+				}
+				names[i] = fmt.Sprintf("g%d", i+1)
+			}
+			line += fmt.Sprintf("\t= %s from %s", strings.Join(parts, " + "), strings.Join(names, ", "))
+		}
+		fmt.Fprintln(tw, line)
+	}
+	tw.Flush()
+
+	fmt.Fprintf(w, "\nfacets (%d), as a·x >= b:\n", len(d.Facets))
+	tw = tabwriter.NewWriter(w, 0, 0, 3, ' ', 0)
+	for _, f := range d.Facets {
+		kind := "compact"
+		if len(f.Rays) > 0 {
+			kind = "unbounded along " + strings.Join(f.Rays, ", ")
+		}
+		fmt.Fprintf(tw, "  %s\t%s\tvertices %s\n", f.Inequality, kind, vertexList(f.Vertices))
+	}
+	tw.Flush()
+
+	if d.Faces == nil {
+		fmt.Fprintln(w, "\ncompact faces: not enumerated")
+	} else {
+		fmt.Fprintf(w, "\ncompact faces (%d; * marks the principal face):\n", len(d.Faces))
+		tw = tabwriter.NewWriter(w, 0, 0, 3, ' ', 0)
+		dim := -1
+		for _, f := range d.Faces {
+			if f.Dim != dim {
+				dim = f.Dim
+				fmt.Fprintf(tw, "  dimension %d\t\t\t\n", dim)
+			}
+			mark := " "
+			if f.Principal {
+				mark = "*"
+			}
+			fmt.Fprintf(tw, "  %s %s\t%s\t%s\n", mark, vertexList(f.Vertices), f.Polynomial, verdictText(f))
+		}
+		tw.Flush()
+	}
+
+	pf := d.Principal
+	kind := "compact"
+	if !pf.Compact {
+		kind = "unbounded along " + strings.Join(pf.Rays, ", ")
+	}
+	fmt.Fprintf(w, "\nprincipal face: dimension %d, codimension %d = θ, %s, vertices %s, on %s\n",
+		pf.Dim, pf.Codim, kind, vertexList(pf.Vertices), strings.Replace(rlct.FormatInequality(d.Vars, pf.Normal, pf.RHS), ">=", "=", 1))
+	if !pf.Compact {
+		fmt.Fprintf(w, "  face polynomial: %s\n", pf.Polynomial)
+	}
+	if d.Status != rlct.Exact {
+		fmt.Fprintln(w, "\nThis is an upper bound, not necessarily the learning coefficient, because:")
+		for _, r := range d.Reasons {
+			fmt.Fprintf(w, "  - %s\n", r)
+		}
+	}
+}
+
+// verdictText is the nondegeneracy column of a compact face.
+func verdictText(f rlct.FaceReport) string {
+	s := string(f.Verdict)
+	if f.Rule != "" && f.Rule != rlct.RuleNone {
+		s += " (" + f.Rule
+		if f.Reason != "" && f.Verdict == rlct.Nondegenerate {
+			s += ": " + f.Reason
+		}
+		s += ")"
+	}
+	switch {
+	case f.Witness != nil:
+		s += fmt.Sprintf(": vanishes at %s, where %s = %s", strings.Join(f.Witness.Point, ", "), f.Witness.Monomial, f.Witness.Root)
+	case f.Verdict == rlct.Undetermined && f.Reason != "":
+		s += ": " + f.Reason
+	}
+	return s
+}

@@ -1,0 +1,171 @@
+package main
+
+import (
+	"encoding/json"
+	"strings"
+	"testing"
+)
+
+func TestFacesText(t *testing.T) {
+	tests := []struct {
+		args  []string
+		lines []string // each must appear, after collapsing runs of blanks
+	}{
+		{
+			// P = conv{(4,0),(0,6)} + R²₊: facets 3x + 2y ≥ 12, x ≥ 0, y ≥ 0
+			// (by hand); λ = 5/12, θ = 1, exact (Howald 2001, Trans. AMS
+			// 353, halved for squares).
+			[]string{"x^4 + y^6"},
+			[]string{
+				"λ = 5/12 θ = 1 (exact)",
+				"meets P(K) at t_τ·τ = (12/5, 12/5), t_τ = 12/5",
+				"vertices (2):",
+				"(0,6) y^6 coefficient 1",
+				"(4,0) x^4 coefficient 1",
+				"facets (3), as a·x >= b:",
+				"3*x + 2*y >= 12 compact vertices (0,6) (4,0)",
+				"x >= 0 unbounded along y vertices (0,6)",
+				"y >= 0 unbounded along x vertices (4,0)",
+				"compact faces (3; * marks the principal face):",
+				"dimension 0",
+				"(0,6) y^6 nondegenerate (vertex)",
+				"* (0,6) (4,0) y^6 + x^4 nondegenerate (even-positive-terms)",
+				"principal face: dimension 1, codimension 1 = θ, compact, vertices (0,6) (4,0), on 3*x + 2*y = 12",
+			},
+		},
+		{
+			// (y − x²)²: the edge (0,2)–(4,0) is degenerate, vanishing where
+			// y = x², so 3/4 is only an upper bound (by hand).
+			[]string{"(y - x^2)^2"},
+			[]string{
+				"λ = 3/4 θ = 1 (upper bound)",
+				"x + 2*y >= 4 compact vertices (0,2) (4,0)",
+				"* (0,2) (4,0) x^4 - 2*x^2*y + y^2 degenerate (edge-sturm): vanishes at x=1, y=1, where x^2*y^-1 = 1",
+				"This is an upper bound, not necessarily the learning coefficient, because:",
+			},
+		},
+		{
+			// (2x − 2y)² + (3x)²: the vertex x² of K has coefficient
+			// 2² + 3² = 13 (by hand).
+			[]string{"--sos", "2*x - 2*y; 3*x"},
+			[]string{
+				"K is a sum of squares, so P(K) = 2·P(g1, …, gr)",
+				"(2,0) x^2 coefficient 13 = 2^2 + 3^2 from g1, g2",
+				"(0,2) y^2 coefficient 4 = (-2)^2 + 0^2 from g1, g2",
+				"x + y >= 2 compact vertices (0,2) (2,0)",
+			},
+		},
+		{
+			// x² in (x, y): the principal face is the unbounded edge x = 2.
+			[]string{"x^2", "--vars", "x,y"},
+			[]string{
+				"principal face: dimension 1, codimension 1 = θ, unbounded along y, vertices (2,0), on x = 2",
+				"face polynomial: x^2",
+			},
+		},
+		{
+			// Two points: one section each.
+			[]string{"x^2*(x-1)^2 + y^2", "--at", "x=0", "--at", "x=1"},
+			[]string{"point 1 of 2: x=0,y=0", "point 2 of 2: x=1,y=0", "Newton polyhedron P(K) in (x, y), at x=1,y=0"},
+		},
+	}
+	for _, tt := range tests {
+		out, errOut, code := runCLI(t, "", append([]string{"faces"}, tt.args...)...)
+		if code != exitOK {
+			t.Errorf("%v: exit %d: %s", tt.args, code, errOut)
+			continue
+		}
+		var collapsed []string
+		for _, l := range strings.Split(out, "\n") {
+			if strings.TrimRight(l, " ") != l {
+				t.Errorf("%v: trailing blanks in %q", tt.args, l)
+			}
+			collapsed = append(collapsed, strings.Join(strings.Fields(l), " "))
+		}
+		for _, want := range tt.lines {
+			found := false
+			for _, l := range collapsed {
+				if strings.Contains(l, want) {
+					found = true
+				}
+			}
+			if !found {
+				t.Errorf("%v: no line with %q in\n%s", tt.args, want, out)
+			}
+		}
+	}
+}
+
+func TestFacesJSON(t *testing.T) {
+	out, errOut, code := runCLI(t, "", "faces", "x^2*y^2 + z^2", "--json")
+	if code != exitOK {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	var rep struct {
+		Lambda   string   `json:"lambda"`
+		Theta    int      `json:"theta"`
+		Status   string   `json:"status"`
+		Hit      []string `json:"hit_point"`
+		Vertices []struct {
+			Exponent    []int  `json:"exponent"`
+			Monomial    string `json:"monomial"`
+			Coefficient string `json:"coefficient"`
+		} `json:"vertices"`
+		Facets []struct {
+			Normal     []string `json:"normal"`
+			RHS        string   `json:"rhs"`
+			Inequality string   `json:"inequality"`
+			Rays       []string `json:"rays"`
+		} `json:"facets"`
+		Faces []struct {
+			Dim       int    `json:"dim"`
+			Principal bool   `json:"principal"`
+			Verdict   string `json:"verdict"`
+		} `json:"nondegeneracy"`
+		Principal struct {
+			Dim   int `json:"dim"`
+			Codim int `json:"codim"`
+		} `json:"principal_face"`
+	}
+	if err := json.Unmarshal([]byte(out), &rep); err != nil {
+		t.Fatalf("%v\n%s", err, out)
+	}
+	// x²y² + z²: λ = 1/2 + 1/2 and θ = 2 (common practice: λ adds over
+	// separate variables, and x²y² has λ = 1/2 with θ = 2); the facets are
+	// x, y, z ≥ 0, x + z ≥ 2, y + z ≥ 2 and the ray meets the edge at
+	// (1,1,1) (by hand).
+	if rep.Lambda != "1" || rep.Theta != 2 || rep.Status != "exact" || strings.Join(rep.Hit, ",") != "1,1,1" {
+		t.Errorf("λ %s θ %d %s hit %v", rep.Lambda, rep.Theta, rep.Status, rep.Hit)
+	}
+	if len(rep.Vertices) != 2 || rep.Vertices[1].Monomial != "x^2*y^2" || rep.Vertices[1].Coefficient != "1" {
+		t.Errorf("vertices %+v", rep.Vertices)
+	}
+	var ineqs []string
+	for _, f := range rep.Facets {
+		ineqs = append(ineqs, f.Inequality)
+	}
+	if got := strings.Join(ineqs, "; "); got != "z >= 0; y >= 0; y + z >= 2; x >= 0; x + z >= 2" {
+		t.Errorf("facets %s", got)
+	}
+	if len(rep.Faces) != 3 || !rep.Faces[2].Principal || rep.Faces[2].Dim != 1 || rep.Principal.Codim != 2 {
+		t.Errorf("faces %+v, principal %+v", rep.Faces, rep.Principal)
+	}
+
+	out, _, code = runCLI(t, "", "faces", "x^2*(x-1)^2 + y^2", "--at", "x=0", "--at", "x=1", "--json")
+	var multi struct {
+		Locals []struct {
+			Point []string `json:"point"`
+		} `json:"locals"`
+	}
+	if err := json.Unmarshal([]byte(out), &multi); err != nil || code != exitOK {
+		t.Fatalf("exit %d, %v\n%s", code, err, out)
+	}
+	if len(multi.Locals) != 2 || strings.Join(multi.Locals[1].Point, ",") != "1,0" {
+		t.Errorf("locals %+v", multi.Locals)
+	}
+
+	out, _, code = runCLI(t, "", "faces", "x^2 + 1", "--json")
+	if code != exitFailed || !strings.Contains(out, `"error":"rlct: K does not vanish at the point`) {
+		t.Errorf("exit %d, output %s", code, out)
+	}
+}
