@@ -7,6 +7,7 @@ import (
 	"math/big"
 	"math/bits"
 	"slices"
+	"sync"
 )
 
 // Add returns p + q.
@@ -160,8 +161,8 @@ func mul(p, q *Poly, maxDeg, maxTerms int) (*Poly, error) {
 		keyQ[j] = pack(q.exp(j))
 	}
 
-	var t hashTable
-	t.init(len(p.coefs) + len(q.coefs))
+	t := getTable(min(len(p.coefs)*len(q.coefs), 4*len(p.coefs)+len(q.coefs)))
+	defer putTable(t)
 	for i, kp := range keyP {
 		cp := p.coefs[i]
 		j0 := 0
@@ -183,43 +184,96 @@ func mul(p, q *Poly, maxDeg, maxTerms int) (*Poly, error) {
 			return nil, errTooManyTerms
 		}
 	}
-	// Sort the live terms by (degree desc, key desc) = term order.
-	type item struct {
-		deg int
-		key uint64
-		c   coef
-	}
-	items := make([]item, 0, len(t.keys))
+	// Sort the live terms by (degree desc, key desc), which is term order.
+	// The degree goes above the key bits so that one uint64 orders them;
+	// then a radix sort does the work in a few linear passes.
+	live := make([]sortPair, 0, len(t.keys))
+	maxTermDeg := 0
 	for i, k := range t.keys {
-		if c := t.coefs[i]; !c.isZero() {
+		if !t.coefs[i].isZero() {
 			d := 0
 			for v := range n {
 				d += int((k >> shift[v]) & (1<<width[v] - 1))
 			}
-			items = append(items, item{d, k, c})
+			maxTermDeg = max(maxTermDeg, d)
+			live = append(live, sortPair{key: uint64(d), idx: int32(i)})
 		}
 	}
-	slices.SortFunc(items, func(a, b item) int {
-		if a.deg != b.deg {
-			return b.deg - a.deg
+	r := &Poly{vars: p.vars, exps: make([]int, len(live)*n), coefs: make([]coef, len(live))}
+	degBits := uint(bits.Len(uint(maxTermDeg)))
+	if total+degBits <= 64 {
+		for i := range live {
+			live[i].key = live[i].key<<total | t.keys[live[i].idx]
 		}
-		switch {
-		case a.key > b.key:
-			return -1
-		case a.key < b.key:
-			return 1
-		}
-		return 0
-	})
-	r := &Poly{vars: p.vars, exps: make([]int, len(items)*n), coefs: make([]coef, len(items))}
-	for j, it := range items {
+		radixSortDesc(live, total+degBits)
+	} else {
+		slices.SortFunc(live, func(a, b sortPair) int {
+			if a.key != b.key {
+				return int(b.key) - int(a.key) // degrees, small
+			}
+			ka, kb := t.keys[a.idx], t.keys[b.idx]
+			switch {
+			case ka > kb:
+				return -1
+			case ka < kb:
+				return 1
+			}
+			return 0
+		})
+	}
+	for j, it := range live {
+		k := t.keys[it.idx]
 		e := r.exps[j*n : (j+1)*n]
 		for v := range n {
-			e[v] = int((it.key >> shift[v]) & (1<<width[v] - 1))
+			e[v] = int((k >> shift[v]) & (1<<width[v] - 1))
 		}
-		r.coefs[j] = it.c
+		r.coefs[j] = t.coefs[it.idx]
 	}
 	return r, nil
+}
+
+// sortPair is a sort key with the index of the item it stands for.
+type sortPair struct {
+	key uint64
+	idx int32
+}
+
+// radixSortDesc sorts a by key, descending, looking only at the low nbits
+// bits of the keys (the others must be zero): an LSD radix sort with 8-bit
+// digits.
+func radixSortDesc(a []sortPair, nbits uint) {
+	if len(a) < 64 {
+		slices.SortFunc(a, func(x, y sortPair) int {
+			switch {
+			case x.key > y.key:
+				return -1
+			case x.key < y.key:
+				return 1
+			}
+			return 0
+		})
+		return
+	}
+	buf := make([]sortPair, len(a))
+	src, dst := a, buf
+	for shift := uint(0); shift < nbits; shift += 8 {
+		var count [257]int
+		for _, x := range src {
+			count[255-(x.key>>shift)&0xff+1]++
+		}
+		for i := 1; i < 257; i++ {
+			count[i] += count[i-1]
+		}
+		for _, x := range src {
+			d := 255 - (x.key>>shift)&0xff
+			dst[count[d]] = x
+			count[d]++
+		}
+		src, dst = dst, src
+	}
+	if &src[0] != &a[0] {
+		copy(a, src)
+	}
 }
 
 // mulGeneric is mul for exponents too wide to pack into 64 bits.
@@ -267,62 +321,86 @@ func maxExponents(p *Poly) []int {
 }
 
 // hashTable maps packed exponent keys to accumulated coefficients, with
-// open addressing and linear probing.
+// open addressing and linear probing. Each slot holds the key next to the
+// entry index, so a probe touches one cache line.
 type hashTable struct {
-	slots []int32 // index+1 into keys/coefs, 0 for empty
+	slots []hashSlot
 	mask  uint64
 	shift uint
 	keys  []uint64
 	coefs []coef
 }
 
-func (t *hashTable) init(hint int) {
+type hashSlot struct {
+	key uint64
+	idx int32 // index+1 into keys/coefs, 0 for empty
+}
+
+// tablePool recycles hash tables between products: allocating and
+// clearing fresh large tables costs more than the multiplication itself.
+var tablePool = sync.Pool{New: func() any { return new(hashTable) }}
+
+// getTable returns an empty table sized for about hint entries.
+func getTable(hint int) *hashTable {
+	t := tablePool.Get().(*hashTable)
 	size := 16
 	for size < 2*hint {
 		size <<= 1
 	}
-	t.slots = make([]int32, size)
+	if cap(t.keys) < hint {
+		t.keys = make([]uint64, 0, hint)
+		t.coefs = make([]coef, 0, hint)
+	}
+	t.resize(size)
+	return t
+}
+
+// putTable empties t (dropping its references to big.Rats) and recycles it.
+func putTable(t *hashTable) {
+	clear(t.coefs)
+	t.keys, t.coefs = t.keys[:0], t.coefs[:0]
+	tablePool.Put(t)
+}
+
+func (t *hashTable) resize(size int) {
+	if cap(t.slots) >= size {
+		t.slots = t.slots[:size] // a recycled table: reuse its memory
+		clear(t.slots)
+	} else {
+		t.slots = make([]hashSlot, size)
+	}
 	t.mask = uint64(size - 1)
 	t.shift = uint(64 - bits.Len(uint(size-1)))
-	t.keys = make([]uint64, 0, hint)
-	t.coefs = make([]coef, 0, hint)
+	for i, k := range t.keys {
+		h := (k * 0x9E3779B97F4A7C15) >> t.shift
+		for t.slots[h].idx != 0 {
+			h = (h + 1) & t.mask
+		}
+		t.slots[h] = hashSlot{k, int32(i + 1)}
+	}
 }
 
 // slot returns the index of key's entry, creating a zero entry if needed.
 func (t *hashTable) slot(key uint64) int {
 	h := (key * 0x9E3779B97F4A7C15) >> t.shift
 	for {
-		s := t.slots[h]
-		if s == 0 {
+		s := &t.slots[h]
+		if s.idx == 0 {
 			break
 		}
-		if t.keys[s-1] == key {
-			return int(s - 1)
+		if s.key == key {
+			return int(s.idx - 1)
 		}
 		h = (h + 1) & t.mask
 	}
 	if 2*(len(t.keys)+1) > len(t.slots) {
-		t.grow()
+		t.resize(2 * len(t.slots))
 		return t.slot(key)
 	}
 	t.keys = append(t.keys, key)
 	t.coefs = append(t.coefs, coefZero)
-	t.slots[h] = int32(len(t.keys))
+	t.slots[h] = hashSlot{key, int32(len(t.keys))}
 	return len(t.keys) - 1
-}
-
-func (t *hashTable) grow() {
-	size := 2 * len(t.slots)
-	t.slots = make([]int32, size)
-	t.mask = uint64(size - 1)
-	t.shift = uint(64 - bits.Len(uint(size-1)))
-	for i, k := range t.keys {
-		h := (k * 0x9E3779B97F4A7C15) >> t.shift
-		for t.slots[h] != 0 {
-			h = (h + 1) & t.mask
-		}
-		t.slots[h] = int32(i + 1)
-	}
 }
 
 // Limits guard against runaway expansion. A zero field means its default.
