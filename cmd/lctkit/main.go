@@ -42,6 +42,7 @@ type cli struct {
 	Penalty penaltyCmd `cmd:"" help:"Print the asymptotic penalty λ·log n − (θ−1)·log log n beside the regular one."`
 	Faces   facesCmd   `cmd:"" help:"Print the Newton polyhedron: vertices, facets, compact faces with their verdicts, the principal face."`
 	Draw    drawCmd    `cmd:"" help:"Draw the Newton polyhedron of K in 2 or 3 variables as an SVG picture."`
+	Batch   batchCmd   `cmd:"" help:"Bound many problems given as JSON lines, on all cores, answers in input order; shardable."`
 }
 
 // env is what commands read from and write to; tests replace it.

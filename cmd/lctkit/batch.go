@@ -1,0 +1,374 @@
+package main
+
+import (
+	"bufio"
+	"bytes"
+	"context"
+	"encoding/json"
+	"errors"
+	"fmt"
+	"io"
+	"os"
+	"runtime"
+	"strconv"
+	"strings"
+	"sync"
+	"sync/atomic"
+	"time"
+
+	"github.com/lctkit/lctkit/monomial"
+	"github.com/lctkit/lctkit/rlct"
+)
+
+// maxRecordLine is the longest input line batch accepts (64 MiB); a longer
+// line gives an error record and reading goes on at the next line.
+const maxRecordLine = 64 << 20
+
+// batchCmd bounds many problems given as JSON lines.
+type batchCmd struct {
+	File     string        `arg:"" optional:"" default:"-" help:"JSON lines input, one problem per line; - or nothing reads standard input."`
+	Workers  int           `help:"Records computed at once (default: all cores, GOMAXPROCS)." placeholder:"N"`
+	Shard    string        `help:"Answer only the lines L with (L−1) mod n = i, for 0 ≤ i < n (the first line belongs to shard 0/n); other lines give no output." placeholder:"i/n"`
+	Timeout  time.Duration `help:"Give up on a record after this long (0: never), e.g. 10s or 1m." placeholder:"10s"`
+	MaxTerms int           `help:"Most terms an expansion may have (0: the library default, 2,000,000)." placeholder:"N"`
+
+	shardIndex, shardCount int
+	// maxLine overrides maxRecordLine in tests.
+	maxLine int
+}
+
+// Help is shown under the command's usage.
+func (c *batchCmd) Help() string {
+	return `Reads one problem per line as a JSON object and writes one JSON object per
+input line, in input order, to standard output: what "bound --json" prints,
+with "id" (the input's id, verbatim) and "line" (the input line number, from 1)
+added in front.
+
+Input fields:
+  id     any JSON value, echoed back unchanged (numbers keep every digit)
+  k      K as an expression, or
+  sos    generators ["g1", "g2"] of K = g1^2 + g2^2 + … (or one string "g1; g2")
+  prior  "x=1,y=1/2" (optional)
+  at     "x=0,y=1/3" or a list of such points (optional)
+  order  series truncation degree, an integer (optional)
+  vars   "x,y,z" or ["x", "y", "z"] (optional)
+Any other field is an error.
+
+Every input line gives exactly one output line, whatever happens. A line that
+cannot be answered (malformed JSON, an unknown field, a parse error, K not
+vanishing, a term limit, a timeout) gives {"id": …, "line": N, "error": "…"},
+with the id when it could be read, and the run goes on. A blank line (only
+white space) gives {"line": N, "error": "blank line"}. A line longer than
+64 MiB gives an error record and reading resumes after it.
+
+Records are computed on --workers goroutines and written in input order as
+each one is ready (at most 16 per worker wait in memory), so output can be
+followed while the run goes on and an interrupted run keeps every record
+written. --shard i/n splits one input among n runs (on n machines, say): the
+outputs of shards 0/n, 1/n, …, (n−1)/n together hold every line exactly once,
+and sorting their concatenation by "line" gives the unsharded output.
+
+--timeout limits each record, from reading it to its answer; a record over it
+gives the error "timed out after 10s" (for --timeout 10s). The Newton polyhedron
+enumeration and the face checks stop at the deadline; parsing and expanding K
+are not interrupted (--max-terms bounds them), so such a record ends late but
+is still reported as timed out.
+
+A progress line is drawn on standard error when it is a terminal, and a summary
+line is always printed there at the end.
+
+Exit status: 0 every record answered; 3 some records carry an error; 2 usage
+error (a bad flag); 1 the input could not be read.
+
+Examples:
+  lctkit batch problems.jsonl > answers.jsonl
+  echo '{"id": 1, "k": "x^4 + y^6"}' | lctkit batch
+  lctkit batch --shard 0/4 --timeout 30s --max-terms 100000 problems.jsonl`
+}
+
+// Validate checks the flags before Run.
+func (c *batchCmd) Validate() error {
+	if c.Workers < 0 {
+		return errors.New("--workers must be positive")
+	}
+	if c.Timeout < 0 {
+		return errors.New("--timeout must not be negative")
+	}
+	if c.MaxTerms < 0 {
+		return errors.New("--max-terms must not be negative")
+	}
+	c.shardIndex, c.shardCount = 0, 1
+	if c.Shard != "" {
+		i, n, err := parseShard(c.Shard)
+		if err != nil {
+			return fmt.Errorf("--shard: %w", err)
+		}
+		c.shardIndex, c.shardCount = i, n
+	}
+	return nil
+}
+
+// parseShard reads "i/n" with 0 ≤ i < n.
+func parseShard(s string) (i, n int, err error) {
+	a, b, ok := strings.Cut(s, "/")
+	if ok {
+		i, err = strconv.Atoi(strings.TrimSpace(a))
+		if err == nil {
+			n, err = strconv.Atoi(strings.TrimSpace(b))
+		}
+	}
+	if !ok || err != nil {
+		return 0, 0, fmt.Errorf("%q is not of the form i/n", s)
+	}
+	if n < 1 || i < 0 || i >= n {
+		return 0, 0, fmt.Errorf("%q: want n ≥ 1 and 0 ≤ i < n", s)
+	}
+	return i, n, nil
+}
+
+// batchItem is one input line on its way to a worker.
+type batchItem struct {
+	line int
+	data []byte
+	err  error // set when the line could not be taken (too long)
+}
+
+// batchAnswer is one output line, encoded, and whether it is an error.
+type batchAnswer struct {
+	json   []byte
+	failed bool
+}
+
+// batchReply is the JSON form of an answer.
+type batchReply struct {
+	ID   json.RawMessage `json:"id,omitempty"`
+	Line int             `json:"line"`
+	*rlct.Report
+}
+
+// Run reads, computes and writes the records.
+func (c *batchCmd) Run(e *env) error {
+	in := e.stdin
+	name := "standard input"
+	if c.File != "-" {
+		f, err := os.Open(c.File)
+		if err != nil {
+			return err // exit 1: the input cannot be read
+		}
+		defer f.Close()
+		in, name = f, c.File
+	}
+	workers := c.Workers
+	if workers == 0 {
+		workers = runtime.GOMAXPROCS(0)
+	}
+	maxLine := c.maxLine
+	if maxLine == 0 {
+		maxLine = maxRecordLine
+	}
+	lines := &lineReader{r: bufio.NewReaderSize(in, 64<<10), max: maxLine}
+	next := func() (batchItem, bool, error) {
+		for {
+			skip := func(n int) bool { return (n-1)%c.shardCount != c.shardIndex }
+			data, n, err := lines.next(skip)
+			if err == io.EOF {
+				return batchItem{}, false, nil
+			}
+			if err != nil && !errors.Is(err, errLineTooLong) {
+				return batchItem{}, false, fmt.Errorf("reading %s at line %d: %w", name, n, err)
+			}
+			if skip(n) {
+				continue
+			}
+			return batchItem{line: n, data: data, err: err}, true, nil
+		}
+	}
+
+	var done, failed atomic.Int64
+	start := time.Now()
+	stopProgress := c.progress(e, start, &done, &failed)
+	emit := func(a batchAnswer) error {
+		if _, err := e.stdout.Write(a.json); err != nil {
+			return fmt.Errorf("writing the output: %w", err)
+		}
+		done.Add(1)
+		if a.failed {
+			failed.Add(1)
+		}
+		return nil
+	}
+	work := func(_ int, it batchItem) batchAnswer { return c.answer(it) }
+	err := orderedMap(workers, 16*workers, next, work, emit)
+	stopProgress()
+
+	elapsed := time.Since(start)
+	n, nf := done.Load(), failed.Load()
+	shard := ""
+	if c.shardCount > 1 {
+		shard = fmt.Sprintf(" (shard %d/%d of %d lines)", c.shardIndex, c.shardCount, lines.count)
+	}
+	fmt.Fprintf(e.stderr, "lctkit batch: %d records%s, %d with errors, in %s (%.0f records/s)\n",
+		n, shard, nf, elapsed.Round(time.Millisecond), float64(n)/max(elapsed.Seconds(), 1e-9))
+	if err != nil {
+		return err
+	}
+	if nf > 0 {
+		return exitError{exitRecords}
+	}
+	return nil
+}
+
+// progress starts redrawing a progress line on stderr four times a second
+// when stderr is a terminal, and returns the function that clears it.
+func (c *batchCmd) progress(e *env, start time.Time, done, failed *atomic.Int64) func() {
+	if !e.stderrTerminal {
+		return func() {}
+	}
+	quit := make(chan struct{})
+	var wg sync.WaitGroup
+	wg.Go(func() {
+		tick := time.NewTicker(250 * time.Millisecond)
+		defer tick.Stop()
+		for {
+			select {
+			case <-quit:
+				fmt.Fprint(e.stderr, "\r\x1b[K")
+				return
+			case <-tick.C:
+				n := done.Load()
+				fmt.Fprintf(e.stderr, "\r\x1b[Klctkit batch: %d records, %d with errors, %.0f records/s",
+					n, failed.Load(), float64(n)/time.Since(start).Seconds())
+			}
+		}
+	})
+	return func() {
+		close(quit)
+		wg.Wait()
+	}
+}
+
+// answer computes one record and encodes its output line. It never fails:
+// every problem becomes an error record.
+func (c *batchCmd) answer(it batchItem) (a batchAnswer) {
+	reply := batchReply{Line: it.line}
+	defer func() {
+		if r := recover(); r != nil { // a bug, not bad input: keep the run going
+			reply.Report = &rlct.Report{Error: fmt.Sprintf("internal error (please report it): %v", r)}
+		}
+		if reply.Report.Error != "" {
+			a.failed = true
+		}
+		var buf bytes.Buffer
+		enc := json.NewEncoder(&buf)
+		enc.SetEscapeHTML(false)
+		if err := enc.Encode(&reply); err != nil { // cannot happen: the id was validated
+			buf.Reset()
+			reply.ID = nil
+			reply.Report = &rlct.Report{Error: "cannot encode the answer: " + err.Error()}
+			_ = enc.Encode(&reply)
+			a.failed = true
+		}
+		a.json = buf.Bytes()
+	}()
+	reply.Report = c.solve(it, &reply.ID)
+	return a
+}
+
+// solve answers one record; it sets *id as soon as the id is known.
+func (c *batchCmd) solve(it batchItem, id *json.RawMessage) *rlct.Report {
+	if it.err != nil {
+		return &rlct.Report{Error: it.err.Error()}
+	}
+	if len(bytes.TrimSpace(it.data)) == 0 {
+		return &rlct.Report{Error: "blank line"}
+	}
+	ctx := context.Background()
+	if c.Timeout > 0 {
+		var cancel context.CancelFunc
+		ctx, cancel = context.WithTimeout(ctx, c.Timeout)
+		defer cancel()
+	}
+	rec, err := rlct.DecodeRecord(it.data)
+	*id = rec.ID
+	if err != nil {
+		return &rlct.Report{Error: err.Error()}
+	}
+	rec.Spec.Limits = monomial.Limits{MaxTerms: c.MaxTerms}
+	p, points, err := rec.Spec.Problem()
+	var r *rlct.Result
+	if err == nil {
+		r, err = rlct.BoundAt(p, points, &rlct.Options{Context: ctx})
+	}
+	if ctx.Err() != nil { // over time, whatever came back
+		return &rlct.Report{Error: "timed out after " + c.Timeout.String()}
+	}
+	if err != nil {
+		return &rlct.Report{Error: err.Error()}
+	}
+	return r.Report()
+}
+
+// errLineTooLong is returned by lineReader.next for a line over its limit.
+var errLineTooLong = errors.New("line too long")
+
+// lineReader splits its input into lines of any length up to max bytes,
+// without the "\n" or "\r\n" that ends them; a last line without "\n"
+// counts. It reads through bufio.Reader.ReadSlice, so its buffer need not
+// hold a whole line.
+type lineReader struct {
+	r     *bufio.Reader
+	max   int
+	count int // lines returned so far
+}
+
+// next returns the next line and its number (from 1), io.EOF at the end,
+// or an error wrapping errLineTooLong (with the number) for a line over
+// the limit, whose rest is skipped. When skip(number) is true the line is
+// read past and nil is returned for it, whatever its length.
+func (lr *lineReader) next(skip func(int) bool) (data []byte, number int, err error) {
+	number = lr.count + 1
+	keep := !skip(number)
+	var buf []byte
+	size := 0 // bytes read for this line, its end included
+	for {
+		chunk, err := lr.r.ReadSlice('\n')
+		size += len(chunk)
+		if keep && size <= lr.max+2 { // room for "\r\n"
+			buf = append(buf, chunk...)
+		}
+		if err == bufio.ErrBufferFull {
+			continue
+		}
+		if err == io.EOF && size == 0 {
+			return nil, lr.count, io.EOF
+		}
+		if err != nil && err != io.EOF {
+			return nil, number, err
+		}
+		break
+	}
+	lr.count = number
+	if !keep {
+		return nil, number, nil
+	}
+	buf = bytes.TrimSuffix(buf, []byte("\n"))
+	buf = bytes.TrimSuffix(buf, []byte("\r"))
+	if size > lr.max+2 || len(buf) > lr.max {
+		return nil, number, fmt.Errorf("%w: line %d is longer than the limit of %s", errLineTooLong, number, byteSize(lr.max))
+	}
+	if buf == nil {
+		buf = []byte{}
+	}
+	return buf, number, nil
+}
+
+// byteSize writes n bytes as "64 MiB", "10 KiB" or "100 bytes".
+func byteSize(n int) string {
+	switch {
+	case n >= 1<<20 && n%(1<<20) == 0:
+		return fmt.Sprintf("%d MiB", n>>20)
+	case n >= 1<<10 && n%(1<<10) == 0:
+		return fmt.Sprintf("%d KiB", n>>10)
+	}
+	return fmt.Sprintf("%d bytes", n)
+}
