@@ -418,6 +418,10 @@ type Limits struct {
 	// of a coefficient of a power, checked before expanding. Default
 	// 1,000,000 (about 300,000 decimal digits).
 	MaxBits int
+	// MaxVars bounds the number of variables of a parsed text (exponent
+	// vectors are stored densely, so memory grows with terms × variables).
+	// Default 1,000.
+	MaxVars int
 }
 
 // Default limits, used for the zero fields of a Limits.
@@ -426,6 +430,7 @@ const (
 	DefaultMaxExponent = 10_000
 	DefaultMaxOrder    = 1_000
 	DefaultMaxBits     = 1_000_000
+	DefaultMaxVars     = 1_000
 )
 
 func (l Limits) withDefaults() Limits {
@@ -440,6 +445,9 @@ func (l Limits) withDefaults() Limits {
 	}
 	if l.MaxBits <= 0 {
 		l.MaxBits = DefaultMaxBits
+	}
+	if l.MaxVars <= 0 {
+		l.MaxVars = DefaultMaxVars
 	}
 	return l
 }

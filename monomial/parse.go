@@ -190,6 +190,9 @@ func newSession(src string, cfg Config, list bool) (*session, error) {
 		return nil, fmt.Errorf("monomial: Config.Order %d exceeds the limit %d (Limits.MaxOrder)", cfg.Order, lim.MaxOrder)
 	}
 	s := &session{src: src, list: list, order: cfg.Order, lim: lim, index: map[string]int{}}
+	if len(cfg.Vars) > lim.MaxVars {
+		return nil, fmt.Errorf("monomial: Config.Vars has %d variables, more than the limit %d (Limits.MaxVars)", len(cfg.Vars), lim.MaxVars)
+	}
 	for _, v := range cfg.Vars {
 		if !IsIdentifier(v) {
 			return nil, fmt.Errorf("monomial: Config.Vars: %q is not a valid variable name", v)
@@ -213,6 +216,9 @@ func newSession(src string, cfg Config, list bool) (*session, error) {
 		}
 		seen[name] = true
 		rest = append(rest, name)
+		if len(s.vars)+len(rest) > lim.MaxVars {
+			return nil, errAtTok(t, "more than %d variables (Limits.MaxVars)", lim.MaxVars)
+		}
 	}
 	slices.SortFunc(rest, NaturalCompare)
 	for _, v := range rest {
@@ -354,19 +360,36 @@ func (p *parser) expr() (value, *Error) {
 	if err != nil {
 		return v, err
 	}
+	// Collect the summands and add them pairwise, like a merge sort, so
+	// that a long sum costs O(T log k) rather than O(T k) for k summands
+	// with T terms in all.
+	sum := []*Poly{v.p}
 	for k := p.tok().kind; k == tPlus || k == tMinus; k = p.tok().kind {
 		p.advance()
 		w, err := p.term()
 		if err != nil {
 			return w, err
 		}
-		r := value{exact: v.exact && w.exact, off: v.off, end: w.end}
-		if k == tPlus {
-			r.p = v.p.Add(w.p)
-		} else {
-			r.p = v.p.Sub(w.p)
+		if k == tMinus {
+			w.p = w.p.Neg()
 		}
-		v = r
+		v.exact = v.exact && w.exact
+		v.end = w.end
+		sum = append(sum, w.p)
+	}
+	for len(sum) > 1 {
+		half := sum[:0]
+		for i := 0; i+1 < len(sum); i += 2 {
+			half = append(half, sum[i].Add(sum[i+1]))
+		}
+		if len(sum)%2 == 1 {
+			half = append(half, sum[len(sum)-1])
+		}
+		sum = half
+	}
+	v.p = sum[0]
+	if v.p.Len() > p.lim.MaxTerms {
+		return v, p.tooMany(p.tok(), v)
 	}
 	return v, nil
 }

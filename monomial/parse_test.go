@@ -4,6 +4,7 @@ import (
 	"errors"
 	"math/rand/v2"
 	"slices"
+	"strconv"
 	"strings"
 	"testing"
 )
@@ -345,5 +346,26 @@ func TestIsIdentifier(t *testing.T) {
 		if IsIdentifier(s) != want {
 			t.Errorf("IsIdentifier(%q) = %v", s, !want)
 		}
+	}
+}
+
+func TestManyVariables(t *testing.T) {
+	var b strings.Builder
+	for i := range 1000 {
+		if i > 0 {
+			b.WriteString(" + ")
+		}
+		b.WriteString("v" + strconv.Itoa(i))
+	}
+	e, err := Parse(b.String(), Config{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if e.Poly.Len() != 1000 || e.Poly.NumVars() != 1000 {
+		t.Errorf("sum of 1000 variables: %d terms, %d variables", e.Poly.Len(), e.Poly.NumVars())
+	}
+	_, err = Parse(b.String()+" + extra", Config{})
+	if err == nil || err.Error() != "1:"+strconv.Itoa(b.Len()+4)+": more than 1000 variables (Limits.MaxVars)" {
+		t.Errorf("1001 variables: err = %v", err)
 	}
 }
