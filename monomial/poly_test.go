@@ -305,6 +305,7 @@ func TestMultinomial(t *testing.T) {
 		if p.Len() != tc.terms {
 			t.Errorf("(x1+…+x%d)^%d has %d terms, want %d", tc.k, tc.n, p.Len(), tc.terms)
 		}
+		checkCanonical(t, p)
 		fact := func(m int) *big.Int { return new(big.Int).MulRange(1, int64(max(m, 1))) }
 		for e, c := range p.All() {
 			want := fact(tc.n)
@@ -464,4 +465,39 @@ func TestOperandMismatchPanics(t *testing.T) {
 		}
 	}()
 	Variable([]string{"x"}, 0).Add(Variable([]string{"y"}, 0))
+}
+
+// TestMulPaths compares the packed-key multiplication (hash table and radix
+// sort) with the generic accumulator path and with degree truncation done
+// afterwards (two independent ways, common practice).
+func TestMulPaths(t *testing.T) {
+	r := rand.New(rand.NewPCG(13, 14))
+	vars := []string{"a", "b", "c", "d", "e", "f"}
+	for iter := range 20 {
+		p := randomPoly(r, vars, 30+r.IntN(100), 4)
+		q := randomPoly(r, vars, 30+r.IntN(100), 4)
+		fast, err := mul(p, q, -1, 0)
+		if err != nil {
+			t.Fatal(err)
+		}
+		checkCanonical(t, fast)
+		slow, err := mulGeneric(p, q, termDegrees(p), termDegrees(q), -1, 0)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if !fast.Equal(slow) {
+			t.Fatalf("iteration %d: packed and generic products differ", iter)
+		}
+		d := r.IntN(12)
+		trunc, err := mul(p, q, d, 0)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if !trunc.Equal(fast.Truncate(d)) {
+			t.Fatalf("iteration %d: truncated product differs from Truncate(%d)", iter, d)
+		}
+		if _, err := mul(p, q, -1, fast.Len()-1); err == nil && fast.Len() > 0 {
+			t.Fatalf("iteration %d: term limit %d not enforced", iter, fast.Len()-1)
+		}
+	}
 }
