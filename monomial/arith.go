@@ -461,6 +461,7 @@ type LimitError struct {
 	What  string  // what was being computed
 }
 
+// Error describes the refused computation and the limit in force.
 func (e *LimitError) Error() string {
 	switch e.Limit {
 	case "MaxExponent":

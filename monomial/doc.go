@@ -41,6 +41,7 @@
 //	number     = ( digits [ "." { digit } ] | "." digits ) [ ( "e" | "E" ) [ "+" | "-" ] digits ] .
 //	digits     = digit { digit } .
 //
+// A '#' starts a comment that runs to the end of the line.
 // So powers are right-associative and bind tighter than unary minus:
 // -x^2 = -(x^2), x^2^3 = x^(2^3), 2^-1 = 1/2. Products need an explicit
 // "*" (2x is an error). Numbers are read exactly: 0.25 = 1/4, 1e-3 = 1/1000,
