@@ -65,10 +65,13 @@ type EstimateOptions struct {
 	// (Seed, r), so equal seeds give identical results.
 	Seed uint64
 
-	// Decades is how many decades of n the fitted curve spans (default 6,
-	// at most 10). The grid runs from n·Scale = 10² to 10^(2+Decades), where
+	// Start and Decades place the grid of n on which y(n) is computed and
+	// fitted: it runs from n·Scale = 10^Start to 10^(Start+Decades), where
 	// Scale is the median of K under the prior; see EstimateThreshold.
-	Decades float64
+	// Start defaults to 2 (otherwise it must lie in (0, 6]); Decades to 6
+	// (and must lie in [1, 10]). A larger Start lessens the bias from terms
+	// of K beyond its leading ones, at the price of larger error bars for θ.
+	Start, Decades float64
 
 	// Steps is the number of slice-sampling moves made to draw each new
 	// live point (default 2·d+2 for d variables).
@@ -220,12 +223,10 @@ const (
 	defaultRuns    = 16
 	defaultDecades = 6.0
 	maxDecades     = 10.0
+	defaultStart   = 2.0
+	maxStart       = 6.0
 	minLive        = 10
 
-	// gridStart is log10 of n·Scale at the low end of the grid: at n =
-	// 100/Scale the posterior gives the typical prior point a weight e^−100
-	// relative to the zero set, so it has left the bulk of the box.
-	gridStart = 2.0
 	// pointsPerDecade is the density of the grid of n.
 	pointsPerDecade = 4
 	// stopDelta: a run may stop once every live point has n_max·K ≤
@@ -264,13 +265,19 @@ const (
 //
 // # Grid and depth
 //
-// The grid has pointsPerDecade points per decade from n = 10²/Scale to
-// 10^(2+Decades)/Scale, where Scale is the median of K under the prior: at the
-// low end the typical prior point already has posterior weight e^(−100)
-// relative to the zero set. A run stops when every live point has
-// n_max·K ≤ 0.01, or when the live points can hold at most 1% of Z(n_max);
-// the live points left are then added as removals with the live count
-// running down to one, the last one standing for the rest of the mass.
+// The grid has 4 points per decade from n = 10^Start/Scale to
+// 10^(Start+Decades)/Scale, where Scale is the median of K under the prior
+// (over the initial live points). With the default Start = 2, at the low end
+// the typical prior point already has posterior weight e^(−100) relative to
+// the zero set. The asymptotic form needs more: the posterior must sit where
+// the leading terms of K dominate. If the box is large for K (say a
+// high-degree polynomial whose value at the corners is many orders of
+// magnitude above its median), the low end of the grid is not asymptotic:
+// shrink the box or raise Start, and check that Points follow Curve.
+// A run stops when every live point has n_max·K ≤ 0.01, or when the live
+// points can hold at most 1% of Z(n_max); the live points left are then
+// added as removals with the live count running down to one, the last one
+// standing for the rest of the mass.
 //
 // # Fit
 //
@@ -341,6 +348,7 @@ type estimateConfig struct {
 	workers  int
 	seed     uint64
 	decades  float64
+	start    float64
 	steps    int
 	roundOff float64
 	progress func(done, total int)
@@ -362,7 +370,7 @@ func newEstimateConfig(k Evaluator, opt EstimateOptions) (*estimateConfig, error
 		return nil, fmt.Errorf("rlct: prior has %d exponents for K with %d variables", len(opt.Prior), d)
 	}
 	c := &estimateConfig{k: k, d: d, live: opt.Live, runs: opt.Runs, workers: opt.Workers,
-		seed: opt.Seed, decades: opt.Decades, steps: opt.Steps, roundOff: opt.RoundOff, progress: opt.Progress}
+		seed: opt.Seed, decades: opt.Decades, start: opt.Start, steps: opt.Steps, roundOff: opt.RoundOff, progress: opt.Progress}
 	for i := range d {
 		a, b := opt.Lower[i], opt.Upper[i]
 		if math.IsNaN(a) || math.IsNaN(b) || math.IsInf(a, 0) || math.IsInf(b, 0) {
@@ -407,6 +415,15 @@ func newEstimateConfig(k Evaluator, opt EstimateOptions) (*estimateConfig, error
 		c.decades = defaultDecades
 	case !(c.decades >= 1 && c.decades <= maxDecades):
 		return nil, fmt.Errorf("rlct: Decades = %g; must be between 1 and %g", c.decades, maxDecades)
+	}
+	switch {
+	case c.start == 0:
+		c.start = defaultStart
+	case !(c.start > 0 && c.start <= maxStart):
+		return nil, fmt.Errorf("rlct: Start = %g; must be between 0 and %g", c.start, maxStart)
+	}
+	if c.start+c.decades > 12 {
+		return nil, fmt.Errorf("rlct: Start + Decades = %g; at most 12 decades above Scale can be resolved in float64", c.start+c.decades)
 	}
 	switch {
 	case c.steps == 0:

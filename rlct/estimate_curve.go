@@ -153,12 +153,12 @@ func jackknifeSE(x []float64) float64 {
 }
 
 // grid returns the values of n, pointsPerDecade per decade from
-// 10^gridStart/scale over c.decades decades.
+// 10^c.start/scale over c.decades decades.
 func (c *estimateConfig) grid(scale float64) []float64 {
 	m := int(math.Round(c.decades * pointsPerDecade))
 	g := make([]float64, m+1)
 	for i := range g {
-		t := gridStart + c.decades*float64(i)/float64(m)
+		t := c.start + c.decades*float64(i)/float64(m)
 		g[i] = math.Pow(10, t) / scale
 	}
 	return g

@@ -431,6 +431,8 @@ func TestEstimateErrors(t *testing.T) {
 		{"runs", quickK, EstimateOptions{Lower: two, Upper: one, Runs: 1}, "Runs = 1"},
 		{"workers", quickK, EstimateOptions{Lower: two, Upper: one, Workers: -1}, "Workers = -1"},
 		{"decades", quickK, EstimateOptions{Lower: two, Upper: one, Decades: 20}, "Decades = 20"},
+		{"start", quickK, EstimateOptions{Lower: two, Upper: one, Start: -1}, "Start = -1"},
+		{"start+decades", quickK, EstimateOptions{Lower: two, Upper: one, Start: 5, Decades: 9}, "Start + Decades = 14"},
 		{"steps", quickK, EstimateOptions{Lower: two, Upper: one, Steps: -2}, "Steps = -2"},
 		{"roundoff", quickK, EstimateOptions{Lower: two, Upper: one, RoundOff: -1}, "RoundOff = -1"},
 		{"roundoff too big", quickK, EstimateOptions{Lower: two, Upper: one, RoundOff: 1e-8}, "100·RoundOff"},
