@@ -177,7 +177,7 @@ func draw3D(s *svgDoc, d *rlct.Description) ([]legendItem, float64) {
 	padU := (plotSize - (umax-umin)*k) / 2
 	at := func(p vec3) point {
 		u, v := flat(p)
-		return point{plotLeft + padU + (u-umin)*k, plotTop + (vmax-v)*k}
+		return point{plotLeft + padU + (u-umin)*k, plotTop + 14 + (vmax-v)*k}
 	}
 
 	// The lattice on the three coordinate planes, which lie behind
@@ -369,7 +369,7 @@ func draw3D(s *svgDoc, d *rlct.Description) ([]legendItem, float64) {
 		legendItem{"ray", "ray from the origin along τ"},
 		legendItem{"hit", sub("t", "τ", "·τ, where the ray meets P(K)")},
 	)
-	return legend, plotTop + (vmax-vmin)*k + 10
+	return legend, plotTop + 14 + (vmax-vmin)*k + 10
 }
 
 // axis returns t·e_j.

@@ -8,14 +8,18 @@ import (
 	"image/png"
 	"io"
 	"math"
+	"math/big"
+	"math/rand/v2"
 	"os"
 	"os/exec"
 	"path/filepath"
+	"slices"
 	"strconv"
 	"strings"
 	"testing"
 	"time"
 
+	"github.com/lctkit/lctkit/monomial"
 	"github.com/lctkit/lctkit/rlct"
 )
 
@@ -524,4 +528,68 @@ func FuzzDraw(f *testing.F) {
 			t.Fatalf("%q: %v", expr, err)
 		}
 	})
+}
+
+// TestFacetPolygons cross-checks the clipping that cuts the facets off at
+// the frame with the exact facets from the library, on random polynomials in
+// three variables: a compact facet comes out as the polygon of exactly its
+// own vertices, and every corner of every polygon satisfies all the facet
+// inequalities, lies in the box, and lies on its own facet.
+func TestFacetPolygons(t *testing.T) {
+	rng := rand.New(rand.NewPCG(11, 13))
+	vars := []string{"x", "y", "z"}
+	for range 60 {
+		k := monomial.Zero(vars)
+		for range 2 + rng.IntN(6) {
+			e := monomial.Exponent{2 * rng.IntN(4), 2 * rng.IntN(4), 2 * rng.IntN(4)}
+			if e[0]+e[1]+e[2] == 0 {
+				e[rng.IntN(3)] = 2
+			}
+			k = k.Add(monomial.Monomial(vars, e, big.NewRat(int64(1+rng.IntN(3)), 1)))
+		}
+		d, err := rlct.Describe(&rlct.Problem{K: k}, nil)
+		if err != nil {
+			t.Fatalf("K = %s: %v", k, err)
+		}
+		var box vec3
+		for j := range 3 {
+			for _, v := range d.Vertices {
+				box[j] = math.Max(box[j], float64(v.Exponent[j]))
+			}
+			box[j] = frameExtent(box[j])
+		}
+		for i, f := range d.Facets {
+			poly := facetPolygon(d.Facets, i, box)
+			if len(poly) < 3 {
+				t.Errorf("K = %s: facet %s has no polygon", k, f.Inequality)
+				continue
+			}
+			for _, p := range poly {
+				for j, g := range d.Facets {
+					a := vec3{floatInt(g.Normal[0]), floatInt(g.Normal[1]), floatInt(g.Normal[2])}
+					slack := a.dot(p) - floatInt(g.RHS)
+					if slack < -1e-6 || (j == i && math.Abs(slack) > 1e-6) {
+						t.Errorf("K = %s: corner %v of %s against %s: slack %g", k, p, f.Inequality, g.Inequality, slack)
+					}
+				}
+				for j := range 3 {
+					if p[j] < -1e-6 || p[j] > box[j]+1e-6 {
+						t.Errorf("K = %s: corner %v of %s outside the box %v", k, p, f.Inequality, box)
+					}
+				}
+			}
+			if len(f.Rays) > 0 {
+				continue
+			}
+			if len(poly) != len(f.Vertices) {
+				t.Errorf("K = %s: compact facet %s has %d vertices, polygon %v", k, f.Inequality, len(f.Vertices), poly)
+				continue
+			}
+			for _, v := range f.Vertices {
+				if !slices.ContainsFunc(poly, func(p vec3) bool { return p.sub(intVec3(v)).norm() < 1e-6 }) {
+					t.Errorf("K = %s: compact facet %s: vertex %v not a corner of %v", k, f.Inequality, v, poly)
+				}
+			}
+		}
+	}
 }
