@@ -209,6 +209,19 @@ var drawCases = []struct {
 		classes:   []string{"compact-face", "unbounded-face", "principal", "ray", "hit"},
 		axisNames: []string{"x", "y", "z"},
 	},
+	{
+		// The bundled example (g·v1)² + (g·v2)² + (v1·v2)²: the triangle
+		// (2,2,0), (2,0,2), (0,2,2) lies on g + v1 + v2 = 4, met at t = 4/3,
+		// so λ = 3/4 with θ = 1 (by hand). Its picture is the one to show
+		// first.
+		name:      "bundled",
+		args:      nil,
+		vertices:  []string{"v1²·v2²", "g²·v2²", "g²·v1²"},
+		result:    []string{"λ = 3/4", "θ = 1", "exact"},
+		caption:   []string{"(4/3, 4/3, 4/3)"},
+		classes:   []string{"compact-face", "unbounded-face", "principal", "ray", "hit"},
+		axisNames: []string{"g", "v1", "v2"},
+	},
 }
 
 func TestDrawPictures(t *testing.T) {
@@ -502,7 +515,9 @@ func TestDrawRenders(t *testing.T) {
 // drew by hand.
 func FuzzDraw(f *testing.F) {
 	for _, tc := range drawCases {
-		f.Add(tc.args[0])
+		if len(tc.args) > 0 {
+			f.Add(tc.args[0])
+		}
 	}
 	f.Add("x^6 + x^2*y^2*z^2 + y^6 + z^6 + x^3*y^3")
 	f.Add("(x - y)^2 + x^2*z^4")
