@@ -21,8 +21,9 @@ import (
 )
 
 // maxRecordLine is the longest input line batch accepts (64 MiB); a longer
-// line gives an error record and reading goes on at the next line.
-const maxRecordLine = 64 << 20
+// line gives an error record and reading goes on at the next line. It is a
+// variable for tests.
+var maxRecordLine = 64 << 20
 
 // batchCmd bounds many problems given as JSON lines.
 type batchCmd struct {
@@ -31,10 +32,9 @@ type batchCmd struct {
 	Shard    string        `help:"Answer only the lines L with (L−1) mod n = i, for 0 ≤ i < n (the first line belongs to shard 0/n); other lines give no output." placeholder:"i/n"`
 	Timeout  time.Duration `help:"Give up on a record after this long (0: never), e.g. 10s or 1m." placeholder:"10s"`
 	MaxTerms int           `help:"Most terms an expansion may have (0: the library default, 2,000,000)." placeholder:"N"`
+	Brief    bool          `help:"Leave out the per-face verdicts (\"nondegeneracy\"), by far the largest part of a record; λ, θ, status, reasons and the principal face stay."`
 
 	shardIndex, shardCount int
-	// maxLine overrides maxRecordLine in tests.
-	maxLine int
 }
 
 // Help is shown under the command's usage.
@@ -60,6 +60,9 @@ vanishing, a term limit, a timeout) gives {"id": …, "line": N, "error": "…"}
 with the id when it could be read, and the run goes on. A blank line (only
 white space) gives {"line": N, "error": "blank line"}. A line longer than
 64 MiB gives an error record and reading resumes after it.
+
+--brief leaves out the list of compact faces with their verdicts, which is most
+of the output for problems with many faces.
 
 Records are computed on --workers goroutines and written in input order as
 each one is ready (at most 16 per worker wait in memory), so output can be
@@ -162,11 +165,7 @@ func (c *batchCmd) Run(e *env) error {
 	if workers == 0 {
 		workers = runtime.GOMAXPROCS(0)
 	}
-	maxLine := c.maxLine
-	if maxLine == 0 {
-		maxLine = maxRecordLine
-	}
-	lines := &lineReader{r: bufio.NewReaderSize(in, 64<<10), max: maxLine}
+	lines := &lineReader{r: bufio.NewReaderSize(in, 64<<10), max: maxRecordLine}
 	next := func() (batchItem, bool, error) {
 		for {
 			skip := func(n int) bool { return (n-1)%c.shardCount != c.shardIndex }
@@ -305,7 +304,19 @@ func (c *batchCmd) solve(it batchItem, id *json.RawMessage) *rlct.Report {
 	if err != nil {
 		return &rlct.Report{Error: err.Error()}
 	}
-	return r.Report()
+	rep := r.Report()
+	if c.Brief {
+		dropFaces(rep)
+	}
+	return rep
+}
+
+// dropFaces removes the per-face verdicts from rep and its local reports.
+func dropFaces(rep *rlct.Report) {
+	rep.Nondegeneracy = nil
+	for _, l := range rep.Locals {
+		dropFaces(l)
+	}
 }
 
 // errLineTooLong is returned by lineReader.next for a line over its limit.
