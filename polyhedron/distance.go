@@ -16,6 +16,8 @@ type Hit struct {
 	Normal  []*big.Rat // supporting hyperplane Normal·x >= RHS with Normal >= 0, Normal·Point == RHS,
 	RHS     *big.Rat   //   and Normal·v >= RHS for every input point v
 	Face    *Face      // the face of P holding Point in its relative interior
+
+	pivots int // exact simplex pivots (for benchmarks)
 }
 
 // Face is a face of P = conv(Vertices()) + R^d_{>=0}.
@@ -69,7 +71,7 @@ func (n *Newton) Distance(tau []*big.Rat) (*Hit, error) {
 		x0[i] = new(big.Rat)
 	}
 	s := shoot(n.vertices, x0, tau)
-	h := &Hit{T: s.t, Slack: s.slack, Normal: s.a, RHS: s.b}
+	h := &Hit{T: s.t, Slack: s.slack, Normal: s.a, RHS: s.b, pivots: s.pivots}
 	h.Point = make([]*big.Rat, n.d)
 	for i := range h.Point {
 		h.Point[i] = new(big.Rat).Mul(s.t, tau[i])

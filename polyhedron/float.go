@@ -238,7 +238,7 @@ func shootFloat(pts [][]int, x0, tau []float64) (fs fshot, ok bool) {
 	tMinus := t.addColumn(col, -1)
 	first := tMinus + 1
 	var colPoint []int
-	inMaster := make(map[int]bool)
+	inMaster := make([]bool, len(pts))
 	addPoint := func(j int) {
 		for i := 0; i < d; i++ {
 			col[i] = float64(pts[j][i])
@@ -269,31 +269,39 @@ func shootFloat(pts [][]int, x0, tau []float64) (fs fshot, ok bool) {
 		}
 		b := y[d]
 		scale = max(scale, math.Abs(b), 1)
+		// the (up to) 2m most violated points, by bounded insertion
+		limit := 2 * m
 		cands = cands[:0]
 		for j, p := range pts {
+			if inMaster[j] {
+				continue
+			}
 			s := -b
 			for i, x := range p {
 				if x != 0 {
 					s += a[i] * float64(x)
 				}
 			}
-			if s < -1e-9*scale && !inMaster[j] {
-				cands = append(cands, cand{j, s})
+			if s >= -1e-9*scale || (len(cands) == limit && s >= cands[limit-1].v) {
+				continue
 			}
+			k := len(cands)
+			if k < limit {
+				cands = append(cands, cand{})
+			} else {
+				k = limit - 1
+			}
+			for k > 0 && cands[k-1].v > s {
+				cands[k] = cands[k-1]
+				k--
+			}
+			cands[k] = cand{j, s}
 		}
 		if len(cands) == 0 {
 			fs.a, fs.b = a, b
 			break
 		}
-		slices.SortFunc(cands, func(x, y cand) int {
-			if x.v < y.v {
-				return -1
-			} else if x.v > y.v {
-				return 1
-			}
-			return x.j - y.j
-		})
-		for _, c := range cands[:min(len(cands), 2*m)] {
+		for _, c := range cands {
 			addPoint(c.j)
 		}
 	}

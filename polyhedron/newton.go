@@ -7,6 +7,7 @@ import (
 	"math"
 	"math/big"
 	"math/bits"
+	"runtime"
 	"slices"
 	"sync"
 	"sync/atomic"
@@ -209,7 +210,7 @@ func paretoMinimal(d int, points [][]int) [][]int {
 		for _, w := range sp {
 			pop += bits.OnesCount64(w)
 		}
-		if d <= 64 && pop < 20 && 1<<pop < len(kept) {
+		if d <= 64 && pop < 20 && 16<<pop < len(kept) {
 			// enumerate the subsets of supp(p)
 			mask := sp[0]
 			for sub := mask; ; sub = (sub - 1) & mask {
@@ -256,35 +257,58 @@ func vertexFilter(d int, pts [][]int) [][]int {
 		key := bitsKey(supp[k])
 		bySupport[key] = append(bySupport[key], k)
 	}
+	// The tests are independent: run them on all cores.
+	isV := make([]bool, len(pts))
+	var next atomic.Int64
+	var wg sync.WaitGroup
+	for w := 0; w < runtime.GOMAXPROCS(0); w++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			var q []int
+			for {
+				k := int(next.Add(1) - 1)
+				if k >= len(pts) {
+					return
+				}
+				q = candidatesBelow(k, pts, supp, bySupport, d, q[:0])
+				isV[k] = isVertex(pts[k], pts, q)
+			}
+		}()
+	}
+	wg.Wait()
 	var out [][]int
 	for k, p := range pts {
-		// Q: the other points whose support lies in supp(p).
-		var q []int
-		pop := 0
-		for _, w := range supp[k] {
-			pop += bits.OnesCount64(w)
-		}
-		if d <= 64 && pop < 20 && 1<<pop < len(pts) {
-			mask := supp[k][0]
-			for sub := mask; ; sub = (sub - 1) & mask {
-				q = append(q, bySupport[bitsKey([]uint64{sub})]...)
-				if sub == 0 {
-					break
-				}
-			}
-		} else {
-			for j := range pts {
-				if subset(supp[j], supp[k]) {
-					q = append(q, j)
-				}
-			}
-		}
-		q = slices.DeleteFunc(q, func(j int) bool { return j == k })
-		if isVertex(p, pts, q) {
+		if isV[k] {
 			out = append(out, p)
 		}
 	}
 	return out
+}
+
+// candidatesBelow appends to q the indices j != k of the points whose
+// support lies in the support of pts[k].
+func candidatesBelow(k int, pts [][]int, supp [][]uint64, bySupport map[string][]int, d int, q []int) []int {
+	pop := 0
+	for _, w := range supp[k] {
+		pop += bits.OnesCount64(w)
+	}
+	if d <= 64 && pop < 20 && 16<<pop < len(pts) {
+		mask := supp[k][0]
+		for sub := mask; ; sub = (sub - 1) & mask {
+			q = append(q, bySupport[bitsKey([]uint64{sub})]...)
+			if sub == 0 {
+				break
+			}
+		}
+	} else {
+		for j := range pts {
+			if subset(supp[j], supp[k]) {
+				q = append(q, j)
+			}
+		}
+	}
+	return slices.DeleteFunc(q, func(j int) bool { return j == k })
 }
 
 func bitsKey(s []uint64) string {
@@ -349,6 +373,10 @@ func isVertex(p []int, pts [][]int, q []int) bool {
 	// if the check fails, the exact LP decides.
 	sub := make([][]int, len(q))
 	for k, j := range q {
+		if len(coords) == len(p) {
+			sub[k] = pts[j]
+			continue
+		}
 		sub[k] = make([]int, len(coords))
 		for t, i := range coords {
 			sub[k][t] = pts[j][i]
@@ -369,15 +397,36 @@ func isVertex(p []int, pts [][]int, q []int) bool {
 		if fs.t < -1e-7 && certifyInside(fs.weights, pr, sub) {
 			return false
 		}
+		if fs.t <= 1e-7 {
+			// Probably t0 = 0 (p on the boundary of the others' polyhedron):
+			// solve exactly over the float solution's points only; a
+			// restricted optimum <= 0 already proves p ∈ conv(Q) + orthant.
+			var few [][]int
+			for j := range fs.weights {
+				few = append(few, sub[j])
+			}
+			if len(few) > 0 && shoot(few, ratVec(pr), ratOnes(len(pr))).t.Sign() <= 0 {
+				return false
+			}
+		}
 	}
-	x0 := make([]*big.Rat, len(coords))
-	tau := make([]*big.Rat, len(coords))
-	for t := range coords {
-		x0[t] = new(big.Rat).SetInt64(int64(pr[t]))
-		tau[t] = big.NewRat(1, 1)
+	return shoot(sub, ratVec(pr), ratOnes(len(pr))).t.Sign() > 0
+}
+
+func ratVec(v []int) []*big.Rat {
+	out := make([]*big.Rat, len(v))
+	for i, x := range v {
+		out[i] = new(big.Rat).SetInt64(int64(x))
 	}
-	s := shoot(sub, x0, tau)
-	return s.t.Sign() > 0
+	return out
+}
+
+func ratOnes(n int) []*big.Rat {
+	out := make([]*big.Rat, n)
+	for i := range out {
+		out[i] = big.NewRat(1, 1)
+	}
+	return out
 }
 
 const certScale = 1 << 20

@@ -1,0 +1,148 @@
+package polyhedron
+
+import (
+	"math/big"
+	"os"
+	"path/filepath"
+	"strings"
+	"testing"
+
+	"github.com/lctkit/lctkit/polyhedron/internal/instances"
+)
+
+// loadInstance reads testdata/polyhedron/NAME.txt, or generates a random
+// instance that is not stored (see instances.StoredMaxN).
+func loadInstance(b *testing.B, name string) instances.Instance {
+	b.Helper()
+	f, err := os.Open(filepath.Join("..", "testdata", "polyhedron", name+".txt"))
+	if err == nil {
+		defer f.Close()
+		in, err := instances.Read(f)
+		if err != nil {
+			b.Fatal(err)
+		}
+		return in
+	}
+	for _, s := range instances.RandomSizes {
+		in := instances.Random(s[0], s[1], instances.Seed)
+		if in.Name == name {
+			return in
+		}
+	}
+	b.Fatalf("no instance %s", name)
+	return instances.Instance{}
+}
+
+func ones(d int) []*big.Rat {
+	out := make([]*big.Rat, d)
+	for i := range out {
+		out[i] = big.NewRat(1, 1)
+	}
+	return out
+}
+
+var distanceInstances = []string{
+	"lowrank_2_2_2", "lowrank_3_3_3", "lowrank_4_4_3", "lowrank_5_5_4",
+	"random_d6_n10000", "random_d10_n10000", "random_d20_n10000", "random_d20_n100000",
+	"dense_d6_n10000", "dense_d10_n10000", "degree_d8_D5",
+}
+
+// BenchmarkNewDistance measures the whole pipeline on an instance: New
+// (Pareto filter and vertices) followed by Distance along (1,…,1) with its
+// face.
+func BenchmarkNewDistance(b *testing.B) {
+	for _, name := range distanceInstances {
+		in := loadInstance(b, name)
+		b.Run(name, func(b *testing.B) {
+			b.ReportAllocs()
+			var h *Hit
+			var n *Newton
+			for b.Loop() {
+				var err error
+				n, err = New(in.D, in.Points)
+				if err != nil {
+					b.Fatal(err)
+				}
+				if h, err = n.Distance(ones(in.D)); err != nil {
+					b.Fatal(err)
+				}
+			}
+			b.ReportMetric(float64(len(n.Vertices())), "vertices")
+			b.ReportMetric(float64(h.pivots), "pivots/op")
+			b.ReportMetric(float64(h.Face.Codim(in.D)), "codim")
+		})
+	}
+}
+
+// BenchmarkDistance measures Distance alone on a built polyhedron.
+func BenchmarkDistance(b *testing.B) {
+	for _, name := range distanceInstances {
+		in := loadInstance(b, name)
+		n, err := New(in.D, in.Points)
+		if err != nil {
+			b.Fatal(err)
+		}
+		b.Run(name, func(b *testing.B) {
+			b.ReportAllocs()
+			var h *Hit
+			for b.Loop() {
+				if h, err = n.Distance(ones(in.D)); err != nil {
+					b.Fatal(err)
+				}
+			}
+			b.ReportMetric(float64(h.pivots), "pivots/op")
+		})
+	}
+}
+
+// BenchmarkFacets measures the facet enumeration (on a fresh polyhedron per
+// iteration, since facets are cached).
+func BenchmarkFacets(b *testing.B) {
+	names := []string{"lowrank_2_2_2", "lowrank_3_3_2", "lowrank_3_3_3", "lowrank_4_4_3",
+		"random_d3_n10000", "random_d6_n1000", "random_d6_n10000", "dense_d6_n1000", "dense_d6_n10000",
+		"degree_d3_D20", "degree_d5_D8", "degree_d8_D5", "random_d10_n100"}
+	if !testing.Short() {
+		names = append(names, "dense_d10_n100")
+	}
+	for _, name := range names {
+		in := loadInstance(b, name)
+		base, err := New(in.D, in.Points)
+		if err != nil {
+			b.Fatal(err)
+		}
+		b.Run(strings.TrimSuffix(name, ".txt"), func(b *testing.B) {
+			b.ReportAllocs()
+			var fs []Facet
+			for b.Loop() {
+				n := &Newton{d: base.d, minimal: base.minimal, vertices: base.vertices, limits: base.limits}
+				if fs, err = n.Facets(); err != nil {
+					b.Fatal(err)
+				}
+			}
+			b.ReportMetric(float64(len(fs)), "facets/op")
+			b.ReportMetric(float64(len(base.vertices)), "vertices")
+		})
+	}
+}
+
+// BenchmarkCompactFaces measures the compact face lattice (facets included).
+func BenchmarkCompactFaces(b *testing.B) {
+	for _, name := range []string{"lowrank_2_2_2", "lowrank_3_3_2", "random_d6_n1000", "dense_d6_n1000"} {
+		in := loadInstance(b, name)
+		base, err := New(in.D, in.Points)
+		if err != nil {
+			b.Fatal(err)
+		}
+		b.Run(name, func(b *testing.B) {
+			b.ReportAllocs()
+			var lat *Lattice
+			for b.Loop() {
+				n := &Newton{d: base.d, minimal: base.minimal, vertices: base.vertices, limits: base.limits}
+				if lat, err = n.CompactFaces(); err != nil {
+					b.Fatal(err)
+				}
+			}
+			b.ReportMetric(float64(len(lat.Faces)), "faces/op")
+		})
+	}
+}
