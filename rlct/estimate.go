@@ -7,7 +7,7 @@
 //
 // on a box W with the monomial prior φ(w) = ∏|w_i|^(h_i) (Watanabe 2009,
 // Algebraic Geometry and Statistical Learning Theory, Cambridge University
-// Press, chapters 2 and 6). Its logarithmic derivative is the curve
+// Press; from memory). Its logarithmic derivative is the curve
 //
 //	y(n) := n·E_n[K] = −d log Z / d log n,
 //
@@ -40,7 +40,9 @@ type EstimateOptions struct {
 	// Lower and Upper give the box W, per variable, in the translated
 	// coordinates in which the point under study is the origin. Usually
 	// Lower[i] < 0 < Upper[i], but a box with the origin on its boundary (or
-	// away from it) is allowed: the estimate is then for that box.
+	// away from it) is allowed. The estimate is always for the whole box:
+	// if K vanishes elsewhere in it too, it is the smallest λ over those
+	// zeros (with the largest θ among those that attain it).
 	Lower, Upper []float64
 
 	// Prior holds the exponents h_i of the prior φ(w) = ∏|w_i|^(h_i); each
@@ -244,7 +246,9 @@ const (
 // # Method
 //
 // Nested sampling (Skilling 2006, "Nested sampling for general Bayesian
-// computation", Bayesian Analysis 1(4):833–860) keeps Live points drawn from
+// computation", Bayesian Analysis 1(4):833–860; first presented in Skilling
+// 2004, "Nested sampling", AIP Conference Proceedings 735:395–405; from
+// memory) keeps Live points drawn from
 // the prior restricted to {K < ε}, repeatedly removes the one with the largest
 // K and lowers ε to it, and replaces it by a new point drawn from the prior
 // restricted to the new {K < ε}. After i removals the prior mass of {K < ε} has
