@@ -115,10 +115,11 @@ func drawPicture(d *rlct.Description, title string) string {
 	var body svgDoc
 	var legend []legendItem
 	var bottom float64 // the lowest point of the plot and its labels
+	var stretched bool // the axes have different scales
 	if len(d.Vars) == 2 {
-		legend, bottom = draw2D(&body, d)
+		legend, bottom, stretched = draw2D(&body, d)
 	} else {
-		legend, bottom = draw3D(&body, d)
+		legend, bottom, stretched = draw3D(&body, d)
 	}
 
 	var s svgDoc
@@ -127,7 +128,7 @@ func drawPicture(d *rlct.Description, title string) string {
 	rows := (len(legend) + 1) / 2
 	y += float64(rows*legendRow) + 16
 	captionTop := y
-	caption := captionLines(d)
+	caption := captionLines(d, stretched)
 	height := captionTop + float64(len(caption)*captionLine) + 12
 
 	s.printf(`<svg xmlns="http://www.w3.org/2000/svg" width="%d" height="%s" viewBox="0 0 %d %s" font-family="%s">`+"\n",
@@ -246,8 +247,9 @@ type captionText struct {
 	attrs, markup string
 }
 
-// captionLines states λ, θ, the status and where they come from.
-func captionLines(d *rlct.Description) []captionText {
+// captionLines states λ, θ, the status and where they come from, and warns
+// when the axes are drawn to different scales.
+func captionLines(d *rlct.Description, stretched bool) []captionText {
 	status := "exact"
 	if d.Status != rlct.Exact {
 		status = "upper bound"
@@ -266,6 +268,9 @@ func captionLines(d *rlct.Description) []captionText {
 		why = "Exact: every compact face is nondegenerate (face polynomial without zeros in the real torus)."
 	} else {
 		why = "Upper bound only: " + upperBoundWhy(d) + "; see lctkit faces for the details."
+	}
+	if stretched {
+		why += " The axes are drawn to different scales."
 	}
 	for _, l := range wrap(why, 74) {
 		lines = append(lines, captionText{plain, esc(l)})

@@ -19,7 +19,9 @@ func frameExtent(m float64) float64 {
 
 // draw2D draws the Newton polygon of K in two variables into the plot square
 // and returns the legend.
-func draw2D(s *svgDoc, d *rlct.Description) ([]legendItem, float64) {
+// It also returns the lowest page coordinate used and whether the axes have
+// different scales.
+func draw2D(s *svgDoc, d *rlct.Description) ([]legendItem, float64, bool) {
 	hit := []float64{float(d.Hit[0]), float(d.Hit[1])}
 	mx, my := hit[0], hit[1]
 	for _, v := range d.Vertices {
@@ -27,7 +29,8 @@ func draw2D(s *svgDoc, d *rlct.Description) ([]legendItem, float64) {
 		my = math.Max(my, float64(v.Exponent[1]))
 	}
 	X, Y := frameExtent(mx), frameExtent(my)
-	if math.Max(X, Y) <= 3*math.Min(X, Y) {
+	stretched := !sameScale(X, Y)
+	if !stretched {
 		// One scale for both axes keeps the lattice square and the
 		// direction of τ true.
 		X, Y = math.Max(X, Y), math.Max(X, Y)
@@ -173,7 +176,14 @@ func draw2D(s *svgDoc, d *rlct.Description) ([]legendItem, float64) {
 		legendItem{"ray", "ray from the origin along τ"},
 		legendItem{"hit", sub("t", "τ", "·τ, where the ray meets P(K)")},
 	)
-	return legend, bottom + 42
+	return legend, bottom + 42, stretched
+}
+
+// sameScale reports whether axes reaching these extents are drawn to one
+// scale: unless the longest is more than three times the shortest, which
+// would squeeze the others into a sliver.
+func sameScale(extents ...float64) bool {
+	return slices.Max(extents) <= 3*slices.Min(extents)
 }
 
 // distToSegment is the distance from p to the segment ab.

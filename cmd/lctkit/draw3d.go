@@ -39,8 +39,10 @@ func intVec3(e []int) vec3 { return vec3{float64(e[0]), float64(e[1]), float64(e
 const obliqueX, obliqueY = 0.42, 0.30
 
 // viewDepth grows toward the viewer, who looks along −(1, 0.42, 0.30): the
-// direction the projection collapses.
-func viewDepth(p vec3) float64 { return p.dot(vec3{1, obliqueX, obliqueY}) }
+// direction the projection collapses, after each axis is stretched.
+func viewDepth(p, stretch vec3) float64 {
+	return p[0]*stretch[0] + obliqueX*p[1]*stretch[1] + obliqueY*p[2]*stretch[2]
+}
 
 // lightDirection sets the tone of a face from its normal: faces whose
 // normals point along it are drawn darkest. It is chosen so that the
@@ -148,7 +150,9 @@ func onFrame(p, box vec3) (int, bool) {
 
 // draw3D draws the Newton polyhedron of K in three variables, cut off by a
 // box, in the fixed oblique projection, and returns the legend.
-func draw3D(s *svgDoc, d *rlct.Description) ([]legendItem, float64) {
+// It also returns the lowest page coordinate used and whether the axes have
+// different scales.
+func draw3D(s *svgDoc, d *rlct.Description) ([]legendItem, float64, bool) {
 	hit := vec3{float(d.Hit[0]), float(d.Hit[1]), float(d.Hit[2])}
 	var box vec3
 	for j := range 3 {
@@ -160,7 +164,20 @@ func draw3D(s *svgDoc, d *rlct.Description) ([]legendItem, float64) {
 	}
 
 	// Fit the box and the axis arrows into the plot square.
-	flat := func(p vec3) (float64, float64) { return p[1] - obliqueX*p[0], p[2] - obliqueY*p[0] }
+	// Each axis is stretched to the longest when their lengths differ too
+	// much; the map is linear, so faces stay flat and incidences hold.
+	stretch := vec3{1, 1, 1}
+	stretched := !sameScale(box[:]...)
+	if stretched {
+		longest := slices.Max(box[:])
+		for j := range 3 {
+			stretch[j] = longest / box[j]
+		}
+	}
+	flat := func(p vec3) (float64, float64) {
+		p = vec3{p[0] * stretch[0], p[1] * stretch[1], p[2] * stretch[2]}
+		return p[1] - obliqueX*p[0], p[2] - obliqueY*p[0]
+	}
 	umin, umax, vmin, vmax := math.Inf(1), math.Inf(-1), math.Inf(1), math.Inf(-1)
 	for c := range 8 {
 		var p vec3
@@ -184,9 +201,10 @@ func draw3D(s *svgDoc, d *rlct.Description) ([]legendItem, float64) {
 	// everything else.
 	s.printf(`<g class="grid" stroke="%s" stroke-width="1">`+"\n", colorGrid)
 	for j := range 3 {
+		// Grid lines at least 9 px apart.
 		step := 1
 		if unit := at(vec3{}).dist(at(axis(j, 1))); unit < 9 {
-			step = niceStep(box[j], 40)
+			step = niceStep(box[j], max(1, int(unit*box[j]/9)))
 		}
 		for i := step; float64(i) <= box[j]; i += step {
 			for _, o := range []int{(j + 1) % 3, (j + 2) % 3} {
@@ -238,7 +256,7 @@ func draw3D(s *svgDoc, d *rlct.Description) ([]legendItem, float64) {
 		for _, p := range poly {
 			c = c.add(p)
 		}
-		polys = append(polys, facePoly{i, poly, len(f.Rays) == 0, viewDepth(c.scale(1 / float64(len(poly))))})
+		polys = append(polys, facePoly{i, poly, len(f.Rays) == 0, viewDepth(c.scale(1/float64(len(poly))), stretch)})
 		byKey[faceKey(f.Vertices, f.Rays)] = poly
 	}
 	sort.SliceStable(polys, func(a, b int) bool { return polys[a].depth < polys[b].depth })
@@ -369,7 +387,7 @@ func draw3D(s *svgDoc, d *rlct.Description) ([]legendItem, float64) {
 		legendItem{"ray", "ray from the origin along τ"},
 		legendItem{"hit", sub("t", "τ", "·τ, where the ray meets P(K)")},
 	)
-	return legend, plotTop + 14 + (vmax-vmin)*k + 10
+	return legend, plotTop + 14 + (vmax-vmin)*k + 10, stretched
 }
 
 // axis returns t·e_j.

@@ -608,3 +608,27 @@ func TestFacetPolygons(t *testing.T) {
 		}
 	}
 }
+
+// TestDrawStretchedAxes checks that axes of very different lengths are drawn
+// to different scales, and that the caption says so.
+func TestDrawStretchedAxes(t *testing.T) {
+	tests := []struct {
+		expr      string
+		stretched bool
+	}{
+		{"x^4 + y^6", false},
+		{"x^20 + y^4", true},
+		{"x^2 + y^2 + z^2", false},
+		{"x^30 + y^2 + z^2", true},
+	}
+	for _, tt := range tests {
+		out, errOut, code := runCLI(t, "", "draw", "-o", "-", tt.expr)
+		if code != exitOK {
+			t.Fatalf("%s: exit %d: %s", tt.expr, code, errOut)
+		}
+		caption := strings.Join(texts(byClass(parseSVG(t, []byte(out)), "caption-text")), " ")
+		if got := strings.Contains(caption, "different scales"); got != tt.stretched {
+			t.Errorf("%s: caption %q, want stretched %v", tt.expr, caption, tt.stretched)
+		}
+	}
+}
