@@ -167,29 +167,48 @@ func dominates(q, p []int) bool { // q <= p coordinatewise
 	return true
 }
 
-func sum64(p []int) int64 {
-	var s int64
+// sum128 is the exact coordinate sum of a nonnegative point as a 128-bit
+// number (hi, lo), so that huge exponents cannot overflow.
+type sum128 struct{ hi, lo uint64 }
+
+func sumOf(p []int) sum128 {
+	var s sum128
 	for _, v := range p {
-		s += int64(v)
+		var c uint64
+		s.lo, c = bits.Add64(s.lo, uint64(v), 0)
+		s.hi += c
 	}
 	return s
+}
+
+func (s sum128) cmp(t sum128) int {
+	switch {
+	case s.hi != t.hi:
+		if s.hi < t.hi {
+			return -1
+		}
+		return 1
+	case s.lo != t.lo:
+		if s.lo < t.lo {
+			return -1
+		}
+		return 1
+	}
+	return 0
 }
 
 // paretoMinimal returns the distinct points not dominated by another point,
 // sorted lexicographically.
 func paretoMinimal(d int, points [][]int) [][]int {
 	order := make([]int, len(points))
-	sums := make([]int64, len(points))
+	sums := make([]sum128, len(points))
 	for k := range order {
 		order[k] = k
-		sums[k] = sum64(points[k])
+		sums[k] = sumOf(points[k])
 	}
 	slices.SortFunc(order, func(a, b int) int {
-		if sums[a] != sums[b] {
-			if sums[a] < sums[b] {
-				return -1
-			}
-			return 1
+		if c := sums[a].cmp(sums[b]); c != 0 {
+			return c
 		}
 		return slices.Compare(points[a], points[b])
 	})
@@ -337,10 +356,10 @@ func isVertex(p []int, pts [][]int, q []int) bool {
 	// Sufficient tests: p is the unique minimiser of a linear functional with
 	// positive weights (coordinate sum; lexicographic orders starting at
 	// each coordinate, which are limits of positive weights).
-	ps := sum64(p)
+	ps := sumOf(p)
 	unique := true
 	for _, j := range q {
-		if sum64(pts[j]) <= ps {
+		if sumOf(pts[j]).cmp(ps) <= 0 {
 			unique = false
 			break
 		}
