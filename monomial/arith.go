@@ -409,7 +409,8 @@ type Limits struct {
 	// results while parsing). Default 2,000,000.
 	MaxTerms int
 	// MaxExponent bounds the exponent n of a power p^n, checked before any
-	// work. Default 10,000.
+	// work (for a rational exponent p/q in an expression, both |p| and q).
+	// Default 10,000.
 	MaxExponent int
 	// MaxOrder bounds Config.Order, the total degree of truncated series.
 	// Default 1,000.
