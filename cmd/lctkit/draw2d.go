@@ -5,6 +5,7 @@ import (
 	"math"
 	"slices"
 	"strings"
+	"unicode/utf8"
 
 	"github.com/lctkit/lctkit/rlct"
 )
@@ -134,29 +135,32 @@ func draw2D(s *svgDoc, d *rlct.Description) ([]legendItem, float64, bool) {
 		s.circle(at2(at, v.Exponent), 4.5, `class="vertex" `+vertexStyle)
 	}
 	s.diamond(h, 8, `class="hit" `+hitStyle)
-	hitLabel(s, h, right)
-	for _, v := range d.Vertices {
+	labels := &labeller{}
+	// Keep clear of the tick labels.
+	labels.reserve([4]float64{0, top, left - 2, bottom + 30})
+	labels.reserve([4]float64{left, bottom + 2, pageWidth, bottom + 30})
+	hitLabel(s, h, labels)
+	labelVertices(s, d, labels, func(v rlct.VertexReport) []labelSpot {
 		p := at2(at, v.Exponent)
-		switch {
-		case v.Exponent[0] == 0 || v.Exponent[1] == 0:
+		upperRight := labelSpot{point{p.x + 9, p.y - 9}, "start"}
+		left := labelSpot{point{p.x - 17, p.y + 5}, "end"}
+		below := labelSpot{point{p.x, p.y + 24}, "middle"}
+		lowerLeft := labelSpot{point{p.x - 9, p.y + 18}, "end"}
+		if v.Exponent[0] == 0 || v.Exponent[1] == 0 {
 			// On an axis the edges leave along the axis and away from
 			// it, so the upper right is free (inside P(K)).
-			s.text(point{p.x + 9, p.y - 9}, `class="vertex-label" font-size="16" `+halo, monomialLabel(d.Vars, v.Exponent))
-		default:
-			// Below the boundary, outside P(K); beside the ray when it
-			// passes close by.
-			ray := point{h.x, h.y}
-			pos, anchor := point{p.x - 9, p.y + 18}, "end"
-			if distToSegment(p, at(0, 0), ray) < 30 {
-				if math.Abs(ray.x-at(0, 0).x) > math.Abs(ray.y-at(0, 0).y) {
-					pos, anchor = point{p.x, p.y + 24}, "middle" // a flat ray: below
-				} else {
-					pos, anchor = point{p.x - 17, p.y + 5}, "end" // a steep ray: to the left
-				}
-			}
-			s.text(pos, `class="vertex-label" font-size="16" text-anchor="`+anchor+`" `+halo, monomialLabel(d.Vars, v.Exponent))
+			return []labelSpot{upperRight, left, below}
 		}
-	}
+		// Below the boundary, outside P(K); beside the ray when it passes
+		// close by.
+		if distToSegment(p, at(0, 0), h) < 30 {
+			if math.Abs(h.x-at(0, 0).x) > math.Abs(h.y-at(0, 0).y) {
+				return []labelSpot{below, left, upperRight} // a flat ray
+			}
+			return []labelSpot{left, below, upperRight} // a steep ray
+		}
+		return []labelSpot{lowerLeft, left, below, upperRight}
+	})
 
 	// Axis titles.
 	s.text(point{left + size/2, bottom + 42}, `class="axis-label" text-anchor="middle" font-size="15"`, "exponent of "+axisName(d, 0))
@@ -165,7 +169,7 @@ func draw2D(s *svgDoc, d *rlct.Description) ([]legendItem, float64, bool) {
 	legend := []legendItem{
 		{"region", "Newton polyhedron P(K)"},
 		{"continues", "P(K) continues beyond the frame"},
-		{"vertex", "vertex (label: its monomial)"},
+		{"vertex", vertexLegend(labels)},
 	}
 	if support > 0 {
 		legend = append(legend, legendItem{"support", esc(supportLabel(d))})
@@ -247,14 +251,93 @@ func principalLegend(d *rlct.Description) legendItem {
 }
 
 // hitLabel writes t_τ·τ beside the hit point, to the upper right unless that
-// runs past the page.
-func hitLabel(s *svgDoc, h point, right float64) {
+// runs past the page, and reserves its place.
+func hitLabel(s *svgDoc, h point, labels *labeller) {
 	const width = 40
-	if h.x+12+width < pageWidth-4 {
-		s.markup(point{h.x + 12, h.y - 12}, `class="hit-label" font-size="16" `+halo, sub("t", "τ", "·τ"))
-	} else {
-		s.markup(point{h.x - 12, h.y - 12}, `class="hit-label" font-size="16" text-anchor="end" `+halo, sub("t", "τ", "·τ"))
+	pos, anchor := point{h.x + 12, h.y - 12}, "start"
+	if h.x+12+width >= pageWidth-4 {
+		pos, anchor = point{h.x - 12, h.y - 12}, "end"
 	}
+	labels.reserve(textBox(pos, anchor, "tτ·τ", 16))
+	s.markup(pos, `class="hit-label" font-size="16" text-anchor="`+anchor+`" `+halo, sub("t", "τ", "·τ"))
+}
+
+// labeller keeps labels from overlapping, judging their extents from an
+// estimate of the text width.
+type labeller struct {
+	boxes   [][4]float64 // x0, y0, x1, y1
+	skipped int
+}
+
+// textBox estimates the extent of a label of the font size at p.
+func textBox(p point, anchor, text string, size float64) [4]float64 {
+	w := float64(utf8.RuneCountInString(text)) * size * 0.62
+	x0 := p.x
+	switch anchor {
+	case "end":
+		x0 -= w
+	case "middle":
+		x0 -= w / 2
+	}
+	return [4]float64{x0, p.y - 0.8*size, x0 + w, p.y + 0.25*size}
+}
+
+func (l *labeller) reserve(b [4]float64) { l.boxes = append(l.boxes, b) }
+
+// fits reports whether b overlaps no label placed so far.
+func (l *labeller) fits(b [4]float64) bool {
+	for _, o := range l.boxes {
+		if b[0] < o[2] && o[0] < b[2] && b[1] < o[3] && o[1] < b[3] {
+			return false
+		}
+	}
+	return true
+}
+
+// labelSpot is a place for a label: the text position and its anchor.
+type labelSpot struct {
+	pos    point
+	anchor string
+}
+
+// labelVertices writes the monomial of each vertex at the first of the
+// spots from place that overlaps no label placed so far, those of the
+// principal face first; a label with no free spot is left out.
+func labelVertices(s *svgDoc, d *rlct.Description, labels *labeller, place func(rlct.VertexReport) []labelSpot) {
+	principal := func(v rlct.VertexReport) bool {
+		return slices.ContainsFunc(d.Principal.Vertices, func(w []int) bool { return slices.Equal(v.Exponent, w) })
+	}
+	for _, first := range []bool{true, false} {
+		for _, v := range d.Vertices {
+			if principal(v) != first {
+				continue
+			}
+			text := monomialLabel(d.Vars, v.Exponent)
+			placed := false
+			for _, spot := range place(v) {
+				b := textBox(spot.pos, spot.anchor, text, 16)
+				if !labels.fits(b) {
+					continue
+				}
+				labels.reserve(b)
+				s.text(spot.pos, `class="vertex-label" font-size="16" text-anchor="`+spot.anchor+`" `+halo, text)
+				placed = true
+				break
+			}
+			if !placed {
+				labels.skipped++
+			}
+		}
+	}
+}
+
+// vertexLegend explains the vertex marks, and says when labels were left
+// out for room.
+func vertexLegend(labels *labeller) string {
+	if labels.skipped > 0 {
+		return "vertex; some labels left out"
+	}
+	return "vertex (label: its monomial)"
 }
 
 // axisName is the variable of axis i, shifted when the point is not 0.

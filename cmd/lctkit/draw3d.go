@@ -354,8 +354,10 @@ func draw3D(s *svgDoc, d *rlct.Description) ([]legendItem, float64, bool) {
 	}
 	h := at(hit)
 	s.diamond(h, 8, `class="hit" `+hitStyle)
-	hitLabel(s, h, plotLeft+plotSize)
-	for _, v := range d.Vertices {
+	labels := &labeller{}
+	hitLabel(s, h, labels)
+	labelVertices(s, d, labels, func(v rlct.VertexReport) []labelSpot {
+		// Away from the middle of the vertices, else around the vertex.
 		p := at(intVec3(v.Exponent))
 		dx, dy := p.x-centroid.x, p.y-centroid.y
 		if n := math.Hypot(dx, dy); n > 1 {
@@ -369,8 +371,14 @@ func draw3D(s *svgDoc, d *rlct.Description) ([]legendItem, float64, bool) {
 		} else if dx < 0.3 {
 			anchor = "middle"
 		}
-		s.text(point{p.x + 14*dx, p.y + 14*dy + 5 + 4*dy}, `class="vertex-label" font-size="16" text-anchor="`+anchor+`" `+halo, monomialLabel(d.Vars, v.Exponent))
-	}
+		return []labelSpot{
+			{point{p.x + 14*dx, p.y + 14*dy + 5 + 4*dy}, anchor},
+			{point{p.x - 10, p.y - 8}, "end"},
+			{point{p.x + 10, p.y - 8}, "start"},
+			{point{p.x - 10, p.y + 18}, "end"},
+			{point{p.x + 10, p.y + 18}, "start"},
+		}
+	})
 
 	legend := []legendItem{}
 	if compactFaces > 0 {
@@ -379,7 +387,7 @@ func draw3D(s *svgDoc, d *rlct.Description) ([]legendItem, float64, bool) {
 	legend = append(legend,
 		legendItem{"unbounded-face", "unbounded face (cut at the frame)"},
 		legendItem{"continues", "unbounded edge (continues)"},
-		legendItem{"vertex", "vertex (label: its monomial)"},
+		legendItem{"vertex", vertexLegend(labels)},
 		principalLegend(d),
 	)
 	legend = append(legend, flagged...)

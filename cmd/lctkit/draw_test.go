@@ -357,6 +357,8 @@ func TestDrawMore(t *testing.T) {
 		}
 		els := parseSVG(t, []byte(out))
 		labels := texts(byClass(els, "vertex-label"))
+		slices.Sort(labels)
+		slices.Sort(tt.vertices)
 		if strings.Join(labels, "|") != strings.Join(tt.vertices, "|") {
 			t.Errorf("%v: vertex labels %q, want %q", tt.args, labels, tt.vertices)
 		}
@@ -630,5 +632,30 @@ func TestDrawStretchedAxes(t *testing.T) {
 		if got := strings.Contains(caption, "different scales"); got != tt.stretched {
 			t.Errorf("%s: caption %q, want stretched %v", tt.expr, caption, tt.stretched)
 		}
+	}
+}
+
+// TestDrawCrowdedLabels checks that labels that would overlap are left out,
+// the principal face's first, and that the legend says so.
+func TestDrawCrowdedLabels(t *testing.T) {
+	var terms []string
+	for k := range 13 {
+		terms = append(terms, fmt.Sprintf("x^%d*y^%d", 2*k, 2*(12-k)*(12-k)))
+	}
+	out, errOut, code := runCLI(t, "", "draw", "-o", "-", strings.Join(terms, " + "))
+	if code != exitOK {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	els := parseSVG(t, []byte(out))
+	labels := texts(byClass(els, "vertex-label"))
+	if n := len(byClass(els, "vertex")); n != 13 || len(labels) >= n || len(labels) < 8 {
+		t.Errorf("%d vertices, %d labels: %q", n, len(labels), labels)
+	}
+	// The ray (t, t) meets the vertex (18, 18): x¹⁸y¹⁸ is labelled first.
+	if len(labels) == 0 || labels[0] != "x¹⁸y¹⁸" {
+		t.Errorf("labels %q do not start with the principal vertex", labels)
+	}
+	if !strings.Contains(strings.Join(texts(byClass(els, "legend-label")), "|"), "some labels left out") {
+		t.Errorf("the legend does not say that labels were left out")
 	}
 }
