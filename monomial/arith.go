@@ -7,6 +7,7 @@ import (
 	"math/big"
 	"math/bits"
 	"slices"
+	"sort"
 	"sync"
 )
 
@@ -96,19 +97,61 @@ func (p *Poly) scale(c coef) *Poly {
 // mistake otherwise; Mul panics).
 func (p *Poly) Mul(q *Poly) *Poly {
 	sameVars(p, q)
-	r, err := mul(p, q, -1, 0)
+	r, err := mul(p, q, -1, nil)
 	if err != nil {
 		panic(err) // unreachable: no limits were given
 	}
 	return r
 }
 
-// errTooManyTerms is returned by mul when the product exceeds the term limit.
-var errTooManyTerms = errors.New("monomial: too many terms")
+// Errors of a guarded computation.
+var (
+	errTooManyTerms = errors.New("monomial: too many terms")
+	errTooMuchWork  = errors.New("monomial: too much work")
+)
+
+// guard carries the limits of a computation through its steps: the term
+// limit of every intermediate result, and a budget of work units that the
+// steps draw from. A nil *guard means no limits.
+type guard struct {
+	maxTerms int
+	work     float64 // units left
+}
+
+func newGuard(lim Limits) *guard {
+	return &guard{maxTerms: lim.MaxTerms, work: float64(lim.MaxWork)}
+}
+
+// charge takes units from the budget, or reports that they exceed it.
+func (g *guard) charge(units float64) error {
+	if g == nil {
+		return nil
+	}
+	if units > g.work {
+		return errTooMuchWork
+	}
+	g.work -= units
+	return nil
+}
+
+func (g *guard) tooMany(n int) bool { return g != nil && g.maxTerms > 0 && n > g.maxTerms }
+
+// pairCost is the work of one term-by-term product of coefficients of the
+// given sizes in bits: one unit per 64-bit word, at least one.
+func pairCost(bitsP, bitsQ int) float64 { return 1 + float64(bitsP+bitsQ)/64 }
+
+func maxBitLen(p *Poly) int {
+	m := 0
+	for _, c := range p.coefs {
+		m = max(m, c.bitLen())
+	}
+	return m
+}
 
 // mul returns p·q without the terms of total degree > maxDeg (when maxDeg >=
-// 0), failing with errTooManyTerms as soon as more than maxTerms distinct
-// exponents appear (when maxTerms > 0).
+// 0). With a guard it charges the work before starting (errTooMuchWork) and
+// fails with errTooManyTerms as soon as more than g.maxTerms distinct
+// exponents appear.
 //
 // The fast path packs each exponent vector into one uint64 with a bit field
 // per variable wide enough for the largest exponent of the product, with the
@@ -116,7 +159,7 @@ var errTooManyTerms = errors.New("monomial: too many terms")
 // two terms is the sum of their keys, and comparing keys compares exponents
 // lexicographically. Products are accumulated in an open-addressing hash
 // table from key to term, and the terms are sorted once at the end.
-func mul(p, q *Poly, maxDeg, maxTerms int) (*Poly, error) {
+func mul(p, q *Poly, maxDeg int, g *guard) (*Poly, error) {
 	n := len(p.vars)
 	if len(p.coefs) == 0 || len(q.coefs) == 0 {
 		return &Poly{vars: p.vars}, nil
@@ -125,6 +168,11 @@ func mul(p, q *Poly, maxDeg, maxTerms int) (*Poly, error) {
 		p, q = q, p // outer loop over the longer polynomial
 	}
 	degP, degQ := termDegrees(p), termDegrees(q)
+	if g != nil {
+		if err := g.charge(float64(countPairs(degP, degQ, maxDeg)) * pairCost(maxBitLen(p), maxBitLen(q))); err != nil {
+			return nil, err
+		}
+	}
 	maxP, maxQ := maxExponents(p), maxExponents(q)
 	width := make([]uint, n)
 	total := uint(0)
@@ -137,7 +185,7 @@ func mul(p, q *Poly, maxDeg, maxTerms int) (*Poly, error) {
 		total += width[i]
 	}
 	if total > 64 {
-		return mulGeneric(p, q, degP, degQ, maxDeg, maxTerms)
+		return mulGeneric(p, q, degP, degQ, maxDeg, g)
 	}
 	shift := make([]uint, n)
 	s := total
@@ -180,7 +228,7 @@ func mul(p, q *Poly, maxDeg, maxTerms int) (*Poly, error) {
 			slot := t.slot(kp + keyQ[j])
 			t.coefs[slot] = t.coefs[slot].addMul(cp, q.coefs[j])
 		}
-		if maxTerms > 0 && len(t.keys) > maxTerms {
+		if g.tooMany(len(t.keys)) {
 			return nil, errTooManyTerms
 		}
 	}
@@ -277,7 +325,7 @@ func radixSortDesc(a []sortPair, nbits uint) {
 }
 
 // mulGeneric is mul for exponents too wide to pack into 64 bits.
-func mulGeneric(p, q *Poly, degP, degQ []int, maxDeg, maxTerms int) (*Poly, error) {
+func mulGeneric(p, q *Poly, degP, degQ []int, maxDeg int, g *guard) (*Poly, error) {
 	n := len(p.vars)
 	acc := newAccumulator(p.vars)
 	e := make([]int, n)
@@ -295,11 +343,26 @@ func mulGeneric(p, q *Poly, degP, degQ []int, maxDeg, maxTerms int) (*Poly, erro
 			}
 			acc.add(e, p.coefs[i].mul(q.coefs[j]))
 		}
-		if maxTerms > 0 && acc.len() > maxTerms {
+		if g.tooMany(acc.len()) {
 			return nil, errTooManyTerms
 		}
 	}
 	return acc.poly(), nil
+}
+
+// countPairs returns the number of term pairs whose degrees sum to at most
+// maxDeg (all pairs when maxDeg < 0); degQ is sorted descending.
+func countPairs(degP, degQ []int, maxDeg int) int {
+	if maxDeg < 0 {
+		return len(degP) * len(degQ)
+	}
+	n := 0
+	for _, d := range degP {
+		// The terms of q with degree <= maxDeg - d form a suffix.
+		lim := maxDeg - d
+		n += len(degQ) - sort.Search(len(degQ), func(j int) bool { return degQ[j] <= lim })
+	}
+	return n
 }
 
 func termDegrees(p *Poly) []int {
@@ -423,6 +486,12 @@ type Limits struct {
 	// vectors are stored densely, so memory grows with terms × variables).
 	// Default 1,000.
 	MaxVars int
+	// MaxWork bounds the work of one Pow or one Parse/ParseList call, in
+	// term-by-term coefficient products weighted by coefficient size (one
+	// unit per 64-bit word). Powers are estimated and refused before any
+	// work; other steps are charged before they start. Default 500,000,000
+	// (minutes of work at most).
+	MaxWork int
 }
 
 // Default limits, used for the zero fields of a Limits.
@@ -432,6 +501,7 @@ const (
 	DefaultMaxOrder    = 1_000
 	DefaultMaxBits     = 1_000_000
 	DefaultMaxVars     = 1_000
+	DefaultMaxWork     = 500_000_000
 )
 
 func (l Limits) withDefaults() Limits {
@@ -449,6 +519,9 @@ func (l Limits) withDefaults() Limits {
 	}
 	if l.MaxVars <= 0 {
 		l.MaxVars = DefaultMaxVars
+	}
+	if l.MaxWork <= 0 {
+		l.MaxWork = DefaultMaxWork
 	}
 	return l
 }
@@ -471,6 +544,8 @@ func (e *LimitError) Error() string {
 		return fmt.Sprintf("monomial: %s would have up to %.3g terms, more than the limit %d (Limits.MaxTerms)", e.What, e.Value, e.Max)
 	case "MaxBits":
 		return fmt.Sprintf("monomial: %s would have coefficients of about %.3g bits, more than the limit %d (Limits.MaxBits)", e.What, e.Value, e.Max)
+	case "MaxWork":
+		return fmt.Sprintf("monomial: %s would take about %.3g units of work, more than the limit %d (Limits.MaxWork)", e.What, e.Value, e.Max)
 	case "MaxOrder":
 		return fmt.Sprintf("monomial: %s: order %.0f exceeds the limit %d (Limits.MaxOrder)", e.What, e.Value, e.Max)
 	}
@@ -498,16 +573,19 @@ func (p *Poly) Pow(n int, lim Limits) (*Poly, error) {
 	if est := p.powBitsBound(n); est > float64(lim.MaxBits) {
 		return nil, &LimitError{Limit: "MaxBits", Value: est, Max: lim.MaxBits, What: fmt.Sprintf("power ^%d", n)}
 	}
+	if est := p.powWork(n); est > float64(lim.MaxWork) {
+		return nil, &LimitError{Limit: "MaxWork", Value: est, Max: lim.MaxWork, What: fmt.Sprintf("power ^%d of a %d-term polynomial", n, p.Len())}
+	}
 	if n > 0 && len(p.coefs) > 0 {
 		if md := slices.Max(maxExponents(p)); md > 0 && n > (1<<62)/md {
 			return nil, &LimitError{Limit: "MaxExponent", Value: float64(n), Max: lim.MaxExponent, What: "power"}
 		}
 	}
-	return p.pow(n, -1, lim.MaxTerms)
+	return p.pow(n, -1, newGuard(lim))
 }
 
 // pow computes p^n, truncated to total degree maxDeg when maxDeg >= 0.
-func (p *Poly) pow(n, maxDeg, maxTerms int) (*Poly, error) {
+func (p *Poly) pow(n, maxDeg int, g *guard) (*Poly, error) {
 	if n == 0 {
 		return constPoly(p.vars, coefOne), nil
 	}
@@ -537,7 +615,7 @@ func (p *Poly) pow(n, maxDeg, maxTerms int) (*Poly, error) {
 	r := p
 	for k := 2; k <= n; k++ {
 		var err error
-		if r, err = mul(r, p, maxDeg, maxTerms); err != nil {
+		if r, err = mul(r, p, maxDeg, g); err != nil {
 			return nil, err
 		}
 	}
@@ -545,33 +623,70 @@ func (p *Poly) pow(n, maxDeg, maxTerms int) (*Poly, error) {
 }
 
 // powTermBound returns an upper bound on the number of terms of p^n.
-func (p *Poly) powTermBound(n int) float64 {
-	t := len(p.coefs)
-	if t <= 1 || n <= 1 {
-		return float64(t)
+func (p *Poly) powTermBound(n int) float64 { return newPowBound(p).terms(n) }
+
+// powBound holds what the term bound of p^k needs, for any k.
+type powBound struct {
+	t, deg int
+	ranges []int // max - min exponent of each variable that varies
+}
+
+func newPowBound(p *Poly) powBound {
+	b := powBound{t: len(p.coefs), deg: p.Degree()}
+	if b.t <= 1 {
+		return b
 	}
-	multisets := binomialF(float64(n+t-1), float64(t-1))
-	box := 1.0
-	lo := make([]int, len(p.vars))
-	for i := range lo {
-		lo[i] = math.MaxInt
-	}
-	hi := maxExponents(p)
-	active := 0
+	lo := slices.Clone(p.exp(0))
+	hi := slices.Clone(p.exp(0))
 	for i := range p.coefs {
 		for v, k := range p.exp(i) {
 			lo[v] = min(lo[v], k)
+			hi[v] = max(hi[v], k)
 		}
 	}
 	for v := range hi {
 		if hi[v] > lo[v] {
-			active++
-			box *= float64(n)*float64(hi[v]-lo[v]) + 1
+			b.ranges = append(b.ranges, hi[v]-lo[v])
 		}
 	}
-	deg := float64(n) * float64(p.Degree())
-	monomials := binomialF(deg+float64(active), float64(active))
+	return b
+}
+
+// terms bounds the number of terms of p^k by the least of the number of
+// multisets of k terms of p, the number of exponents in the box
+// k·[min_v, max_v], and the number of monomials of degree <= k·Degree(p)
+// in the variables that vary.
+func (b powBound) terms(k int) float64 {
+	if b.t <= 1 || k <= 1 {
+		return float64(b.t)
+	}
+	multisets := binomialF(float64(k+b.t-1), float64(b.t-1))
+	box := 1.0
+	for _, r := range b.ranges {
+		box *= float64(k)*float64(r) + 1
+	}
+	a := float64(len(b.ranges))
+	monomials := binomialF(float64(k)*float64(b.deg)+a, a)
 	return math.Min(multisets, math.Min(box, monomials))
+}
+
+// powWork estimates the work of computing p^n by repeated multiplication:
+// Σ_{k<n} terms(p^k)·Len(p) products of coefficients of growing size.
+func (p *Poly) powWork(n int) float64 {
+	if len(p.coefs) <= 1 || n <= 1 {
+		return 0
+	}
+	b := newPowBound(p)
+	bitsP := maxBitLen(p)
+	per := p.powBitsBound(1)
+	w := 0.0
+	for k := 1; k < n; k++ {
+		w += b.terms(k) * float64(len(p.coefs)) * pairCost(int(per*float64(k)), bitsP)
+		if math.IsInf(w, 1) {
+			break
+		}
+	}
+	return w
 }
 
 // powBitsBound estimates the size in bits of the coefficients of p^n: the

@@ -179,6 +179,7 @@ type session struct {
 	index map[string]int
 	order int
 	lim   Limits
+	guard *guard // shared by all expressions of the source
 }
 
 func newSession(src string, cfg Config, list bool) (*session, error) {
@@ -189,7 +190,7 @@ func newSession(src string, cfg Config, list bool) (*session, error) {
 	if cfg.Order > lim.MaxOrder {
 		return nil, fmt.Errorf("monomial: Config.Order %d exceeds the limit %d (Limits.MaxOrder)", cfg.Order, lim.MaxOrder)
 	}
-	s := &session{src: src, list: list, order: cfg.Order, lim: lim, index: map[string]int{}}
+	s := &session{src: src, list: list, order: cfg.Order, lim: lim, index: map[string]int{}, guard: newGuard(lim)}
 	if len(cfg.Vars) > lim.MaxVars {
 		return nil, fmt.Errorf("monomial: Config.Vars has %d variables, more than the limit %d (Limits.MaxVars)", len(cfg.Vars), lim.MaxVars)
 	}
@@ -555,13 +556,21 @@ func (p *parser) call(name string, nameTok token) (value, *Error) {
 		k = p.order / u.MinDegree()
 	}
 	a, _ := seriesCoefs(name, k)
-	res, cerr := compose(a, u, p.order, p.lim.MaxTerms)
+	res, cerr := compose(a, u, p.order, p.guard)
 	if cerr != nil {
-		return whole, p.tooMany(nameTok, whole)
+		return whole, p.limitErr(cerr, nameTok, whole)
 	}
 	whole.p = res
 	whole.exact = arg.exact && u.IsZero()
 	return whole, nil
+}
+
+// limitErr turns an error of a guarded computation into a parse error.
+func (p *parser) limitErr(err error, t token, v value) *Error {
+	if errors.Is(err, errTooMuchWork) {
+		return p.errAt(t, "%s needs more work than the limit %d allows (Limits.MaxWork)", p.snippet(v), p.lim.MaxWork)
+	}
+	return p.tooMany(t, v)
 }
 
 func (p *parser) tooMany(t token, v value) *Error {
@@ -575,9 +584,9 @@ func (p *parser) multiply(v, w value, op token) (value, *Error) {
 	if p.order > 0 {
 		maxDeg = p.order
 	}
-	prod, merr := mul(v.p, w.p, maxDeg, p.lim.MaxTerms)
+	prod, merr := mul(v.p, w.p, maxDeg, p.guard)
 	if merr != nil {
-		return r, p.tooMany(op, r)
+		return r, p.limitErr(merr, op, r)
 	}
 	r.p = prod
 	switch {
@@ -661,9 +670,9 @@ func (p *parser) raise(base, ex value, op token) (value, *Error) {
 		deg := base.p.Degree()
 		exactFits := base.exact && deg >= 0 && deg <= p.order/max(n, 1)
 		if base.p.vanishesAtZero() || exactFits {
-			res, perr := base.p.pow(n, p.order, p.lim.MaxTerms)
+			res, perr := base.p.pow(n, p.order, p.guard)
 			if perr != nil {
-				return r, p.tooMany(op, r)
+				return r, p.limitErr(perr, op, r)
 			}
 			r.p, r.exact = res, exactFits || (base.exact && base.p.IsZero())
 			return r, nil
@@ -714,9 +723,9 @@ func (p *parser) seriesPower(base value, e *big.Rat, whole value, at token, fn s
 	if !u.IsZero() {
 		k = p.order / u.MinDegree()
 	}
-	res, cerr := compose(binomialCoefs(e, k), u, p.order, p.lim.MaxTerms)
+	res, cerr := compose(binomialCoefs(e, k), u, p.order, p.guard)
 	if cerr != nil {
-		return whole, p.tooMany(at, whole)
+		return whole, p.limitErr(cerr, at, whole)
 	}
 	whole.p = res.scale(coefFromRat(ce))
 	whole.exact = base.exact && u.IsZero()

@@ -2,11 +2,13 @@ package monomial
 
 import (
 	"errors"
+	"math/big"
 	"math/rand/v2"
 	"slices"
 	"strconv"
 	"strings"
 	"testing"
+	"time"
 )
 
 var validCases = []struct {
@@ -367,5 +369,42 @@ func TestManyVariables(t *testing.T) {
 	_, err = Parse(b.String()+" + extra", Config{})
 	if err == nil || err.Error() != "1:"+strconv.Itoa(b.Len()+4)+": more than 1000 variables (Limits.MaxVars)" {
 		t.Errorf("1001 variables: err = %v", err)
+	}
+}
+
+// TestWorkLimit: computations whose estimated work exceeds Limits.MaxWork
+// are refused before they start.
+func TestWorkLimit(t *testing.T) {
+	for _, tc := range []struct {
+		src   string
+		order int
+		lim   Limits
+		want  string
+	}{
+		{"(1+x)^10000", 0, Limits{}, "(Limits.MaxWork)"},
+		{"exp(x+y+z)", 1000, Limits{MaxTerms: 1 << 30}, "exp(x+y+z) needs more work than the limit 500000000 allows (Limits.MaxWork)"},
+		{"(a+b+c)*(d+e+f)", 0, Limits{MaxWork: 5}, "1:8: (a+b+c)*(d+e+f) needs more work than the limit 5 allows (Limits.MaxWork)"},
+		{"tanh(x*y+z)", 12, Limits{MaxWork: 100}, "(Limits.MaxWork)"},
+	} {
+		start := time.Now()
+		_, err := Parse(tc.src, Config{Order: tc.order, Limits: tc.lim})
+		if err == nil || !strings.Contains(err.Error(), tc.want) {
+			t.Errorf("Parse(%q): err = %v, want it to contain %q", tc.src, err, tc.want)
+		}
+		if d := time.Since(start); d > 5*time.Second {
+			t.Logf("Parse(%q) took %v before refusing", tc.src, d) // reported, not asserted
+		}
+	}
+	var le *LimitError
+	one := Constant([]string{"x"}, big.NewRat(1, 1))
+	if _, err := one.Add(Variable([]string{"x"}, 0)).Pow(10000, Limits{}); !errors.As(err, &le) || le.Limit != "MaxWork" {
+		t.Errorf("(1+x)^10000: err = %v, want a MaxWork LimitError", err)
+	}
+	// Within the budget the same expansions succeed.
+	if _, err := Parse("tanh(x*y+z)", Config{Order: 12}); err != nil {
+		t.Error(err)
+	}
+	if _, err := Parse("(1+x)^200", Config{}); err != nil {
+		t.Error(err)
 	}
 }

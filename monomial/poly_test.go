@@ -476,12 +476,12 @@ func TestMulPaths(t *testing.T) {
 	for iter := range 20 {
 		p := randomPoly(r, vars, 30+r.IntN(100), 4)
 		q := randomPoly(r, vars, 30+r.IntN(100), 4)
-		fast, err := mul(p, q, -1, 0)
+		fast, err := mul(p, q, -1, nil)
 		if err != nil {
 			t.Fatal(err)
 		}
 		checkCanonical(t, fast)
-		slow, err := mulGeneric(p, q, termDegrees(p), termDegrees(q), -1, 0)
+		slow, err := mulGeneric(p, q, termDegrees(p), termDegrees(q), -1, nil)
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -489,14 +489,14 @@ func TestMulPaths(t *testing.T) {
 			t.Fatalf("iteration %d: packed and generic products differ", iter)
 		}
 		d := r.IntN(12)
-		trunc, err := mul(p, q, d, 0)
+		trunc, err := mul(p, q, d, nil)
 		if err != nil {
 			t.Fatal(err)
 		}
 		if !trunc.Equal(fast.Truncate(d)) {
 			t.Fatalf("iteration %d: truncated product differs from Truncate(%d)", iter, d)
 		}
-		if _, err := mul(p, q, -1, fast.Len()-1); err == nil && fast.Len() > 0 {
+		if _, err := mul(p, q, -1, &guard{maxTerms: fast.Len() - 1, work: math.Inf(1)}); err == nil && fast.Len() > 0 {
 			t.Fatalf("iteration %d: term limit %d not enforced", iter, fast.Len()-1)
 		}
 	}

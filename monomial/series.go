@@ -1,6 +1,7 @@
 package monomial
 
 import (
+	"math"
 	"math/big"
 )
 
@@ -113,9 +114,9 @@ func binomialCoefs(r *big.Rat, k int) []*big.Rat {
 // compose returns Σ_j a_j u^j truncated to total degree d, where u has zero
 // constant term. It evaluates Horner's scheme h_j = a_j + u·h_{j+1} from the
 // top and truncates h_j to degree d - j·m (m is the lowest degree in u),
-// which is all of h_j that can reach degree d in the result. It returns
-// errTooManyTerms when an intermediate result exceeds maxTerms (> 0).
-func compose(a []*big.Rat, u *Poly, d, maxTerms int) (*Poly, error) {
+// which is all of h_j that can reach degree d in the result. The guard
+// limits the terms and work of each step.
+func compose(a []*big.Rat, u *Poly, d int, g *guard) (*Poly, error) {
 	if u.IsZero() {
 		return constPoly(u.vars, coefFromRat(a[0])), nil
 	}
@@ -125,10 +126,15 @@ func compose(a []*big.Rat, u *Poly, d, maxTerms int) (*Poly, error) {
 	}
 	k := min(len(a)-1, d/m)
 	u = u.Truncate(d)
+	if g != nil {
+		if est := composeWork(a[:k+1], u, d); est > g.work {
+			return nil, errTooMuchWork // refused before any work
+		}
+	}
 	h := constPoly(u.vars, coefFromRat(a[k]))
 	for j := k - 1; j >= 0; j-- {
 		var err error
-		h, err = mul(u, h, d-j*m, maxTerms)
+		h, err = mul(u, h, d-j*m, g)
 		if err != nil {
 			return nil, err
 		}
@@ -137,6 +143,34 @@ func compose(a []*big.Rat, u *Poly, d, maxTerms int) (*Poly, error) {
 		}
 	}
 	return h, nil
+}
+
+// composeWork estimates the work of compose: step j multiplies u by h_{j+1},
+// whose number of terms is at most the number of monomials of degree
+// <= k-j-1 in the terms of u, and at most the number of monomials of
+// degree <= d-(j+1)m in the variables of u.
+func composeWork(a []*big.Rat, u *Poly, d int) float64 {
+	k := len(a) - 1
+	m := u.MinDegree()
+	t := float64(u.Len())
+	active := 0.0
+	for _, e := range maxExponents(u) {
+		if e > 0 {
+			active++
+		}
+	}
+	bitsA := 0
+	for _, c := range a {
+		bitsA = max(bitsA, c.Num().BitLen()+c.Denom().BitLen())
+	}
+	cost := pairCost(bitsA+maxBitLen(u)*k, maxBitLen(u))
+	w := 0.0
+	for j := k - 1; j >= 0; j-- {
+		byTerms := binomialF(float64(k-j-1)+t, t)
+		byDegree := binomialF(float64(d-(j+1)*m)+active, active)
+		w += t * math.Min(byTerms, byDegree) * cost
+	}
+	return w
 }
 
 // intRoot returns the q-th root of n >= 0 when it is an integer.
