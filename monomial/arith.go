@@ -555,10 +555,12 @@ func (e *LimitError) Error() string {
 // Pow returns p^n for n >= 0 (p^0 = 1, also for p = 0). Before expanding it
 // estimates the result and returns a *LimitError, without doing the work,
 // when n exceeds lim.MaxExponent, when an upper bound on the number of terms
-// exceeds lim.MaxTerms, or when the estimated coefficient size exceeds
-// lim.MaxBits. The term bound is the least of the number of multisets of n
-// terms of p, the number of exponents in the box n·[min_i, max_i], and the
-// number of monomials of total degree at most n·Degree(p).
+// exceeds lim.MaxTerms, when the estimated coefficient size exceeds
+// lim.MaxBits, or when the estimated work exceeds lim.MaxWork. The term
+// bound is the least of the number of multisets of n terms of p, the number
+// of exponents in the box n·[min_i, max_i], and the number of monomials of
+// total degree at most n·Degree(p). Being upper bounds, these estimates can
+// refuse a power whose terms would largely cancel.
 func (p *Poly) Pow(n int, lim Limits) (*Poly, error) {
 	lim = lim.withDefaults()
 	if n < 0 {
