@@ -536,8 +536,11 @@ func (p *parser) call(name string, nameTok token) (value, *Error) {
 		return p.seriesPower(arg, big.NewRat(1, 2), whole, nameTok, "sqrt")
 	case "log":
 		if !c.isOne() {
-			if c.sign() <= 0 {
-				return whole, p.errAt(nameTok, "%s: the argument has constant term %s <= 0, where log has no real Taylor series", p.snippet(whole), c.ratView().RatString())
+			switch c.sign() {
+			case 0:
+				return whole, p.errAt(nameTok, "%s: the argument vanishes at 0, where log has no Taylor series", p.snippet(whole))
+			case -1:
+				return whole, p.errAt(nameTok, "%s: the argument has negative constant term %s, where log is not real", p.snippet(whole), c.ratView().RatString())
 			}
 			return whole, p.errAt(nameTok, "%s: constant term %s would make the coefficients irrational; log needs an argument with constant term 1: write log(c+u) as log(c) + log(1+u/c)", p.snippet(whole), c.ratView().RatString())
 		}

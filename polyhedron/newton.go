@@ -276,26 +276,49 @@ func vertexFilter(d int, pts [][]int) [][]int {
 		key := bitsKey(supp[k])
 		bySupport[key] = append(bySupport[key], k)
 	}
-	// The tests are independent: run them on all cores.
+	// The tests are independent: run them on all cores, in batches. A point
+	// found not to be a vertex is dropped from the candidates of later
+	// batches: a point p is a vertex iff it is not in conv(V \ {p}) +
+	// orthant for the vertex set V, so testing against any subset of the
+	// points that contains V \ {p} gives the same answer, and smaller LPs.
+	// Points with large coordinate sums (likely non-vertices) go first.
 	isV := make([]bool, len(pts))
-	var next atomic.Int64
-	var wg sync.WaitGroup
-	for w := 0; w < runtime.GOMAXPROCS(0); w++ {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			var q []int
-			for {
-				k := int(next.Add(1) - 1)
-				if k >= len(pts) {
-					return
-				}
-				q = candidatesBelow(k, pts, supp, bySupport, d, q[:0])
-				isV[k] = isVertex(pts[k], pts, q)
-			}
-		}()
+	removed := make([]bool, len(pts))
+	order := make([]int, len(pts))
+	sums := make([]sum128, len(pts))
+	for k := range order {
+		order[k] = k
+		sums[k] = sumOf(pts[k])
 	}
-	wg.Wait()
+	slices.SortStableFunc(order, func(a, b int) int { return -sums[a].cmp(sums[b]) })
+	workers := runtime.GOMAXPROCS(0)
+	batch := 64 * workers
+	for start := 0; start < len(order); start += batch {
+		part := order[start:min(start+batch, len(order))]
+		var next atomic.Int64
+		var wg sync.WaitGroup
+		for w := 0; w < workers; w++ {
+			wg.Add(1)
+			go func() {
+				defer wg.Done()
+				var q []int
+				for {
+					i := int(next.Add(1) - 1)
+					if i >= len(part) {
+						return
+					}
+					k := part[i]
+					q = candidatesBelow(k, pts, supp, bySupport, d, q[:0])
+					q = slices.DeleteFunc(q, func(j int) bool { return removed[j] })
+					isV[k] = isVertex(pts[k], pts, q)
+				}
+			}()
+		}
+		wg.Wait()
+		for _, k := range part {
+			removed[k] = !isV[k]
+		}
+	}
 	var out [][]int
 	for k, p := range pts {
 		if isV[k] {
