@@ -166,9 +166,9 @@ func (c *batchCmd) Run(e *env) error {
 		workers = runtime.GOMAXPROCS(0)
 	}
 	lines := &lineReader{r: bufio.NewReaderSize(in, 64<<10), max: maxRecordLine}
+	skip := func(n int) bool { return (n-1)%c.shardCount != c.shardIndex }
 	next := func() (batchItem, bool, error) {
 		for {
-			skip := func(n int) bool { return (n-1)%c.shardCount != c.shardIndex }
 			data, n, err := lines.next(skip)
 			if err == io.EOF {
 				return batchItem{}, false, nil
@@ -196,8 +196,7 @@ func (c *batchCmd) Run(e *env) error {
 		}
 		return nil
 	}
-	work := func(_ int, it batchItem) batchAnswer { return c.answer(it) }
-	err := orderedMap(workers, 16*workers, next, work, emit)
+	err := orderedMap(workers, 16*workers, next, c.answer, emit)
 	stopProgress()
 
 	elapsed := time.Since(start)

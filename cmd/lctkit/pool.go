@@ -13,11 +13,10 @@ import "sync"
 // ends production: the items already produced are still worked on and
 // emitted, and then the error is returned. An error from emit stops
 // production and emission and is returned once the workers are idle.
-// work receives the index (0 ≤ w < workers) of the goroutine that runs it.
 // next and emit run on one goroutine each, never concurrently with
 // themselves; emit runs on the caller's goroutine. workers and window must
 // be at least 1 (a caller mistake panics).
-func orderedMap[T, R any](workers, window int, next func() (T, bool, error), work func(w int, item T) R, emit func(R) error) error {
+func orderedMap[T, R any](workers, window int, next func() (T, bool, error), work func(item T) R, emit func(R) error) error {
 	if workers < 1 || window < 1 {
 		panic("orderedMap: workers and window must be positive")
 	}
@@ -60,10 +59,10 @@ func orderedMap[T, R any](workers, window int, next func() (T, bool, error), wor
 	}()
 
 	var wg sync.WaitGroup
-	for w := range workers {
+	for range workers {
 		wg.Go(func() {
 			for j := range jobs {
-				results <- done{j.seq, work(w, j.item)}
+				results <- done{j.seq, work(j.item)}
 			}
 		})
 	}
