@@ -1,0 +1,236 @@
+package main
+
+import (
+	"fmt"
+	"io"
+	"math"
+	"math/big"
+	"strconv"
+	"strings"
+
+	"github.com/lctkit/lctkit/rlct"
+)
+
+// estimateResult is everything the estimate command prints, as text, JSON
+// or a plot.
+type estimateResult struct {
+	title        string // "K = …" as the user wrote it
+	vars         []string
+	point        []*big.Rat // nil for the origin
+	lower, upper []float64
+	prior        []float64 // as sampled, in the translated coordinates
+	est          *rlct.Estimate
+	seed         uint64
+	bound        *rlct.Result // nil when it could not be computed
+	boundErr     error
+	verdict      *rlct.Verdict // nil without a bound
+	truncated    bool
+	order        int
+}
+
+// estimateCaution is the warning printed with every estimate.
+const estimateCaution = "The error bars are statistical only. The asymptotic regime may need very large n " +
+	"when the singularity is bad, and the error bars do not cover that bias."
+
+// boundStatus names the status of the bound in words.
+func boundStatus(r *rlct.Result) string {
+	if r.Status == rlct.Exact {
+		return "exact"
+	}
+	return "upper bound"
+}
+
+// verdictText is the plain verdict: the library's wording, or why there is
+// none.
+func (r *estimateResult) verdictText() string {
+	if r.verdict == nil {
+		return "no Newton bound to compare with"
+	}
+	return r.verdict.Text
+}
+
+// notes lists remarks that qualify the verdict.
+func (r *estimateResult) notes() []string {
+	var out []string
+	if r.truncated {
+		n := fmt.Sprintf("K is a power series cut at degree %d; the estimate is for the truncated polynomial on the box, a proxy for the full function", r.order)
+		if r.bound != nil && r.bound.Status == rlct.Exact {
+			n += " (the bound certifies that the omitted terms change neither λ nor θ)"
+		} else {
+			n += " (the omitted terms are not certified harmless, so the estimate need not apply to the full function)"
+		}
+		out = append(out, n)
+	}
+	if r.verdict != nil && !r.verdict.Consistent && r.bound.Status == rlct.Exact {
+		out = append(out, "the Newton value is certified exact here, so the difference is a bias of the estimate, not a strict bound")
+	}
+	return out
+}
+
+// write prints the plain-text answer.
+func (r *estimateResult) write(w io.Writer) {
+	e := r.est
+	fmt.Fprintln(w, "Numerical ESTIMATE by nested sampling, not a proof.")
+	for _, l := range wrap(estimateCaution, 78) {
+		fmt.Fprintln(w, "  "+l)
+	}
+	fmt.Fprintln(w)
+	where := "at the origin"
+	if r.point != nil && !allZero(r.point) {
+		where = "at " + pointString(r.vars, r.point)
+	}
+	fmt.Fprintf(w, "%s %s\n", r.title, where)
+	fmt.Fprintf(w, "box (offsets from the point): %s\n", boxString(r.vars, r.lower, r.upper))
+	fmt.Fprintf(w, "prior: %s\n", priorString(r.vars, r.prior))
+	fmt.Fprintf(w, "sampling: %d live points × %d runs, seed %d, %d evaluations of K\n\n", e.Live, e.Runs, r.seed, e.Evaluations)
+
+	dec := tableDecimals(e.Points)
+	fmt.Fprintf(w, "%12s  %10s  %*s  %10s\n", "n", "n·E_n[K]", dec+6, "± se", "fit")
+	for _, pt := range e.Points {
+		fmt.Fprintf(w, "%12.4g  %10.*f  %*s  %10.*f\n", pt.N, dec, pt.Y, dec+6, "± "+strconv.FormatFloat(pt.SE, 'f', dec, 64), dec, e.Curve(pt.N))
+	}
+	fmt.Fprintf(w, "(n in the units of K; fit = λ̂ − (θ̂−1)/(log n + b) with b = %.3f)\n\n", e.Offset)
+
+	fmt.Fprintf(w, "estimate:      λ̂ = %s   θ̂ = %s\n", plusMinus(e.Lambda, e.LambdaSE), plusMinus(e.Theta, e.ThetaSE))
+	if r.bound != nil {
+		l, _ := r.bound.Lambda.Float64()
+		fmt.Fprintf(w, "Newton bound:  λ = %s (%.4g)   θ = %d   (%s)\n", r.bound.Lambda.RatString(), l, r.bound.Theta, boundStatus(r.bound))
+	} else {
+		fmt.Fprintf(w, "Newton bound:  not available: %v\n", r.boundErr)
+	}
+	fmt.Fprintf(w, "verdict: %s\n", r.verdictText())
+	for _, n := range r.notes() {
+		for i, l := range wrap("note: "+n, 78) {
+			if i > 0 {
+				l = "  " + l
+			}
+			fmt.Fprintln(w, l)
+		}
+	}
+}
+
+// tableDecimals gives the decimals for the table: enough for two
+// significant digits of the smallest standard error, between 2 and 6.
+func tableDecimals(pts []rlct.EstimatePoint) int {
+	small := math.Inf(1)
+	for _, p := range pts {
+		if p.SE > 0 && p.SE < small {
+			small = p.SE
+		}
+	}
+	if math.IsInf(small, 1) {
+		return 4
+	}
+	return min(max(1-int(math.Floor(math.Log10(small))), 2), 6)
+}
+
+// plusMinus writes x ± se with se to two significant digits and x to the
+// same decimal place.
+func plusMinus(x, se float64) string {
+	if !(se > 0) || math.IsInf(se, 0) {
+		return fmt.Sprintf("%.4f ± %g", x, se)
+	}
+	dec := min(max(1-int(math.Floor(math.Log10(se))), 0), 8)
+	return fmt.Sprintf("%.*f ± %.*f", dec, x, dec, se)
+}
+
+func boxString(vars []string, lower, upper []float64) string {
+	parts := make([]string, len(vars))
+	for i, v := range vars {
+		parts[i] = fmt.Sprintf("%s ∈ [%g, %g]", v, lower[i], upper[i])
+	}
+	return strings.Join(parts, ", ")
+}
+
+func priorString(vars []string, prior []float64) string {
+	var parts []string
+	for i, h := range prior {
+		if h != 0 {
+			parts = append(parts, fmt.Sprintf("|%s|^%g", vars[i], h))
+		}
+	}
+	if parts == nil {
+		return "uniform"
+	}
+	return "proportional to " + strings.Join(parts, "·")
+}
+
+// jsonFloat is a float64 that encodes NaN and ±Inf as null, which JSON
+// cannot hold otherwise.
+type jsonFloat float64
+
+// MarshalJSON implements json.Marshaler.
+func (f jsonFloat) MarshalJSON() ([]byte, error) {
+	x := float64(f)
+	if math.IsNaN(x) || math.IsInf(x, 0) {
+		return []byte("null"), nil
+	}
+	return strconv.AppendFloat(nil, x, 'g', -1, 64), nil
+}
+
+func jsonFloats(xs []float64) []jsonFloat {
+	out := make([]jsonFloat, len(xs))
+	for i, x := range xs {
+		out[i] = jsonFloat(x)
+	}
+	return out
+}
+
+// estimatePointJSON is one row of the table.
+type estimatePointJSON struct {
+	N   jsonFloat `json:"n"`
+	Y   jsonFloat `json:"y"`
+	SE  jsonFloat `json:"se"`
+	Fit jsonFloat `json:"fit"`
+}
+
+// estimateJSON is the --json output. The bound is the object printed by
+// `lctkit bound --json`.
+type estimateJSON struct {
+	Estimate    string              `json:"estimate"`
+	LambdaHat   jsonFloat           `json:"lambda_hat"`
+	LambdaSE    jsonFloat           `json:"lambda_se"`
+	ThetaHat    jsonFloat           `json:"theta_hat"`
+	ThetaSE     jsonFloat           `json:"theta_se"`
+	Offset      jsonFloat           `json:"offset"`
+	Points      []estimatePointJSON `json:"points"`
+	Bound       *rlct.Report        `json:"bound"`
+	Verdict     string              `json:"verdict"`
+	Consistent  *bool               `json:"consistent,omitempty"`
+	Sigmas      *jsonFloat          `json:"sigmas,omitempty"`
+	Notes       []string            `json:"notes,omitempty"`
+	Variables   []string            `json:"variables"`
+	BoxLower    []jsonFloat         `json:"box_lower"`
+	BoxUpper    []jsonFloat         `json:"box_upper"`
+	Prior       []jsonFloat         `json:"prior"`
+	Live        int                 `json:"live"`
+	Runs        int                 `json:"runs"`
+	Seed        uint64              `json:"seed"`
+	Evaluations int64               `json:"evaluations"`
+}
+
+// report returns the JSON form.
+func (r *estimateResult) report() *estimateJSON {
+	e := r.est
+	out := &estimateJSON{
+		Estimate:  "numerical estimate by nested sampling, not a proof; " + estimateCaution,
+		LambdaHat: jsonFloat(e.Lambda), LambdaSE: jsonFloat(e.LambdaSE),
+		ThetaHat: jsonFloat(e.Theta), ThetaSE: jsonFloat(e.ThetaSE), Offset: jsonFloat(e.Offset),
+		Verdict: r.verdictText(), Notes: r.notes(),
+		Variables: r.vars, BoxLower: jsonFloats(r.lower), BoxUpper: jsonFloats(r.upper), Prior: jsonFloats(r.prior),
+		Live: e.Live, Runs: e.Runs, Seed: r.seed, Evaluations: e.Evaluations,
+	}
+	for _, p := range e.Points {
+		out.Points = append(out.Points, estimatePointJSON{jsonFloat(p.N), jsonFloat(p.Y), jsonFloat(p.SE), jsonFloat(e.Curve(p.N))})
+	}
+	if r.bound != nil {
+		out.Bound = r.bound.Report()
+	} else {
+		out.Bound = &rlct.Report{Error: r.boundErr.Error()}
+	}
+	if r.verdict != nil {
+		c, s := r.verdict.Consistent, jsonFloat(r.verdict.Sigmas)
+		out.Consistent, out.Sigmas = &c, &s
+	}
+	return out
+}

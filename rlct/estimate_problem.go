@@ -1,0 +1,225 @@
+// Numerical estimates for a Problem: K translated to the point exactly, then
+// compiled to float64 for EstimateThreshold.
+
+package rlct
+
+import (
+	"context"
+	"fmt"
+	"math"
+	"math/big"
+
+	"github.com/lctkit/lctkit/monomial"
+)
+
+// unitRoundOff is u = 2^−53, the unit round-off of float64.
+const unitRoundOff = 0x1p-53
+
+// ProblemEvaluator is the float64 evaluator of K for a Problem at its point,
+// in the translated coordinates (offsets from the point) that
+// EstimateOptions uses. It is built by NewProblemEvaluator.
+type ProblemEvaluator struct {
+	// Vars names the variables, in the order Eval expects them.
+	Vars []string
+
+	// Polys holds K translated to the point, or in sum-of-squares form the
+	// translated generators g_i, all exact.
+	Polys []*monomial.Poly
+
+	// SumOfSquares reports that Eval returns Σ g_i(w)² from Polys
+	// evaluated one by one (never negative), rather than K itself.
+	SumOfSquares bool
+
+	compiled []*monomial.Compiled
+}
+
+// NewProblemEvaluator translates K (or each generator) of p to p.Point
+// exactly, with monomial.Poly.Translate, and compiles the result. In
+// sum-of-squares form nothing is expanded: Eval squares and adds the
+// generators' values, which keeps K ≥ 0 and its relative accuracy near the
+// zero set. A series truncated around the origin (p.Truncated) cannot be
+// moved to another point (ErrShiftSeries); at the origin it is evaluated as
+// the truncated polynomial, a proxy for the full function.
+func NewProblemEvaluator(p *Problem) (*ProblemEvaluator, error) {
+	vars, polys, err := p.forms()
+	if err != nil {
+		return nil, err
+	}
+	if p.Point != nil {
+		if len(p.Point) != len(vars) {
+			return nil, fmt.Errorf("%w: point has %d entries for %d variables", ErrDimension, len(p.Point), len(vars))
+		}
+		if !isOrigin(p.Point) {
+			if p.Truncated {
+				return nil, ErrShiftSeries
+			}
+			for i, q := range polys {
+				polys[i] = q.Translate(p.Point)
+			}
+		}
+	}
+	ev := &ProblemEvaluator{Vars: vars, Polys: polys, SumOfSquares: p.Generators != nil}
+	for _, q := range polys {
+		ev.compiled = append(ev.compiled, q.Compile())
+	}
+	return ev, nil
+}
+
+// NumVars returns the number of variables.
+func (ev *ProblemEvaluator) NumVars() int { return len(ev.Vars) }
+
+// Eval returns K at the offsets w from the point, in float64 arithmetic. It
+// is safe for concurrent use and panics if len(w) != NumVars.
+func (ev *ProblemEvaluator) Eval(w []float64) float64 {
+	if !ev.SumOfSquares {
+		return ev.compiled[0].Eval(w)
+	}
+	var sum float64
+	for _, g := range ev.compiled {
+		v := g.Eval(w)
+		sum += v * v
+	}
+	return sum
+}
+
+// RoundOff returns an estimate of the absolute rounding error of Eval near
+// the zero set of K over the box [lower, upper] (offsets from the point),
+// for EstimateOptions.RoundOff.
+//
+// A polynomial q = Σ c_t·w^(e_t) with T terms and degree D is summed term by
+// term; its error is estimated as δ(q) = (D + 2 + √T)·u·S with u = 2^−53 and
+// S = Σ|c_t|·∏ m_i^(e_ti), m_i = max(|lower_i|, |upper_i|), the largest sum of
+// the absolute values of the terms on the box. The √T growth of a sum of T
+// rounding errors is the usual statistical rule of thumb, not a worst-case
+// bound (Higham 2002, Accuracy and Stability of Numerical Algorithms, 2nd
+// ed., SIAM, section 2.8; from memory). A polynomial whose terms all have
+// positive coefficients and even exponents has no cancellation and is never
+// negative, so its estimate is 0.
+//
+// In sum-of-squares form K = Σ g_i² is computed from the generators' values,
+// so it is never negative; near the zero set the computed K is reliable down
+// to about Σ δ(g_i)², which is returned: EstimateThreshold then refuses a grid
+// of n that would need K resolved below 100 times that.
+//
+// It panics if the box does not have NumVars entries.
+func (ev *ProblemEvaluator) RoundOff(lower, upper []float64) float64 {
+	if len(lower) != len(ev.Vars) || len(upper) != len(ev.Vars) {
+		panic(fmt.Sprintf("rlct: RoundOff: box has %d and %d entries for %d variables", len(lower), len(upper), len(ev.Vars)))
+	}
+	m := make([]float64, len(lower))
+	for i := range m {
+		m[i] = math.Max(math.Abs(lower[i]), math.Abs(upper[i]))
+	}
+	if !ev.SumOfSquares {
+		if cancellationFree(ev.Polys[0]) {
+			return 0
+		}
+		return roundOffOf(ev.Polys[0], m)
+	}
+	var sum float64
+	for _, g := range ev.Polys {
+		d := roundOffOf(g, m)
+		sum += d * d
+	}
+	return sum
+}
+
+// roundOffOf returns δ(q) of ProblemEvaluator.RoundOff for the largest
+// absolute values m of the variables.
+func roundOffOf(q *monomial.Poly, m []float64) float64 {
+	var s float64
+	for e, c := range q.All() {
+		f, _ := new(big.Rat).Abs(c).Float64()
+		for i, k := range e {
+			if k > 0 {
+				f *= math.Pow(m[i], float64(k))
+			}
+		}
+		s += f
+	}
+	return (float64(q.Degree()) + 2 + math.Sqrt(float64(q.Len()))) * unitRoundOff * s
+}
+
+// cancellationFree reports whether every term of q has a positive
+// coefficient and even exponents, so that each term is ≥ 0 everywhere.
+func cancellationFree(q *monomial.Poly) bool {
+	for e, c := range q.All() {
+		if c.Sign() < 0 {
+			return false
+		}
+		for _, k := range e {
+			if k%2 != 0 {
+				return false
+			}
+		}
+	}
+	return true
+}
+
+// EstimateProblem estimates λ and θ of the problem p at p.Point by
+// EstimateThreshold over the box opt.Lower, opt.Upper, given as offsets from
+// the point. K comes from NewProblemEvaluator. When opt.Prior is nil it is
+// taken from p.Prior the way Bound reads it: the exponent h_i for a
+// coordinate where the point is 0, and 0 (uniform) for one where it is not,
+// since there the prior factor |w_i|^(h_i) is smooth and positive near the
+// point and does not change λ or θ (it corresponds to τ_i = 1 in Bound).
+// When opt.RoundOff is 0 it is set to ProblemEvaluator.RoundOff of the box.
+//
+// The result is a numerical estimate with the caveats listed under
+// EstimateThreshold, and for a truncated series (p.Truncated) it is an
+// estimate for the truncated polynomial only. A *KValueError reports its
+// point as offsets from p.Point.
+func EstimateProblem(ctx context.Context, p *Problem, opt EstimateOptions) (*Estimate, error) {
+	ev, err := NewProblemEvaluator(p)
+	if err != nil {
+		return nil, err
+	}
+	d := ev.NumVars()
+	if len(opt.Lower) != d || len(opt.Upper) != d {
+		return nil, fmt.Errorf("%w: box has %d lower and %d upper bounds for %d variables", ErrDimension, len(opt.Lower), len(opt.Upper), d)
+	}
+	if opt.Prior == nil && p.Prior != nil {
+		prior, err := EstimatePrior(p)
+		if err != nil {
+			return nil, err
+		}
+		opt.Prior = prior
+	}
+	if opt.RoundOff == 0 {
+		opt.RoundOff = ev.RoundOff(opt.Lower, opt.Upper)
+	}
+	return EstimateThreshold(ctx, ev, opt)
+}
+
+// EstimatePrior returns the prior exponents EstimateProblem uses for p, in
+// the translated coordinates: h_i from p.Prior where p.Point is 0 (or
+// absent), and 0 where it is not. It returns ErrPrior for an exponent ≤ −1
+// and ErrDimension for lengths that do not match the variables.
+func EstimatePrior(p *Problem) ([]float64, error) {
+	vars, _, err := p.forms()
+	if err != nil {
+		return nil, err
+	}
+	d := len(vars)
+	if p.Prior != nil && len(p.Prior) != d {
+		return nil, fmt.Errorf("%w: prior has %d entries for %d variables", ErrDimension, len(p.Prior), d)
+	}
+	if p.Point != nil && len(p.Point) != d {
+		return nil, fmt.Errorf("%w: point has %d entries for %d variables", ErrDimension, len(p.Point), d)
+	}
+	out := make([]float64, d)
+	minusOne := big.NewRat(-1, 1)
+	for i := range d {
+		if p.Prior == nil || p.Prior[i] == nil {
+			continue
+		}
+		if p.Prior[i].Cmp(minusOne) <= 0 {
+			return nil, fmt.Errorf("%w: %s has exponent %s", ErrPrior, vars[i], p.Prior[i].RatString())
+		}
+		if p.Point != nil && p.Point[i] != nil && p.Point[i].Sign() != 0 {
+			continue
+		}
+		out[i], _ = p.Prior[i].Float64()
+	}
+	return out, nil
+}
