@@ -86,7 +86,18 @@ const (
 // a minimal point p is a vertex of P exactly when it is a vertex of the
 // Newton polyhedron of the minimal points whose support lies in supp(p)
 // (restricted to those coordinates), which is decided by cheap sufficient
-// tests (unique minimiser of a linear order) or else by one exact LP.
+// tests (unique minimiser of a linear order) or else by one LP: a float64
+// solve whose answer is accepted only with an exactly checked certificate
+// (an integer separating normal, or rounded convex weights, or an exact
+// solve over the float solution's points), and otherwise the exact LP.
+//
+// Cost: O(N log N) for sorting plus, per point, either a lookup of the
+// 2^|supp| support subsets (sparse points) or a scan of the minimal points;
+// then, for M minimal points, up to M small LPs (d' + 1 rows for support
+// size d', columns generated from the candidate points), run on all cores.
+// Sparse inputs are fast (10^5 points in d = 20 take a fraction of a
+// second); dense inputs with many minimal points cost about M LPs over up to
+// M columns each (3,000 minimal points in d = 10: about half a CPU second).
 func New(d int, points [][]int) (*Newton, error) {
 	return NewWithLimits(d, points, Limits{})
 }
