@@ -143,6 +143,13 @@ func checkFacets(t *testing.T, n *Newton, points [][]int) []Facet {
 			}
 		}
 		isV := slices.ContainsFunc(n.Vertices(), func(v []int) bool { return slices.Equal(v, p) })
+		// A vertex lies on at least d facets. The coordinate inequalities
+		// x_i >= 0 count only when they are facets of P (they are in the
+		// list then); a vertex with v_i = 0 for which x_i >= 0 is not a
+		// facet still meets d facets of other kinds.
+		if isV && len(tight) < d {
+			t.Errorf("vertex %v lies on %d facets, want >= %d", p, len(tight), d)
+		}
 		if r := normalRank(fs, tight, d); (r == d) != isV {
 			t.Errorf("point %v: vertex = %v but the facets through it have normal rank %d (%d facets)", p, isV, r, len(tight))
 		}
