@@ -11,6 +11,8 @@ import (
 	"strings"
 	"time"
 
+	"github.com/alecthomas/kong"
+
 	"github.com/lctkit/lctkit/monomial"
 	"github.com/lctkit/lctkit/rlct"
 )
@@ -20,7 +22,7 @@ import (
 type estimateCmd struct {
 	Expr string `arg:"" optional:"" help:"K(w), an expression vanishing at the point; - reads it from standard input. Without it the bundled example is estimated."`
 	problemFlags
-	Box     string  `help:"The box sampled, as offsets from the point: R (meaning -R:R) or A:B for every variable, or per variable x=0:1,y=0.5; unnamed variables get -1:1. A value starting with a minus needs '=': --box=-1:1." placeholder:"x=0:1,y=-1:1"`
+	Box     boxFlag `help:"The box sampled, as offsets from the point: R (meaning -R:R) or A:B for every variable, or per variable x=0:1,y=0.5; unnamed variables get -1:1." placeholder:"x=0:1,y=-1:1"`
 	Live    int     `help:"Live points per run (default 200; at least 10)." placeholder:"N"`
 	Runs    int     `help:"Independent runs, merged for the estimate and left out one at a time for the error bars (default 16; at least 2)." placeholder:"R"`
 	Seed    uint64  `help:"Master seed; the same seed gives the same numbers." default:"1" placeholder:"S"`
@@ -83,7 +85,7 @@ func (c *estimateCmd) Run(e *env) error {
 	} else {
 		vars = p.Generators[0].Vars()
 	}
-	lower, upper, err := parseBox(c.Box, vars)
+	lower, upper, err := parseBox(string(c.Box), vars)
 	if err != nil {
 		return fmt.Errorf("--box: %w", err)
 	}
@@ -179,6 +181,28 @@ func negativeKError(kv *rlct.KValueError, vars []string, point []*big.Rat) error
 		msg += "; K must be nonnegative on the whole box (shrink --box, or check K)"
 	}
 	return errors.New(msg)
+}
+
+// boxFlag is the value of --box. Unlike a plain string flag it accepts a
+// value that starts with a minus sign and a digit or point, as in
+// --box -1:1, which kong would otherwise take for a short flag.
+type boxFlag string
+
+// Decode implements kong.MapperValue.
+func (b *boxFlag) Decode(ctx *kong.DecodeContext) error {
+	t := ctx.Scan.Peek()
+	if v, ok := t.Value.(string); ok && t.Type == kong.UntypedToken && len(v) > 1 && v[0] == '-' &&
+		(v[1] == '.' || v[1] >= '0' && v[1] <= '9') {
+		ctx.Scan.Pop()
+		*b = boxFlag(v)
+		return nil
+	}
+	var v string
+	if err := ctx.Scan.PopValueInto("box", &v); err != nil {
+		return err
+	}
+	*b = boxFlag(v)
+	return nil
 }
 
 // defaultBox is the half-width of the box for variables --box does not name.

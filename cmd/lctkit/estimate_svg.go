@@ -189,7 +189,7 @@ func estimatePlot(r *estimateResult) string {
 	// Legend and caption.
 	s.printf(`<g class="legend" font-size="13">` + "\n")
 	for i, it := range legend {
-		x := 24.0 + float64(i%2)*290
+		x := 24.0 + float64(i%2)*276
 		ly := legendTop + float64(i/2)*legendRow
 		estimateSwatch(&s, it.kind, point{x, ly - 4.5})
 		s.markup(point{x + 42, ly}, `class="legend-label"`, it.label)
@@ -221,7 +221,14 @@ func estimateCaption(r *estimateResult, hasBound bool) []captionText {
 			lines = append(lines, captionText{plain, esc(l)})
 		}
 	}
-	for _, l := range wrap("Verdict: "+r.verdictText()+".", 72) {
+	where := "the origin"
+	if r.point != nil && !allZero(r.point) {
+		where = pointString(r.vars, r.point)
+	}
+	for _, l := range wrap(fmt.Sprintf("Box, as offsets from %s: %s.", where, compactBox(r.vars, r.lower, r.upper)), 80) {
+		lines = append(lines, captionText{plain, esc(l)})
+	}
+	for _, l := range wrap("Verdict: "+r.verdictText()+".", 60) {
 		lines = append(lines, captionText{`class="caption-verdict" font-size="14" font-weight="bold"`, esc(l)})
 	}
 	for _, n := range r.notes() {
@@ -277,4 +284,21 @@ func signedSuperscript(k int) string {
 		return "⁻" + superscript(-k)
 	}
 	return superscript(k)
+}
+
+// compactBox writes the box without spaces inside a range, so that wrapped
+// lines break only between variables.
+func compactBox(vars []string, lower, upper []float64) string {
+	same := true
+	for i := range vars {
+		same = same && lower[i] == lower[0] && upper[i] == upper[0]
+	}
+	if same && len(vars) > 1 {
+		return fmt.Sprintf("[%g, %g] in every variable", lower[0], upper[0])
+	}
+	parts := make([]string, len(vars))
+	for i, v := range vars {
+		parts[i] = fmt.Sprintf("%s∈[%g,%g]", v, lower[i], upper[i])
+	}
+	return strings.Join(parts, ", ")
 }

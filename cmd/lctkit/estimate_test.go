@@ -1,0 +1,568 @@
+package main
+
+import (
+	"bytes"
+	"context"
+	"encoding/json"
+	"errors"
+	"fmt"
+	"image/png"
+	"math"
+	"os"
+	"os/exec"
+	"path/filepath"
+	"slices"
+	"strconv"
+	"strings"
+	"testing"
+	"time"
+
+	"github.com/lctkit/lctkit/rlct"
+)
+
+// quick keeps the in-process estimates fast: 50 live points × 8 runs over 6
+// decades take well under a second.
+var quick = []string{"--live", "50", "--runs", "8", "--seed", "3"}
+
+// estimateJSONOf runs the command with --json and decodes the object.
+func estimateJSONOf(t *testing.T, args ...string) map[string]any {
+	t.Helper()
+	out, errOut, code := runCLI(t, "", append(append([]string{"estimate"}, args...), "--json")...)
+	if code != exitOK {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	var rep map[string]any
+	if err := json.Unmarshal([]byte(out), &rep); err != nil {
+		t.Fatalf("%v in %s", err, out)
+	}
+	return rep
+}
+
+// TestEstimateAgainstKnownValues runs the estimator on K with a published
+// learning coefficient and checks the estimate and the verdict. The
+// tolerances are 4 reported standard errors plus the fit bias documented
+// under rlct.EstimateThreshold (λ 0.006 and θ 0.1 for (x−y)²; for x²y² the
+// offset b is exact, and 0.01 and 0.1 are allowed for the terms the model
+// neglects).
+func TestEstimateAgainstKnownValues(t *testing.T) {
+	tests := []struct {
+		name               string
+		args               []string
+		lambda, theta      float64 // the learning coefficient and multiplicity
+		biasL, biasT       float64
+		bound, boundStatus string
+		verdict            string
+	}{
+		// x²y²: λ = 1/2, θ = 2 (monomial thresholds; Arnold, Gusein-Zade &
+		// Varchenko 1988, Singularities of Differentiable Maps Vol. II); the
+		// Newton value is exact.
+		{"x^2*y^2", []string{"x^2*y^2"}, 0.5, 2, 0.01, 0.1, "1/2", "exact", "consistent with the bound"},
+		// (x−y)²: Newton bound 1, but λ = 1/2, θ = 1 after u = x − y
+		// (coordinate invariance of λ; Watanabe 2009, Algebraic Geometry and
+		// Statistical Learning Theory).
+		{"(x-y)^2", []string{"(x-y)^2"}, 0.5, 1, 0.006, 0.1, "1", "upper-bound", "the bound is probably strict here"},
+		// The same at the point x = 1, written in x: the translation is exact.
+		{"shifted", []string{"(x-1)^2 - 2*(x-1)*y + y^2", "--at", "x=1"}, 0.5, 1, 0.006, 0.1, "1", "upper-bound", "the bound is probably strict here"},
+		// Sum of squares (s·g1 − 1)² + (s·g2)² at s = g1 = 1: the zero set is
+		// the smooth curve s·g1 = 1, g2 = 0 of codimension 2, so λ = 2/2 = 1,
+		// θ = 1 (regular case, common practice), while the Newton value is
+		// 3/2.
+		{"sum of squares", []string{"--sos", "s*g1 - 1; s*g2", "--at", "s=1,g1=1", "--box=-0.5:0.5"}, 1, 1, 0.01, 0.1, "3/2", "upper-bound", "the bound is probably strict here"},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			rep := estimateJSONOf(t, append(tc.args, quick...)...)
+			l, ls := rep["lambda_hat"].(float64), rep["lambda_se"].(float64)
+			th, ts := rep["theta_hat"].(float64), rep["theta_se"].(float64)
+			t.Logf("λ̂ = %.4f ± %.4f, θ̂ = %.3f ± %.3f", l, ls, th, ts)
+			if !(ls > 0) || !(ts > 0) {
+				t.Fatalf("standard errors %v, %v", ls, ts)
+			}
+			if tol := 4*ls + tc.biasL; math.Abs(l-tc.lambda) > tol {
+				t.Errorf("λ̂ = %.4f ± %.4f, want %g within %.4f", l, ls, tc.lambda, tol)
+			}
+			if tol := 4*ts + tc.biasT; math.Abs(th-tc.theta) > tol {
+				t.Errorf("θ̂ = %.3f ± %.3f, want %g within %.3f", th, ts, tc.theta, tol)
+			}
+			bound := rep["bound"].(map[string]any)
+			if bound["lambda"] != tc.bound || bound["status"] != tc.boundStatus {
+				t.Errorf("bound %v (%v), want %s (%s)", bound["lambda"], bound["status"], tc.bound, tc.boundStatus)
+			}
+			if v := rep["verdict"].(string); !strings.Contains(v, tc.verdict) {
+				t.Errorf("verdict %q, want %q", v, tc.verdict)
+			}
+		})
+	}
+}
+
+// TestEstimateText checks the plain output: the header says it is an
+// estimate, the table has one row per point of the JSON, and the verdict is
+// the library's.
+func TestEstimateText(t *testing.T) {
+	args := append([]string{"estimate", "(x-y)^2"}, quick...)
+	out, _, code := runCLI(t, "", args...)
+	if code != exitOK {
+		t.Fatalf("exit %d", code)
+	}
+	for _, want := range []string{
+		"Numerical ESTIMATE by nested sampling, not a proof.",
+		"do not cover that bias",
+		"K = (x-y)^2 at the origin",
+		"x ∈ [-1, 1], y ∈ [-1, 1]",
+		"50 live points × 8 runs, seed 3",
+		"Newton bound:  λ = 1 (1)   θ = 1   (upper bound)",
+		"verdict: below the bound by",
+		"the bound is probably strict here",
+	} {
+		if !strings.Contains(out, want) {
+			t.Errorf("output lacks %q:\n%s", want, out)
+		}
+	}
+	rep := estimateJSONOf(t, append([]string{"(x-y)^2"}, quick...)...)
+	points := rep["points"].([]any)
+	rows := 0
+	for _, line := range strings.Split(out, "\n") {
+		if strings.Contains(line, " ± ") && !strings.Contains(line, "λ̂") && !strings.Contains(line, "n·E_n[K]") {
+			rows++
+		}
+	}
+	if rows != len(points) {
+		t.Errorf("%d table rows, %d points in the JSON", rows, len(points))
+	}
+	// The verdict is the library's wording for the same numbers.
+	e := &rlct.Estimate{Lambda: rep["lambda_hat"].(float64), LambdaSE: rep["lambda_se"].(float64)}
+	if want := "verdict: " + e.Compare(1).Text; !strings.Contains(out, want) {
+		t.Errorf("output lacks %q", want)
+	}
+}
+
+// TestEstimateJSONFields checks the fields of --json.
+func TestEstimateJSONFields(t *testing.T) {
+	rep := estimateJSONOf(t, append([]string{"x^2*y^2"}, quick...)...)
+	for _, key := range []string{"estimate", "lambda_hat", "lambda_se", "theta_hat", "theta_se", "points", "bound",
+		"verdict", "consistent", "sigmas", "live", "runs", "seed", "evaluations", "variables", "box_lower", "box_upper", "prior"} {
+		if _, ok := rep[key]; !ok {
+			t.Errorf("JSON lacks %q", key)
+		}
+	}
+	if rep["live"] != 50.0 || rep["runs"] != 8.0 || rep["seed"] != 3.0 || !(rep["evaluations"].(float64) > 0) {
+		t.Errorf("live %v, runs %v, seed %v, evaluations %v", rep["live"], rep["runs"], rep["seed"], rep["evaluations"])
+	}
+	if !strings.Contains(rep["estimate"].(string), "not a proof") {
+		t.Errorf("estimate = %q", rep["estimate"])
+	}
+	points := rep["points"].([]any)
+	// 6 decades at 4 points per decade (rlct.EstimateOptions.Decades).
+	if len(points) != 25 {
+		t.Errorf("%d points, want 25", len(points))
+	}
+	prev := 0.0
+	for _, p := range points {
+		m := p.(map[string]any)
+		for _, k := range []string{"n", "y", "se", "fit"} {
+			if _, ok := m[k].(float64); !ok {
+				t.Fatalf("point %v lacks %s", m, k)
+			}
+		}
+		if n := m["n"].(float64); !(n > prev) {
+			t.Errorf("n = %v does not increase", n)
+		} else {
+			prev = n
+		}
+	}
+	// The bound is the object of `lctkit bound --json`.
+	out, _, _ := runCLI(t, "", "bound", "x^2*y^2", "--json")
+	var bound map[string]any
+	if err := json.Unmarshal([]byte(out), &bound); err != nil {
+		t.Fatal(err)
+	}
+	got, _ := json.Marshal(rep["bound"])
+	want, _ := json.Marshal(bound)
+	if !bytes.Equal(got, want) {
+		t.Errorf("bound %s, want %s", got, want)
+	}
+}
+
+// TestEstimateDeterministic checks that a seed fixes the output, whatever
+// the number of workers, and that another seed changes it.
+func TestEstimateDeterministic(t *testing.T) {
+	base := []string{"estimate", "x^2*y^2+x^4*y^2", "--live", "20", "--runs", "4", "--decades", "3"}
+	run := func(extra ...string) string {
+		out, errOut, code := runCLI(t, "", append(slices.Clone(base), extra...)...)
+		if code != exitOK {
+			t.Fatalf("exit %d: %s", code, errOut)
+		}
+		return out
+	}
+	a, b, c := run("--seed", "5", "--workers", "1"), run("--seed", "5", "--workers", "3"), run("--seed", "6")
+	if a != b {
+		t.Errorf("the same seed gave different output with 1 and 3 workers:\n%s\n%s", a, b)
+	}
+	if a == c {
+		t.Error("seeds 5 and 6 gave the same output")
+	}
+}
+
+// TestEstimateSVG checks the plot structurally: well-formed SVG with the
+// points, error bars, the fitted curve, the dashed bound with its status,
+// axis labels and legend, at positions that follow the numbers.
+func TestEstimateSVG(t *testing.T) {
+	file := filepath.Join(t.TempDir(), "curve.svg")
+	rep := estimateJSONOf(t, append([]string{"(x-y)^2", "--svg", file}, quick...)...)
+	data, err := os.ReadFile(file)
+	if err != nil {
+		t.Fatal(err)
+	}
+	els := parseSVG(t, data)
+	if err := checkFinite(els); err != nil {
+		t.Fatalf("non-finite coordinate: %v", err)
+	}
+	if w := attrFloat(t, els[0], "width"); w != curveWidth {
+		t.Errorf("width %g", w)
+	}
+	points := rep["points"].([]any)
+	circles := byClass(els, "point")
+	if len(circles) != len(points) || len(byClass(els, "error-bar")) != len(points) {
+		t.Fatalf("%d point markers and %d error bars for %d points", len(circles), len(byClass(els, "error-bar")), len(points))
+	}
+	// Markers sit where the numbers say: cx increases with log n at a
+	// constant rate, and cy is one decreasing affine function of y.
+	var xs, ys, cx, cy []float64
+	for i, p := range points {
+		m := p.(map[string]any)
+		xs = append(xs, math.Log10(m["n"].(float64)))
+		ys = append(ys, m["y"].(float64))
+		cx = append(cx, attrFloat(t, circles[i], "cx"))
+		cy = append(cy, attrFloat(t, circles[i], "cy"))
+	}
+	checkAffine(t, "cx against log n", xs, cx, 1)
+	checkAffine(t, "cy against y", ys, cy, -1)
+	for _, class := range []string{"fit", "bound", "limit", "limit-band", "frame", "x-axis-label", "y-axis-label", "title", "legend"} {
+		if len(byClass(els, class)) == 0 {
+			t.Errorf("no element of class %q", class)
+		}
+	}
+	if b := byClass(els, "bound"); len(b) == 1 && b[0].attrs["stroke-dasharray"] == "" {
+		t.Error("the bound line is not dashed")
+	}
+	label := byClass(els, "bound-label")
+	if len(label) != 1 || !strings.Contains(label[0].text, "λ = 1") || !strings.Contains(label[0].text, "upper bound") {
+		t.Errorf("bound label %q", texts(label))
+	}
+	if fit := byClass(els, "fit"); len(fit) == 1 && len(strings.Fields(fit[0].attrs["points"])) < 50 {
+		t.Errorf("the fitted curve has only %d points", len(strings.Fields(fit[0].attrs["points"])))
+	}
+	all := strings.Join(texts(els[:1]), "")
+	for _, want := range []string{"not a proof", "λ̂ =", "θ̂ =", "probably strict", "Newton bound", "10⁴"} {
+		if !strings.Contains(all, want) {
+			t.Errorf("the plot lacks the text %q", want)
+		}
+	}
+}
+
+// checkAffine checks that v = a + b·u for some b of the given sign.
+func checkAffine(t *testing.T, what string, u, v []float64, sign float64) {
+	t.Helper()
+	n := len(u)
+	b := (v[n-1] - v[0]) / (u[n-1] - u[0])
+	if b*sign <= 0 {
+		t.Errorf("%s: slope %g has the wrong sign", what, b)
+		return
+	}
+	for i := range u {
+		// Coordinates are written with one decimal.
+		if want := v[0] + b*(u[i]-u[0]); math.Abs(v[i]-want) > 0.2 {
+			t.Errorf("%s: point %d at %g, want %g", what, i, v[i], want)
+		}
+	}
+}
+
+// TestEstimatePlotWithoutBound draws the plot and text of an estimate whose
+// bound could not be computed.
+func TestEstimatePlotWithoutBound(t *testing.T) {
+	e := &rlct.Estimate{Lambda: 0.75, LambdaSE: 0.01, Theta: 1.1, ThetaSE: 0.1, Offset: 2, Live: 20, Runs: 4}
+	for i := range 9 {
+		n := math.Pow(10, 2+float64(i)/2)
+		e.Points = append(e.Points, rlct.EstimatePoint{N: n, Y: e.Curve(n) + 0.01*float64(i%2), SE: 0.01})
+	}
+	r := &estimateResult{title: "K = a*b + c^2", vars: []string{"a", "b", "c"}, lower: []float64{-1, -1, -1},
+		upper: []float64{1, 1, 1}, prior: []float64{0, 0, 0}, est: e, seed: 1, boundErr: errors.New("polyhedron: work limit exceeded")}
+	els := parseSVG(t, []byte(estimatePlot(r)))
+	if err := checkFinite(els); err != nil {
+		t.Fatal(err)
+	}
+	if len(byClass(els, "bound")) != 0 || len(byClass(els, "point")) != 9 {
+		t.Errorf("%d bound lines, %d points", len(byClass(els, "bound")), len(byClass(els, "point")))
+	}
+	if s := strings.Join(texts(els[:1]), ""); !strings.Contains(s, "not available: polyhedron: work limit exceeded") {
+		t.Errorf("the plot does not say the bound is missing")
+	}
+	var b bytes.Buffer
+	r.write(&b)
+	if !strings.Contains(b.String(), "Newton bound:  not available") || !strings.Contains(b.String(), "verdict: no Newton bound") {
+		t.Errorf("text output:\n%s", b.String())
+	}
+	out, err := json.Marshal(r.report())
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !strings.Contains(string(out), `"bound":{"error":"polyhedron: work limit exceeded"}`) || strings.Contains(string(out), `"consistent"`) {
+		t.Errorf("JSON %s", out)
+	}
+}
+
+// TestEstimateNotes checks the notes on a truncated series and on an exact
+// bound that the estimate contradicts.
+func TestEstimateNotes(t *testing.T) {
+	out, errOut, code := runCLI(t, "", append([]string{"estimate", "x^2*(1-cos(y))", "--order", "6"}, quick...)...)
+	if code != exitOK {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	if !strings.Contains(out, "power series cut at degree 6") || !strings.Contains(out, "proxy") {
+		t.Errorf("no note on the truncated series:\n%s", out)
+	}
+	bound, err := rlct.Bound(mustProblem(t, "x^2"), nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	r := &estimateResult{bound: bound, verdict: &rlct.Verdict{Consistent: false}}
+	if n := strings.Join(r.notes(), " "); !strings.Contains(n, "bias of the estimate") {
+		t.Errorf("notes %q", n)
+	}
+}
+
+func mustProblem(t *testing.T, src string) *rlct.Problem {
+	t.Helper()
+	p, _, err := (&rlct.Spec{K: src}).Problem()
+	if err != nil {
+		t.Fatal(err)
+	}
+	return p
+}
+
+// TestEstimateErrors checks that bad input gives a clear message and exit 1,
+// and usage errors exit 2.
+func TestEstimateErrors(t *testing.T) {
+	tests := []struct {
+		args []string
+		code int
+		want string
+	}{
+		{[]string{"x^2+y^2", "--box", "x=1:a"}, exitFailed, `--box: x: "a" is not a number`},
+		{[]string{"x^2+y^2", "--box", "1:0"}, exitFailed, `"1:0" is empty`},
+		{[]string{"x^2+y^2", "--box", "x=0.5:1"}, exitFailed, "does not contain the point"},
+		{[]string{"x^2+y^2", "--box", "z=1"}, exitFailed, `"z" is not a variable of K (variables: x, y)`},
+		{[]string{"x^2+y^2", "--box", "x=1,x=2"}, exitFailed, "x is given twice"},
+		{[]string{"x^2+y^2", "--box", "1,2"}, exitFailed, "only one range may be given without a variable name"},
+		{[]string{"x^2+y^2", "--box", "0"}, exitFailed, "must be positive"},
+		// K < 0 for x > 1/2: found by the sampler, reported with the point.
+		{[]string{"x^2*(1-2*x)+y^2"}, exitFailed, "K is negative at a sampled point: K(x="},
+		{[]string{"x^2+y^2+1"}, exitFailed, "K does not vanish at the point"},
+		{[]string{"x^3+y^2"}, exitFailed, "K takes negative values near the point"},
+		{[]string{"x^2+y^2", "--at", "x=0", "--at", "x=1"}, exitFailed, "one point at a time"},
+		{[]string{"x^2+y^2", "--live", "5"}, exitFailed, "need at least 10 live points"},
+		{[]string{"x^2+y^2", "--box"}, exitUsage, "expected box value"},
+		{[]string{"x^2+y^2", "--live", "many"}, exitUsage, "--live"},
+		{[]string{"x^2 + (y*"}, exitFailed, "1:10:"},
+	}
+	for _, tc := range tests {
+		t.Run(strings.Join(tc.args, " "), func(t *testing.T) {
+			args := append(append([]string{"estimate"}, tc.args...), "--runs", "2", "--live", "10")
+			if slices.Contains(tc.args, "--live") {
+				args = append([]string{"estimate"}, tc.args...)
+			}
+			_, errOut, code := runCLI(t, "", args...)
+			if code != tc.code || !strings.Contains(errOut, tc.want) {
+				t.Errorf("exit %d, stderr %q; want exit %d and %q", code, errOut, tc.code, tc.want)
+			}
+		})
+	}
+}
+
+// TestEstimateNegativeAtShiftedPoint checks that a K negative in the box
+// around a point other than the origin is reported in both coordinates.
+func TestEstimateNegativeAtShiftedPoint(t *testing.T) {
+	_, errOut, code := runCLI(t, "", "estimate", "(x-1)^2*(3-2*x)+y^2", "--at", "x=1", "--runs", "2", "--live", "10")
+	if code != exitFailed || !strings.Contains(errOut, "offsets x=") {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	// The point printed is 1 + the offset, and K is negative there.
+	var x, u float64
+	if _, err := fmt.Sscanf(errOut[strings.Index(errOut, "K(x="):], "K(x=%g", &x); err != nil {
+		t.Fatal(err)
+	}
+	if _, err := fmt.Sscanf(errOut[strings.Index(errOut, "offsets x="):], "offsets x=%g", &u); err != nil {
+		t.Fatal(err)
+	}
+	if math.Abs(x-(1+u)) > 1e-5 || x <= 1.5 {
+		t.Errorf("point x = %g, offset %g: K = (x−1)²(3−2x) + y² is negative only for x > 3/2", x, u)
+	}
+}
+
+func TestParseBox(t *testing.T) {
+	vars := []string{"x", "y", "z"}
+	tests := []struct {
+		spec         string
+		lower, upper []float64
+	}{
+		{"", []float64{-1, -1, -1}, []float64{1, 1, 1}},
+		{"-1:1", []float64{-1, -1, -1}, []float64{1, 1, 1}},
+		{"0.5", []float64{-0.5, -0.5, -0.5}, []float64{0.5, 0.5, 0.5}},
+		{"x=0:1", []float64{0, -1, -1}, []float64{1, 1, 1}},
+		{"x=0:1, y = 1/4 ,2", []float64{0, -0.25, -2}, []float64{1, 0.25, 2}},
+		{"z=-3:0,-1/2:1e-1", []float64{-0.5, -0.5, -3}, []float64{0.1, 0.1, 0}},
+	}
+	for _, tc := range tests {
+		lo, hi, err := parseBox(tc.spec, vars)
+		if err != nil {
+			t.Errorf("%q: %v", tc.spec, err)
+			continue
+		}
+		if !slices.Equal(lo, tc.lower) || !slices.Equal(hi, tc.upper) {
+			t.Errorf("%q: %v %v, want %v %v", tc.spec, lo, hi, tc.lower, tc.upper)
+		}
+	}
+	for _, bad := range []string{"x", "x=", ":", "1:", "a:1", "x=1:2", "w=1", "1:1", "-1", "x=0:1,x=0:1", "1,1", ",", "1e400", "x=1:0"} {
+		if _, _, err := parseBox(bad, vars); err == nil {
+			t.Errorf("%q: no error", bad)
+		}
+	}
+}
+
+// FuzzParseBox checks that any --box value gives an error or a box that
+// contains the point.
+func FuzzParseBox(f *testing.F) {
+	for _, s := range []string{"", "-1:1", "x=0:1,y=-1:1", "0.5", "x=1/2", "y=-1e-3:2,3", "x=:", "==,"} {
+		f.Add(s)
+	}
+	f.Fuzz(func(t *testing.T, s string) {
+		lo, hi, err := parseBox(s, []string{"x", "y"})
+		if err != nil {
+			return
+		}
+		for i := range lo {
+			if !(lo[i] <= 0 && 0 <= hi[i] && lo[i] < hi[i]) || math.IsInf(lo[i], 0) || math.IsInf(hi[i], 0) {
+				t.Errorf("%q: range %d is [%g, %g]", s, i, lo[i], hi[i])
+			}
+		}
+	})
+}
+
+// TestProgress checks the progress line with a fake clock: nothing in the
+// first second, then a line per new percentage, cleared at the end; nothing
+// at all when stderr is not a terminal.
+func TestProgress(t *testing.T) {
+	var b bytes.Buffer
+	now := time.Unix(0, 0)
+	p := newProgress(&env{stderr: &b, stderrTerminal: true})
+	p.start, p.now = now, func() time.Time { return now }
+	p.update(100, 1000)
+	if b.Len() != 0 {
+		t.Fatalf("printed within the first second: %q", b.String())
+	}
+	now = now.Add(1500 * time.Millisecond)
+	p.update(370, 1000)
+	p.update(371, 1000) // the same percentage
+	p.update(500, 1000)
+	p.finish()
+	want := "\rlctkit estimate:  37% after 2 s\rlctkit estimate:  50% after 2 s\r\033[K"
+	if b.String() != want {
+		t.Errorf("got %q, want %q", b.String(), want)
+	}
+	var quiet bytes.Buffer
+	q := newProgress(&env{stderr: &quiet})
+	q.update(1, 2)
+	q.finish()
+	if quiet.Len() != 0 {
+		t.Errorf("printed to a non-terminal: %q", quiet.String())
+	}
+}
+
+// TestEstimateProgressOnTerminal runs an estimate with a terminal stderr and
+// checks that the output is the same as without one.
+func TestEstimateProgressOnTerminal(t *testing.T) {
+	args := []string{"estimate", "x^2+y^2", "--live", "20", "--runs", "2"}
+	var out, errOut bytes.Buffer
+	if code := run(args, &env{stdout: &out, stderr: &errOut, stderrTerminal: true}); code != exitOK {
+		t.Fatalf("exit %d: %s", code, errOut.String())
+	}
+	plain, _, _ := runCLI(t, "", args...)
+	if out.String() != plain {
+		t.Error("the output depends on whether stderr is a terminal")
+	}
+}
+
+// TestEstimateRenders draws a plot, renders it with a headless Chromium and
+// checks that the screenshot shows the blue points, the vermillion fit and
+// dark text. It skips when Chromium is absent, and in -short mode.
+func TestEstimateRenders(t *testing.T) {
+	if testing.Short() {
+		t.Skip("rendering with Chromium is slow; skipped in -short mode")
+	}
+	browser := ""
+	for _, name := range []string{"chromium", "chromium-browser", "google-chrome"} {
+		if p, err := exec.LookPath(name); err == nil {
+			browser = p
+			break
+		}
+	}
+	if browser == "" {
+		t.Skip("Chromium is not installed (apt-get install chromium); not rendering")
+	}
+	dir := t.TempDir()
+	file := filepath.Join(dir, "curve.svg")
+	if _, errOut, code := runCLI(t, "", append([]string{"estimate", "x^2*y^2", "--svg", file}, quick...)...); code != exitOK {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	data, err := os.ReadFile(file)
+	if err != nil {
+		t.Fatal(err)
+	}
+	height := attrFloat(t, parseSVG(t, data)[0], "height")
+	shot := filepath.Join(dir, "shot.png")
+	ctx, cancel := context.WithTimeout(context.Background(), 90*time.Second)
+	defer cancel()
+	cmd := exec.CommandContext(ctx, browser, "--headless", "--no-sandbox", "--disable-gpu",
+		"--disable-background-networking", "--disable-component-update", "--disable-sync", "--no-first-run",
+		"--hide-scrollbars", "--user-data-dir="+filepath.Join(dir, "profile"),
+		"--screenshot="+shot, fmt.Sprintf("--window-size=%d,%d", curveWidth, int(math.Ceil(height))), "file://"+file)
+	if msg, err := cmd.CombinedOutput(); err != nil {
+		t.Fatalf("%s: %v\n%s", browser, err, msg)
+	}
+	f, err := os.Open(shot)
+	if err != nil {
+		t.Fatalf("no screenshot: %v", err)
+	}
+	defer f.Close()
+	img, err := png.Decode(f)
+	if err != nil {
+		t.Fatal(err)
+	}
+	near := func(r, g, b uint32, hex string) bool {
+		want, _ := strconv.ParseUint(hex[1:], 16, 32)
+		d := func(a uint32, b uint64) float64 { return math.Abs(float64(a) - float64(b)) }
+		return d(r, want>>16) < 40 && d(g, want>>8&0xff) < 40 && d(b, want&0xff) < 40
+	}
+	var blue, vermillion, dark int
+	bounds := img.Bounds()
+	for y := bounds.Min.Y; y < bounds.Max.Y; y++ {
+		for x := bounds.Min.X; x < bounds.Max.X; x++ {
+			r, g, b, _ := img.At(x, y).RGBA()
+			r, g, b = r>>8, g>>8, b>>8
+			switch {
+			case near(r, g, b, colorBlue):
+				blue++
+			case near(r, g, b, colorVermillion):
+				vermillion++
+			case r < 80 && g < 80 && b < 80:
+				dark++
+			}
+		}
+	}
+	t.Logf("%dx%d: %d blue, %d vermillion, %d dark pixels", bounds.Dx(), bounds.Dy(), blue, vermillion, dark)
+	// 25 markers of radius 3.8 with error bars, a 2.2 px curve across the
+	// plot, and the text: generous lower limits.
+	if blue < 400 || vermillion < 300 || dark < 3000 {
+		t.Errorf("the screenshot does not show the plot: %d blue, %d vermillion, %d dark pixels", blue, vermillion, dark)
+	}
+}
