@@ -93,13 +93,13 @@ func (p *Poly) scale(c coef) *Poly {
 	return r
 }
 
-// Mul returns p·q. Exponents of the product must stay below 2^62 (a caller
-// mistake otherwise; Mul panics).
+// Mul returns p·q. Exponents of the product must stay below 2^62; Mul
+// panics otherwise (a caller mistake; the parser reports it as an error).
 func (p *Poly) Mul(q *Poly) *Poly {
 	sameVars(p, q)
 	r, err := mul(p, q, -1, nil)
 	if err != nil {
-		panic(err) // unreachable: no limits were given
+		panic(err) // exponent overflow: no other limits were given
 	}
 	return r
 }
@@ -108,6 +108,8 @@ func (p *Poly) Mul(q *Poly) *Poly {
 var (
 	errTooManyTerms = errors.New("monomial: too many terms")
 	errTooMuchWork  = errors.New("monomial: too much work")
+	// errExponentOverflow reports an exponent of 2^62 or more.
+	errExponentOverflow = errors.New("monomial: exponent overflow (2^62 or more)")
 )
 
 // guard carries the limits of a computation through its steps: the term
@@ -179,7 +181,7 @@ func mul(p, q *Poly, maxDeg int, g *guard) (*Poly, error) {
 	for i := range n {
 		s := maxP[i] + maxQ[i]
 		if s < maxP[i] || s >= 1<<62 {
-			panic("monomial: exponent overflow in Mul")
+			return nil, errExponentOverflow
 		}
 		width[i] = uint(bits.Len(uint(s)))
 		total += width[i]
@@ -471,9 +473,11 @@ type Limits struct {
 	// MaxTerms bounds the number of terms of a result (and of intermediate
 	// results while parsing). Default 2,000,000.
 	MaxTerms int
-	// MaxExponent bounds the exponent n of a power p^n, checked before any
-	// work (for a rational exponent p/q in an expression, both |p| and q).
-	// Default 10,000.
+	// MaxExponent bounds the exponent n of a power p^n of a polynomial with
+	// two or more terms, checked before any work (and, for a rational
+	// exponent p/q in an expression, both |p| and q). Powers of a single
+	// term are cheap and only limited by MaxBits and by exponent overflow
+	// (exponents must stay below 2^62). Default 10,000.
 	MaxExponent int
 	// MaxOrder bounds Config.Order, the total degree of truncated series.
 	// Default 1,000.
@@ -554,19 +558,20 @@ func (e *LimitError) Error() string {
 
 // Pow returns p^n for n >= 0 (p^0 = 1, also for p = 0). Before expanding it
 // estimates the result and returns a *LimitError, without doing the work,
-// when n exceeds lim.MaxExponent, when an upper bound on the number of terms
+// when n exceeds lim.MaxExponent (for p with two or more terms), when an upper bound on the number of terms
 // exceeds lim.MaxTerms, when the estimated coefficient size exceeds
 // lim.MaxBits, or when the estimated work exceeds lim.MaxWork. The term
 // bound is the least of the number of multisets of n terms of p, the number
 // of exponents in the box n·[min_i, max_i], and the number of monomials of
 // total degree at most n·Degree(p). Being upper bounds, these estimates can
-// refuse a power whose terms would largely cancel.
+// refuse a power whose terms would largely cancel. Pow also returns an
+// error when an exponent of the result would reach 2^62.
 func (p *Poly) Pow(n int, lim Limits) (*Poly, error) {
 	lim = lim.withDefaults()
 	if n < 0 {
 		return nil, fmt.Errorf("monomial: Pow: negative exponent %d", n)
 	}
-	if n > lim.MaxExponent {
+	if n > lim.MaxExponent && p.Len() > 1 {
 		return nil, &LimitError{Limit: "MaxExponent", Value: float64(n), Max: lim.MaxExponent, What: "power"}
 	}
 	if est := p.powTermBound(n); est > float64(lim.MaxTerms) {
@@ -579,8 +584,8 @@ func (p *Poly) Pow(n int, lim Limits) (*Poly, error) {
 		return nil, &LimitError{Limit: "MaxWork", Value: est, Max: lim.MaxWork, What: fmt.Sprintf("power ^%d of a %d-term polynomial", n, p.Len())}
 	}
 	if n > 0 && len(p.coefs) > 0 {
-		if md := slices.Max(maxExponents(p)); md > 0 && n > (1<<62)/md {
-			return nil, &LimitError{Limit: "MaxExponent", Value: float64(n), Max: lim.MaxExponent, What: "power"}
+		if md := slices.Max(maxExponents(p)); md > 0 && n >= (1<<62)/md {
+			return nil, errExponentOverflow
 		}
 	}
 	return p.pow(n, -1, newGuard(lim))
@@ -691,24 +696,21 @@ func (p *Poly) powWork(n int) float64 {
 	return w
 }
 
-// powBitsBound estimates the size in bits of the coefficients of p^n: the
-// coefficients of p^n are bounded by (Σ|num|)^n over a common denominator
-// at most (Π den)^n.
+// powBitsBound bounds the size in bits of the coefficients of p^n. With
+// D the product of the denominators, p = (1/D)·Σ a_i x^(e_i) with integers
+// |a_i| <= |num_i|·D, so the coefficients of p^n are integers at most
+// (Σ|a_i|)^n over D^n: about n·(log2 t + max log2|num_i| + 2·log2 D) bits.
 func (p *Poly) powBitsBound(n int) float64 {
 	if len(p.coefs) == 0 {
 		return 0
 	}
-	sum, den := 0.0, 0.0
+	maxNum, logD := 0.0, 0.0
 	for _, c := range p.coefs {
-		b := float64(c.bitLen())
-		sum = math.Max(sum, b)
-		if c.big != nil {
-			den += float64(c.big.Denom().BitLen())
-		} else {
-			den += float64(bits.Len64(uint64(c.den)))
-		}
+		num, den := c.log2Parts()
+		maxNum = math.Max(maxNum, num)
+		logD += den
 	}
-	return float64(n) * (sum + den + math.Log2(float64(len(p.coefs))))
+	return float64(n) * (math.Log2(float64(len(p.coefs))) + maxNum + 2*logD)
 }
 
 // binomialF returns C(n, k) in floating point (+Inf if huge).

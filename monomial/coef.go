@@ -275,6 +275,26 @@ func (c coef) bitLen() int {
 	return bits.Len64(abs64(c.num)) + bits.Len64(uint64(c.den))
 }
 
+// log2Parts returns log2 of |numerator| (0 for 0) and of the denominator.
+func (c coef) log2Parts() (num, den float64) {
+	log2 := func(x *big.Int) float64 {
+		if x.Sign() == 0 {
+			return 0
+		}
+		if x.IsInt64() {
+			return math.Log2(math.Abs(float64(x.Int64())))
+		}
+		return float64(x.BitLen())
+	}
+	if c.big != nil {
+		return log2(c.big.Num()), log2(c.big.Denom())
+	}
+	if c.num == 0 {
+		return 0, 0
+	}
+	return math.Log2(float64(abs64(c.num))), math.Log2(float64(c.den))
+}
+
 // powInt returns c^n for n >= 0.
 func (c coef) powInt(n int) coef {
 	r := coefOne

@@ -2,6 +2,10 @@ package monomial
 
 import "fmt"
 
+// maxTablePower bounds the powers x_v^1 … x_v^k kept in the per-call power
+// table of Compiled.Eval; higher powers are computed by repeated squaring.
+const maxTablePower = 64
+
 // Compiled is a float64 evaluator of a polynomial, for numerical estimation
 // (never for exact answers). It keeps flat arrays and no maps, is immutable,
 // and is safe for concurrent use.
@@ -9,29 +13,41 @@ type Compiled struct {
 	nvars   int
 	coefs   []float64 // coefficient of each term, rounded to float64
 	start   []int32   // factors of term t are factors[start[t]:start[t+1]]
-	factors []int32   // index into the power table: offset[v] + k - 1 for x_v^k
-	offset  []int     // power table offset of each variable
-	maxExp  []int     // largest exponent of each variable
-	size    int       // power table size, Σ maxExp
+	factors []factor
+	offset  []int // power table offset of each variable
+	tabled  []int // powers of each variable kept in the table
+	size    int   // power table size
+}
+
+// factor is x_v^e in a term: table[idx] when idx >= 0, else computed.
+type factor struct {
+	idx int32
+	v   int32
+	e   int
 }
 
 // Compile returns a float64 evaluator of p. Coefficients are rounded to
-// the nearest float64.
+// the nearest float64 (so huge ones become ±Inf).
 func (p *Poly) Compile() *Compiled {
 	n := len(p.vars)
 	c := &Compiled{nvars: n, coefs: make([]float64, len(p.coefs)), start: make([]int32, 0, len(p.coefs)+1)}
-	c.maxExp = maxExponents(p)
+	c.tabled = maxExponents(p)
 	c.offset = make([]int, n)
 	for v := range n {
+		c.tabled[v] = min(c.tabled[v], maxTablePower)
 		c.offset[v] = c.size
-		c.size += c.maxExp[v]
+		c.size += c.tabled[v]
 	}
 	for t, k := range p.coefs {
 		c.coefs[t] = k.float64()
 		c.start = append(c.start, int32(len(c.factors)))
 		for v, e := range p.exp(t) {
-			if e > 0 {
-				c.factors = append(c.factors, int32(c.offset[v]+e-1))
+			switch {
+			case e == 0:
+			case e <= maxTablePower:
+				c.factors = append(c.factors, factor{idx: int32(c.offset[v] + e - 1), v: int32(v), e: e})
+			default:
+				c.factors = append(c.factors, factor{idx: -1, v: int32(v), e: e})
 			}
 		}
 	}
@@ -54,7 +70,7 @@ func (c *Compiled) Eval(x []float64) float64 {
 	} else {
 		table = make([]float64, c.size)
 	}
-	for v, m := range c.maxExp {
+	for v, m := range c.tabled {
 		if m == 0 {
 			continue
 		}
@@ -67,9 +83,28 @@ func (c *Compiled) Eval(x []float64) float64 {
 	sum := 0.0
 	for t, a := range c.coefs {
 		for _, f := range c.factors[c.start[t]:c.start[t+1]] {
-			a *= table[f]
+			if f.idx >= 0 {
+				a *= table[f.idx]
+			} else {
+				a *= powi(x[f.v], f.e)
+			}
 		}
 		sum += a
 	}
 	return sum
+}
+
+// powi returns x^e for e >= 0 by repeated squaring.
+func powi(x float64, e int) float64 {
+	r := 1.0
+	for e > 0 {
+		if e&1 == 1 {
+			r *= x
+		}
+		e >>= 1
+		if e > 0 {
+			x *= x
+		}
+	}
+	return r
 }

@@ -6,22 +6,24 @@ import (
 	"strings"
 )
 
-// Eval returns p(x) exactly. It panics if len(x) != NumVars.
+// Eval returns p(x) exactly. It panics if len(x) != NumVars. Its cost
+// grows with the size of the powers x_i^k, which is large for large k
+// unless x_i is 0 or ±1.
 func (p *Poly) Eval(x []*big.Rat) *big.Rat {
 	if len(x) != len(p.vars) {
 		panic(fmt.Sprintf("monomial: Eval: %d values for %d variables", len(x), len(p.vars)))
 	}
-	// powers[v][k] = x[v]^(k+1), filled on demand.
-	powers := make([][]*big.Rat, len(x))
+	// Powers are computed by exponentiation by squaring and cached.
+	type key struct{ v, k int }
+	cache := map[key]*big.Rat{}
 	power := func(v, k int) *big.Rat {
-		for len(powers[v]) < k {
-			next := new(big.Rat).Set(x[v])
-			if m := len(powers[v]); m > 0 {
-				next.Mul(next, powers[v][m-1])
-			}
-			powers[v] = append(powers[v], next)
+		if r, ok := cache[key{v, k}]; ok {
+			return r
 		}
-		return powers[v][k-1]
+		e := big.NewInt(int64(k))
+		r := new(big.Rat).SetFrac(new(big.Int).Exp(x[v].Num(), e, nil), new(big.Int).Exp(x[v].Denom(), e, nil))
+		cache[key{v, k}] = r
+		return r
 	}
 	sum, t := new(big.Rat), new(big.Rat)
 	for i, c := range p.coefs {
@@ -123,7 +125,8 @@ func (p *Poly) shift(v int, a coef) *Poly {
 // String returns p in the syntax read by Parse, in term order, for example
 // "3*x^2*y - 1/2*z + 4"; the zero polynomial prints as "0". When the
 // variable names are identifiers of the expression language (not function
-// names), Parse(p.String(), Config{Vars: p.Vars()}) returns p again.
+// names), Parse(p.String(), Config{Vars: p.Vars()}) returns p again, within
+// the parser's Limits on the number of variables and terms.
 func (p *Poly) String() string {
 	if len(p.coefs) == 0 {
 		return "0"

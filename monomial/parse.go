@@ -3,6 +3,7 @@ package monomial
 import (
 	"errors"
 	"fmt"
+	"math"
 	"math/big"
 	"slices"
 	"strings"
@@ -570,8 +571,11 @@ func (p *parser) call(name string, nameTok token) (value, *Error) {
 
 // limitErr turns an error of a guarded computation into a parse error.
 func (p *parser) limitErr(err error, t token, v value) *Error {
-	if errors.Is(err, errTooMuchWork) {
+	switch {
+	case errors.Is(err, errTooMuchWork):
 		return p.errAt(t, "%s needs more work than the limit %d allows (Limits.MaxWork)", p.snippet(v), p.lim.MaxWork)
+	case errors.Is(err, errExponentOverflow):
+		return p.errAt(t, "%s: exponents of 2^62 or more are not supported", p.snippet(v))
 	}
 	return p.tooMany(t, v)
 }
@@ -633,8 +637,15 @@ func (p *parser) raise(base, ex value, op token) (value, *Error) {
 		return r, p.errAt(op, "the exponent %s is not a constant", p.snippet(ex))
 	}
 	e := ex.p.constCoef().rat()
-	if e.Num().CmpAbs(big.NewInt(int64(p.lim.MaxExponent))) > 0 || e.Denom().Cmp(big.NewInt(int64(p.lim.MaxExponent))) > 0 {
-		return r, p.errAt(op, "exponent %s exceeds the limit %d (Limits.MaxExponent)", shorten(e.RatString()), p.lim.MaxExponent)
+	// A power of a single term costs nothing to expand, so MaxExponent
+	// applies to the powers of sums and to rational exponents only.
+	if !e.Num().IsInt64() || !e.Denom().IsInt64() || e.Num().Int64() == math.MinInt64 {
+		return r, p.errAt(op, "exponent %s is too large", shorten(e.RatString()))
+	}
+	if base.p.Len() > 1 || !e.IsInt() {
+		if e.Num().CmpAbs(big.NewInt(int64(p.lim.MaxExponent))) > 0 || e.Denom().Cmp(big.NewInt(int64(p.lim.MaxExponent))) > 0 {
+			return r, p.errAt(op, "exponent %s exceeds the limit %d (Limits.MaxExponent)", shorten(e.RatString()), p.lim.MaxExponent)
+		}
 	}
 	n := int(e.Num().Int64())
 	if n == 0 {
@@ -647,7 +658,8 @@ func (p *parser) raise(base, ex value, op token) (value, *Error) {
 		if c.isZero() && e.Sign() < 0 {
 			return r, p.errAt(op, "division by zero: %s", p.snippet(r))
 		}
-		if bitsEst := float64(c.bitLen()) * float64(abs(n)); bitsEst > float64(p.lim.MaxBits) {
+		ln, ld := c.log2Parts()
+		if bitsEst := (ln + ld) * math.Abs(float64(n)); bitsEst > float64(p.lim.MaxBits) {
 			return r, p.errAt(op, "%s would have about %.3g bits, more than the limit %d (Limits.MaxBits)", p.snippet(r), bitsEst, p.lim.MaxBits)
 		}
 		v, ok := ratPow(c.ratView(), e)
@@ -665,7 +677,7 @@ func (p *parser) raise(base, ex value, op token) (value, *Error) {
 				if errors.As(perr, &le) {
 					return r, p.errAt(op, "%s", strings.TrimPrefix(strings.Replace(le.Error(), le.What, p.snippet(r), 1), "monomial: "))
 				}
-				return r, p.errAt(op, "%s: %v", p.snippet(r), perr)
+				return r, p.limitErr(perr, op, r)
 			}
 			r.p, r.exact = res, true
 			return r, nil

@@ -131,7 +131,7 @@ var invalidCases = []struct {
 	{"(1+x)^(1/100001)", 3, "1:6: exponent 1/100001 exceeds the limit 10000 (Limits.MaxExponent)"},
 	{"1e1000000000", 0, "1:1: number 1e1000000000 is too large: its decimal exponent exceeds 10000"},
 	{"1e10001", 0, "1:1: number 1e10001 is too large: its decimal exponent exceeds 10000"},
-	{"(1e300)^10000", 0, "1:8: (1e300)^10000 would have about 9.98e+06 bits, more than the limit 1000000 (Limits.MaxBits)"},
+	{"(1e300)^10000", 0, "1:8: (1e300)^10000 would have about 9.97e+06 bits, more than the limit 1000000 (Limits.MaxBits)"},
 	// Positions count lines and runes.
 	{"x +\n  # é\n  y +", 0, "3:6: expected operand, found end of input"},
 	{"é", 0, "1:1: unexpected character 'é'"},
@@ -329,6 +329,14 @@ func TestNaturalCompare(t *testing.T) {
 // TestStringRoundTrip: Parse(p.String()) == p for random polynomials
 // (common practice).
 func TestStringRoundTrip(t *testing.T) {
+	huge, _ := FromTerms([]string{"x", "y"}, []Exponent{{123456, 0}, {1 << 40, 7}, {0, 0}},
+		rats("-100000000000000000000000000000/7", "1/3", "-1"))
+	for _, p := range []*Poly{huge, Zero(nil), Zero([]string{"unused"}), Constant(nil, rat("-5/2"))} {
+		e, err := Parse(p.String(), Config{Vars: p.Vars()})
+		if err != nil || !e.Poly.Equal(p) {
+			t.Errorf("round trip of %q: %v, %v", p, e, err)
+		}
+	}
 	r := rand.New(rand.NewPCG(11, 12))
 	vars := []string{"w10", "a", "b_3", "x2"} // deliberately not in natural order
 	for range 200 {
@@ -407,5 +415,31 @@ func TestWorkLimit(t *testing.T) {
 	}
 	if _, err := Parse("(1+x)^200", Config{}); err != nil {
 		t.Error(err)
+	}
+}
+
+// TestHugeExponents: exponents that would overflow are errors, not panics.
+func TestHugeExponents(t *testing.T) {
+	a := "((x^10000)^10000)^10000" // x^(10^12)
+	b := "(" + a + ")^10000"       // x^(10^16)
+	for _, src := range []string{
+		"(" + b + ")^500",                         // 5·10^18 >= 2^62 ≈ 4.6·10^18
+		"(" + b + ")^400 * (" + b + ")^400",       // 8·10^18
+		"(" + b + ")^400 * (1 + (" + b + ")^400)", // same, with the generic path
+	} {
+		_, err := Parse(src, Config{})
+		if err == nil || !strings.Contains(err.Error(), "exponents of 2^62 or more are not supported") {
+			t.Errorf("Parse(%q): err = %v", src, err)
+		}
+	}
+	e, err := Parse(a+"*y", Config{})
+	if err != nil || e.Poly.String() != "x^1000000000000*y" {
+		t.Fatalf("x^(10^12)*y = %v, %v", e, err)
+	}
+	if got := e.Poly.Eval([]*big.Rat{big.NewRat(-1, 1), big.NewRat(3, 1)}); got.Cmp(big.NewRat(3, 1)) != 0 {
+		t.Errorf("(-1)^(10^12)*3 = %v", got)
+	}
+	if got := e.Poly.Compile().Eval([]float64{-1, 3}); got != 3 {
+		t.Errorf("compiled (-1)^(10^12)*3 = %v", got)
 	}
 }

@@ -451,10 +451,13 @@ func TestCompiled(t *testing.T) {
 			t.Fatalf("Compiled.Eval = %v, exact %v (scale %v)", got, want, scale)
 		}
 	}
-	// A large power table (more than the stack buffer) still works.
-	p := Monomial([]string{"x"}, Exponent{300}, rat("2"))
-	if got := p.Compile().Eval([]float64{1.001}); math.Abs(got-2*math.Pow(1.001, 300)) > 1e-12 {
-		t.Errorf("x^300 compiled = %v", got)
+	// High powers (beyond the power table) and a table larger than the
+	// stack buffer still work.
+	p, _ := FromTerms([]string{"x", "y", "z"}, []Exponent{{300, 0, 0}, {0, 64, 64}, {0, 63, 1 << 40}}, rats("2", "1", "1"))
+	// z^(2^40) at 0.99 underflows to 0 in float64, so the last term is 0.
+	want := 2*math.Pow(1.001, 300) + math.Pow(1.01, 64)*math.Pow(0.99, 64)
+	if got := p.Compile().Eval([]float64{1.001, 1.01, 0.99}); math.Abs(got-want) > 1e-12 {
+		t.Errorf("compiled = %v, want %v", got, want)
 	}
 }
 
