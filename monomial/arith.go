@@ -603,6 +603,12 @@ func (p *Poly) pow(n, maxDeg int, g *guard) (*Poly, error) {
 		e := slices.Clone(p.exp(0))
 		d := 0
 		for i := range e {
+			if e[i] > 0 && n >= (1<<62)/e[i] {
+				if maxDeg >= 0 {
+					return &Poly{vars: p.vars}, nil // far above the order
+				}
+				return nil, errExponentOverflow
+			}
 			e[i] *= n
 			d += e[i]
 		}

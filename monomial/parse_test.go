@@ -432,6 +432,10 @@ func TestHugeExponents(t *testing.T) {
 			t.Errorf("Parse(%q): err = %v", src, err)
 		}
 	}
+	// In series mode such powers are far above the order: zero, truncated.
+	if e, err := Parse("(x^3)^4611686018427387904 + (x*y)^4611686018427387903 + 1", Config{Order: 5}); err != nil || e.Poly.String() != "1" || !e.Truncated {
+		t.Errorf("huge powers in series mode: %v, %v", e, err)
+	}
 	e, err := Parse(a+"*y", Config{})
 	if err != nil || e.Poly.String() != "x^1000000000000*y" {
 		t.Fatalf("x^(10^12)*y = %v, %v", e, err)
