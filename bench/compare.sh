@@ -7,7 +7,8 @@
 #                    the d unit rays), then t = max over facets of b/(a·τ)
 #
 # Times are whole-process wall seconds of the tool alone (writing its input
-# and reading its output are not timed). Pareto filtering is done for lrs and
+# and reading its output are not timed), with the CPU seconds (user+system)
+# beside them, which are less sensitive to a busy machine. Pareto filtering is done for lrs and
 # cdd (without it they are 10–100× slower); glpsol gets all points, as lctkit.
 # The exact t of every tool is printed so agreement is visible (glpsol prints
 # its exact optimum only as a decimal).
@@ -41,75 +42,77 @@ fi
 
 have() { command -v "$1" >/dev/null 2>&1; }
 
-# timed CMD...: runs CMD under timeout REPEAT times (once if it times out
-# or fails) and sets ELAPSED to the least wall time in seconds, and RC.
+# timed CMD...: runs CMD under timeout REPEAT times (once if it times out,
+# fails or takes over 5 s) and sets ELAPSED to the least wall time and CPU to
+# the least user+system CPU time, in seconds, and RC. Stdout goes to TIMED_OUT.
 timed() {
-	local t0 t1 e best="" k
+	local e c best="" bestc="" k
 	for ((k = 0; k < REPEAT; k++)); do
-		t0=$(date +%s.%N)
 		set +e
-		timeout "$TIMEOUT" "$@"
+		/usr/bin/time -f "%e %U %S" -o "$OUT/work/.time" timeout "$TIMEOUT" "$@" >"$TIMED_OUT"
 		RC=$?
 		set -e
-		t1=$(date +%s.%N)
 		if [ "$RC" = 124 ]; then
-			ELAPSED=">$TIMEOUT"
+			ELAPSED=">$TIMEOUT" CPU="-"
 			return
 		fi
-		e=$(awk -v a="$t0" -v b="$t1" 'BEGIN { printf "%.3f", b - a }')
+		read -r e c < <(awk 'END { printf "%.3f %.3f\n", $1, $2 + $3 }' "$OUT/work/.time")
 		if [ -z "$best" ] || awk -v a="$e" -v b="$best" 'BEGIN { exit !(a < b) }'; then best=$e; fi
+		if [ -z "$bestc" ] || awk -v a="$c" -v b="$bestc" 'BEGIN { exit !(a < b) }'; then bestc=$c; fi
 		[ "$RC" = 0 ] || break
 		awk -v a="$e" 'BEGIN { exit !(a > 5) }' && break # long runs: once is enough
 	done
-	ELAPSED=$best
+	ELAPSED=$best CPU=$bestc
 }
 
 field() { sed -n "s/.*\b$1=\([^ ]*\).*/\1/p" "$2" | head -1; }
 ratio() { awk -v a="$1" -v b="$2" 'BEGIN { if (a ~ /^>/ || b ~ /^>/ || a == "n/a" || b == "n/a" || b == 0) print "-"; else printf "%.1f", a / b }'; }
 
-printf '%-20s %3s %7s %6s | %8s %-22s %8s %7s | %8s %-14s %6s | %8s %8s %-22s %6s\n' \
-	instance d N minimal lctkit t lct-fac facets glpsol "glpsol t" ratio lrs cdd "t (lrs;cdd)" ratio
+# Times are "wall/cpu" seconds (least of REPEAT runs each).
+printf '%-20s %3s %7s %6s | %13s %-18s %13s %6s | %13s %-13s %5s | %13s %13s %-20s %5s\n' \
+	instance d N minimal lctkit t lct-facets facets glpsol "glpsol t" ratio lrs cdd "t (lrs;cdd)" ratio
 for name in "${INSTANCES[@]}"; do
 	f="$OUT/inst/$name.txt"
 	w="$OUT/work/$name"
 	read -r d npts < <(grep -v '^#' "$f" | head -1)
 	# lctkit: distance + face
-	timed "$ND" "$f" >"$w.lct"
-	lct=$ELAPSED
+	TIMED_OUT="$w.lct" timed "$ND" "$f"
+	lct=$ELAPSED lctc=$CPU
 	lt=$(field t "$w.lct")
 	minimal=$(field minimal "$w.lct")
 	# lctkit: facets
-	timed "$ND" -facets "$f" >"$w.lctf"
-	lctf=$ELAPSED
+	TIMED_OUT="$w.lctf" timed "$ND" -facets "$f"
+	lctf=$ELAPSED lctfc=$CPU
 	nfac=$(field facets "$w.lctf")
 	lft=$(field t "$w.lctf")
 	[ -n "$lft" ] && [ "$lft" != "$lt" ] && lt="$lt!=$lft"
 	# glpsol --exact on the same LP
-	glp=n/a gt=n/a
+	glp=n/a gt=n/a glpc=-
 	if have glpsol; then
 		"$ND" -lp "$f" >"$w.lp"
-		timed glpsol --exact --lp "$w.lp" -o "$w.glp" >/dev/null
-		glp=$ELAPSED
+		TIMED_OUT=/dev/null timed glpsol --exact --lp "$w.lp" -o "$w.glp"
+		glp=$ELAPSED glpc=$CPU
 		gt=$(sed -n 's/^Objective: *obj = *\([^ ]*\).*/\1/p' "$w.glp" 2>/dev/null || true)
 	fi
 	"$ND" -ext "$f" >"$w.ext"
-	lrs=n/a lrst=-
+	lrs=n/a lrst=- lrsc=-
 	if have lrs; then
-		timed lrs "$w.ext" "$w.lrs.ine" >/dev/null 2>&1
-		lrs=$ELAPSED
+		TIMED_OUT=/dev/null timed lrs "$w.ext" "$w.lrs.ine" 2>/dev/null
+		lrs=$ELAPSED lrsc=$CPU
 		[ "$RC" = 0 ] && lrst=$(field t <("$ND" -ine "$w.lrs.ine") || true)
 	fi
-	cdd=n/a cddt=-
+	cdd=n/a cddt=- cddc=-
 	if have scdd_gmp; then
 		rm -f "$w.ine"
-		timed scdd_gmp "$w.ext" >/dev/null 2>&1
-		cdd=$ELAPSED
+		TIMED_OUT=/dev/null timed scdd_gmp "$w.ext" 2>/dev/null
+		cdd=$ELAPSED cddc=$CPU
 		[ "$RC" = 0 ] && cddt=$(field t <("$ND" -ine "$w.ine") || true)
 	fi
 	best=$lrs
 	if [ "$lrs" = n/a ] || [[ "$lrs" == \>* ]] || { [ "$cdd" != n/a ] && [[ "$cdd" != \>* ]] && awk -v a="$cdd" -v b="$lrs" 'BEGIN{exit !(a<b)}'; }; then best=$cdd; fi
-	printf '%-20s %3s %7s %6s | %8s %-22s %8s %7s | %8s %-14s %6s | %8s %8s %-22s %6s\n' \
-		"$name" "$d" "$npts" "$minimal" "$lct" "$lt" "$lctf" "${nfac:--}" "$glp" "$gt" "$(ratio "$glp" "$lct")" \
-		"$lrs" "$cdd" "$lrst;$cddt" "$(ratio "$best" "$lctf")"
+	printf '%-20s %3s %7s %6s | %13s %-18s %13s %6s | %13s %-13s %5s | %13s %13s %-20s %5s\n' \
+		"$name" "$d" "$npts" "$minimal" "$lct/$lctc" "$lt" "$lctf/$lctfc" "${nfac:--}" "$glp/$glpc" "$gt" "$(ratio "$glp" "$lct")" \
+		"$lrs/$lrsc" "$cdd/$cddc" "$lrst;$cddt" "$(ratio "$best" "$lctf")"
 done
-echo "ratio columns: glpsol time / lctkit distance time; faster of lrs and cdd / lctkit facet time."
+echo "times: wall/cpu seconds (cpu = user+system); ratios use wall times: glpsol / lctkit distance,"
+echo "faster of lrs and cdd / lctkit facets. Load average at the end: $(cut -d' ' -f1-3 /proc/loadavg)"

@@ -303,28 +303,35 @@ func vertexFilter(d int, pts [][]int) [][]int {
 	}
 	slices.SortStableFunc(order, func(a, b int) int { return -sums[a].cmp(sums[b]) })
 	workers := runtime.GOMAXPROCS(0)
+	if len(pts) < 256 {
+		workers = 1 // not worth waking other threads
+	}
 	batch := 64 * workers
 	for start := 0; start < len(order); start += batch {
 		part := order[start:min(start+batch, len(order))]
 		var next atomic.Int64
+		work := func() {
+			var q []int
+			for {
+				i := int(next.Add(1) - 1)
+				if i >= len(part) {
+					return
+				}
+				k := part[i]
+				q = candidatesBelow(k, pts, supp, bySupport, d, q[:0])
+				q = slices.DeleteFunc(q, func(j int) bool { return removed[j] })
+				isV[k] = isVertex(pts[k], pts, q)
+			}
+		}
 		var wg sync.WaitGroup
-		for w := 0; w < workers; w++ {
+		for w := 1; w < workers; w++ {
 			wg.Add(1)
 			go func() {
 				defer wg.Done()
-				var q []int
-				for {
-					i := int(next.Add(1) - 1)
-					if i >= len(part) {
-						return
-					}
-					k := part[i]
-					q = candidatesBelow(k, pts, supp, bySupport, d, q[:0])
-					q = slices.DeleteFunc(q, func(j int) bool { return removed[j] })
-					isV[k] = isVertex(pts[k], pts, q)
-				}
+				work()
 			}()
 		}
+		work()
 		wg.Wait()
 		for _, k := range part {
 			removed[k] = !isV[k]

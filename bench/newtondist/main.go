@@ -17,11 +17,12 @@ package main
 
 import (
 	"bufio"
+	"bytes"
 	"flag"
 	"fmt"
+	"math"
 	"math/big"
 	"os"
-	"strconv"
 	"strings"
 	"time"
 
@@ -100,42 +101,69 @@ func main() {
 		len(n.Minimal()), len(n.Vertices()), built.Round(time.Millisecond), time.Since(start).Round(time.Millisecond))
 }
 
+// read parses the instance file without per-line allocations (the files
+// hold up to 10^5 lines).
 func read(path string) (int, [][]int, error) {
-	f, err := os.Open(path)
+	data, err := os.ReadFile(path)
 	if err != nil {
 		return 0, nil, err
 	}
-	defer f.Close()
-	sc := bufio.NewScanner(f)
-	sc.Buffer(make([]byte, 1<<20), 1<<26)
 	d, want, line := -1, 0, 0
 	var pts [][]int
-	for sc.Scan() {
+	var flat []int
+	var vals []int
+	for len(data) > 0 {
 		line++
-		s := strings.TrimSpace(sc.Text())
-		if s == "" || s[0] == '#' {
+		end := bytes.IndexByte(data, '\n')
+		var ln []byte
+		if end < 0 {
+			ln, data = data, nil
+		} else {
+			ln, data = data[:end], data[end+1:]
+		}
+		ln = bytes.TrimSpace(ln)
+		if len(ln) == 0 || ln[0] == '#' {
 			continue
 		}
-		fields := strings.Fields(s)
-		vals := make([]int, len(fields))
-		for i, x := range fields {
-			if vals[i], err = strconv.Atoi(x); err != nil {
-				return 0, nil, fmt.Errorf("%s:%d: %v", path, line, err)
+		vals = vals[:0]
+		for i := 0; i < len(ln); {
+			for i < len(ln) && (ln[i] == ' ' || ln[i] == '\t') {
+				i++
 			}
+			if i == len(ln) {
+				break
+			}
+			v, start := 0, i
+			for i < len(ln) && ln[i] >= '0' && ln[i] <= '9' {
+				if v > (math.MaxInt-9)/10 {
+					return 0, nil, fmt.Errorf("%s:%d: number too large", path, line)
+				}
+				v = 10*v + int(ln[i]-'0')
+				i++
+			}
+			if i == start || (i < len(ln) && ln[i] != ' ' && ln[i] != '\t') {
+				return 0, nil, fmt.Errorf("%s:%d: want nonnegative integers", path, line)
+			}
+			vals = append(vals, v)
 		}
 		if d < 0 {
 			if len(vals) != 2 {
 				return 0, nil, fmt.Errorf("%s:%d: want header \"d N\"", path, line)
 			}
 			d, want = vals[0], vals[1]
+			flat = make([]int, 0, d*want)
 			continue
 		}
-		pts = append(pts, vals)
+		if len(vals) != d {
+			return 0, nil, fmt.Errorf("%s:%d: %d exponents, want %d", path, line, len(vals), d)
+		}
+		if len(flat)+d > cap(flat) {
+			flat = make([]int, 0, 1024*d)
+		}
+		flat = append(flat, vals...)
+		pts = append(pts, flat[len(flat)-d:len(flat):len(flat)])
 	}
-	if err := sc.Err(); err != nil {
-		return 0, nil, err
-	}
-	if len(pts) != want {
+	if d < 0 || len(pts) != want {
 		return 0, nil, fmt.Errorf("%s: header announces %d points, file has %d", path, want, len(pts))
 	}
 	return d, pts, nil
