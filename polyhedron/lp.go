@@ -38,6 +38,7 @@ const (
 	Unbounded                  // the objective is unbounded below
 )
 
+// String returns the lower-case name of the status.
 func (s LPStatus) String() string {
 	switch s {
 	case Optimal:
