@@ -25,7 +25,7 @@ type estimateCmd struct {
 	Box     boxFlag `help:"The box sampled, as offsets from the point: R (meaning -R:R) or A:B for every variable, or per variable x=0:1,y=0.5; unnamed variables get -1:1." placeholder:"x=0:1,y=-1:1"`
 	Live    int     `help:"Live points per run (default 200; at least 10)." placeholder:"N"`
 	Runs    int     `help:"Independent runs, merged for the estimate and left out one at a time for the error bars (default 16; at least 2)." placeholder:"R"`
-	Seed    uint64  `help:"Master seed; the same seed gives the same numbers." default:"1" placeholder:"S"`
+	Seed    uint64  `help:"Master seed (default 1); the same seed gives the same numbers." default:"1" placeholder:"S"`
 	Decades float64 `help:"Decades of n in the fitted grid (default 6, at most 10)." placeholder:"D"`
 	Start   float64 `help:"Low end of the grid: n·(median of K) = 10^START (default 2, up to 6). Raise it when the low end is not yet asymptotic." placeholder:"START"`
 	Workers int     `help:"Goroutines (default: all cores). The numbers do not depend on it." placeholder:"N"`

@@ -93,8 +93,12 @@ func (r *estimateResult) write(w io.Writer) {
 
 	fmt.Fprintf(w, "estimate:      λ̂ = %s   θ̂ = %s\n", plusMinus(e.Lambda, e.LambdaSE), plusMinus(e.Theta, e.ThetaSE))
 	if r.bound != nil {
-		l, _ := r.bound.Lambda.Float64()
-		fmt.Fprintf(w, "Newton bound:  λ = %s (%.4g)   θ = %d   (%s)\n", r.bound.Lambda.RatString(), l, r.bound.Theta, boundStatus(r.bound))
+		value := r.bound.Lambda.RatString()
+		if !r.bound.Lambda.IsInt() {
+			l, _ := r.bound.Lambda.Float64()
+			value += fmt.Sprintf(" (%.4g)", l)
+		}
+		fmt.Fprintf(w, "Newton bound:  λ = %s   θ = %d   (%s)\n", value, r.bound.Theta, boundStatus(r.bound))
 	} else {
 		fmt.Fprintf(w, "Newton bound:  not available: %v\n", r.boundErr)
 	}

@@ -107,7 +107,7 @@ func estimatePlot(r *estimateResult) string {
 
 	// Grid and axes.
 	s.printf(`<g class="grid" stroke="%s" stroke-width="1">`+"\n", colorGrid)
-	ystep := tickStep(yhi-ylo, 6)
+	ystep := tickStep(yhi-ylo, 8)
 	var yticks []float64
 	for v := math.Ceil(ylo/ystep) * ystep; v <= yhi+1e-12; v += ystep {
 		yticks = append(yticks, v)

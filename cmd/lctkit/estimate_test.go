@@ -110,7 +110,7 @@ func TestEstimateText(t *testing.T) {
 		"K = (x-y)^2 at the origin",
 		"x ∈ [-1, 1], y ∈ [-1, 1]",
 		"50 live points × 8 runs, seed 3",
-		"Newton bound:  λ = 1 (1)   θ = 1   (upper bound)",
+		"Newton bound:  λ = 1   θ = 1   (upper bound)",
 		"verdict: below the bound by",
 		"the bound is probably strict here",
 	} {
@@ -564,5 +564,36 @@ func TestEstimateRenders(t *testing.T) {
 	// plot, and the text: generous lower limits.
 	if blue < 400 || vermillion < 300 || dark < 3000 {
 		t.Errorf("the screenshot does not show the plot: %d blue, %d vermillion, %d dark pixels", blue, vermillion, dark)
+	}
+}
+
+// TestEstimateDocsPictures checks the example plots committed under
+// docs/estimate (written by the commands in the README there): well-formed,
+// finite, 600 px wide, with the parts of the plot.
+func TestEstimateDocsPictures(t *testing.T) {
+	files, err := filepath.Glob("../../docs/estimate/*.svg")
+	if err != nil {
+		t.Fatal(err)
+	}
+	if len(files) == 0 {
+		t.Fatal("no example plots in docs/estimate")
+	}
+	for _, file := range files {
+		data, err := os.ReadFile(file)
+		if err != nil {
+			t.Fatal(err)
+		}
+		els := parseSVG(t, data)
+		if err := checkFinite(els); err != nil {
+			t.Errorf("%s: non-finite coordinate %v", file, err)
+		}
+		if w := attrFloat(t, els[0], "width"); w != curveWidth {
+			t.Errorf("%s: width %g", file, w)
+		}
+		for _, class := range []string{"point", "error-bar", "fit", "bound", "bound-label", "legend", "x-axis-label", "y-axis-label"} {
+			if len(byClass(els, class)) == 0 {
+				t.Errorf("%s: no element of class %q", file, class)
+			}
+		}
 	}
 }
