@@ -106,12 +106,14 @@ func (n *Newton) Distance(tau []*big.Rat) (*Hit, error) {
 // a generator belongs to the face holding x in its relative interior iff it
 // has a positive coefficient in some representation of x (common practice:
 // the generators of the minimal face are exactly the ones used by some
-// representation). These are found by repeated exact LPs, each maximising
-// the total weight of the generators not yet seen positive, until the
-// maximum is 0 (at most one LP per new generator, usually one or two). The
-// dimension is the affine rank of the vertices plus rays, and the normal is
-// an exposing inequality found by an exact LP with lazily added vertex
-// constraints.
+// representation). First, a float64 search proposes strictly positive
+// weights on all of them; if an exact representation with all weights
+// positive is then verified, the face is P ∩ {a·y = b} itself. Otherwise
+// exact LPs on one tableau, each maximising the total weight of the
+// generators not yet seen positive, run until that maximum is 0; the dual of
+// the last one separates the remaining generators and gives, combined with
+// (a, b), an exposing normal (see faceFromShot). The dimension is the exact
+// affine rank of the vertices plus rays.
 func (n *Newton) FaceAt(x []*big.Rat) (*Face, error) {
 	if len(x) != n.d {
 		return nil, fmt.Errorf("%w: point has %d coordinates, want %d", ErrDimension, len(x), n.d)
