@@ -55,12 +55,16 @@ func TestLimitsContext(t *testing.T) {
 		t.Fatalf("live context: %d faces, error %v; want %d", len(lat.Faces), err, len(wantFaces.Faces))
 	}
 
-	// A cancelled context stops both enumerations, and the error is kept.
+	// A cancelled context stops New, and both enumerations of a Newton
+	// built before the cancellation; the error is kept.
 	ctx, cancel := context.WithCancel(context.Background())
-	cancel()
 	stopped, err := NewWithLimits(d, pts, Limits{Context: ctx})
 	if err != nil {
 		t.Fatal(err)
+	}
+	cancel()
+	if _, err := NewWithLimits(d, pts, Limits{Context: ctx}); !errors.Is(err, context.Canceled) {
+		t.Errorf("New with a cancelled context: error %v, want context.Canceled", err)
 	}
 	for range 2 {
 		if _, err := stopped.Facets(); !errors.Is(err, context.Canceled) {

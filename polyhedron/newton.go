@@ -61,13 +61,15 @@ type Limits struct {
 	// MaxFaces bounds the number of compact faces built by CompactFaces
 	// (default 1,000,000).
 	MaxFaces int
-	// Context, if non-nil, lets the caller stop the enumerations: Facets
-	// checks it before each vertex constraint it adds, and CompactFaces
-	// before extending each face of the level it is on. Once the context
-	// is done they return an error wrapping ctx.Err() (test with
-	// errors.Is(err, context.DeadlineExceeded), for instance). Their results
-	// are cached, so later calls on the same Newton return that error too:
-	// build a new Newton to retry. New and Distance do not check it.
+	// Context, if non-nil, lets the caller stop long work: NewWithLimits
+	// checks it before each vertex test (an exact LP), Facets before each
+	// vertex constraint it adds, and CompactFaces before extending each
+	// face of the level it is on. Once the context is done they return an
+	// error wrapping ctx.Err() (test with errors.Is(err,
+	// context.DeadlineExceeded), for instance). The results of Facets and
+	// CompactFaces are cached, so later calls on the same Newton return
+	// that error too: build a new Newton to retry. Distance and FaceAt do
+	// not check it (they solve a few small LPs).
 	Context context.Context
 }
 
@@ -128,7 +130,10 @@ func NewWithLimits(d int, points [][]int, lim Limits) (*Newton, error) {
 	}
 	n := &Newton{d: d, limits: lim}
 	n.minimal = paretoMinimal(d, points)
-	n.vertices = vertexFilter(d, n.minimal)
+	var err error
+	if n.vertices, err = vertexFilter(d, n.minimal, lim.Context); err != nil {
+		return nil, err
+	}
 	for _, v := range n.vertices {
 		for _, x := range v {
 			n.maxCoord = max(n.maxCoord, int64(x))
@@ -278,7 +283,7 @@ func paretoMinimal(d int, points [][]int) [][]int {
 
 // vertexFilter returns the vertices of the Newton polyhedron of the
 // Pareto-minimal points pts (sorted; the result keeps the order).
-func vertexFilter(d int, pts [][]int) [][]int {
+func vertexFilter(d int, pts [][]int, ctx context.Context) ([][]int, error) {
 	words := (d + 63) / 64
 	supp := make([][]uint64, len(pts))
 	bySupport := map[string][]int{}
@@ -314,7 +319,7 @@ func vertexFilter(d int, pts [][]int) [][]int {
 			var q []int
 			for {
 				i := int(next.Add(1) - 1)
-				if i >= len(part) {
+				if i >= len(part) || contextErr(ctx) != nil {
 					return
 				}
 				k := part[i]
@@ -333,6 +338,9 @@ func vertexFilter(d int, pts [][]int) [][]int {
 		}
 		work()
 		wg.Wait()
+		if err := contextErr(ctx); err != nil {
+			return nil, err
+		}
 		for _, k := range part {
 			removed[k] = !isV[k]
 		}
@@ -343,7 +351,7 @@ func vertexFilter(d int, pts [][]int) [][]int {
 			out = append(out, p)
 		}
 	}
-	return out
+	return out, nil
 }
 
 // candidatesBelow appends to q the indices j != k of the points whose
