@@ -73,11 +73,12 @@ type Options struct {
 	Limits polyhedron.Limits
 
 	// Context, if non-nil, lets the caller stop a long computation: Bound
-	// checks it on entry (so BoundAt checks it between points), before each
-	// compact face it decides, and passes it to the polyhedron enumerations
-	// when Limits.Context is nil (see polyhedron.Limits). Once it is done,
-	// Bound returns an error wrapping ctx.Err() instead of a partial
-	// answer. Parsing (Spec.Problem) and the distance LP do not check it.
+	// checks it on entry (so BoundAt checks it between points) and before
+	// each compact face it decides, and passes it to the Newton polyhedron
+	// (its vertex tests and enumerations) when Limits.Context is nil (see
+	// polyhedron.Limits). Once it is done, Bound returns an error wrapping
+	// ctx.Err() instead of a partial answer. Parsing and expanding K
+	// (Spec.Problem) and the distance LP do not check it.
 	Context context.Context
 }
 
