@@ -65,23 +65,23 @@ white space) gives {"line": N, "error": "blank line"}. A line longer than
 of the output for problems with many faces.
 
 Records are computed on --workers goroutines and written in input order as
-each one is ready (at most 16 per worker wait in memory), so output can be
-followed while the run goes on and an interrupted run keeps every record
-written. --shard i/n splits one input among n runs (on n machines, say): the
+each one is ready (at most 16 records per worker are held in memory), so the
+output can be followed while the run goes on, and an interrupted run keeps
+every record written. --shard i/n splits one input among n runs (on n machines, say): the
 outputs of shards 0/n, 1/n, …, (n−1)/n together hold every line exactly once,
 and sorting their concatenation by "line" gives the unsharded output.
 
 --timeout limits each record, from reading it to its answer; a record over it
-gives the error "timed out after 10s" (for --timeout 10s). The Newton polyhedron
-enumeration and the face checks stop at the deadline; parsing and expanding K
-are not interrupted (--max-terms bounds them), so such a record ends late but
-is still reported as timed out.
+gives the error "timed out after 10s" (for --timeout 10s). Building the Newton
+polyhedron, enumerating its faces and checking them stop at the deadline;
+parsing and expanding K are not interrupted (--max-terms bounds them), so a
+record stuck there ends late, and is still reported as timed out.
 
 A progress line is drawn on standard error when it is a terminal, and a summary
 line is always printed there at the end.
 
 Exit status: 0 every record answered; 3 some records carry an error; 2 usage
-error (a bad flag); 1 the input could not be read.
+error (a bad flag); 1 the input could not be read (or the output written).
 
 Examples:
   lctkit batch problems.jsonl > answers.jsonl
