@@ -47,7 +47,9 @@ bias: check that the points follow the fitted curve (--svg), and raise --start
 or shrink --box when they do not. Use it to see whether a degenerate bound is
 probably strict, not to certify a value.
 
-The box is in offsets from the point (--at). The prior of --prior is used for
+The box is in offsets from the point (--at). The estimate is for the whole
+box: if K vanishes elsewhere in it too, it is the smallest λ over those zeros,
+so keep the box small enough to hold no worse zero than the point. The prior of --prior is used for
 coordinates where the point is 0; elsewhere it is smooth and positive near the
 point and is sampled as uniform, as in the bound. A K given with --sos is
 evaluated as the sum of the squared generators. A series cut at --order is
@@ -63,8 +65,18 @@ Examples:
   lctkit estimate --sos 's*g1 - 1; s*g2' --at s=1,g1=1 --box=-0.5:0.5 --json`
 }
 
-// Run estimates and prints.
+// Run estimates and prints. With --json, an error is also printed as an
+// object {"error": …}, as by lctkit bound.
 func (c *estimateCmd) Run(e *env) error {
+	err := c.run(e)
+	var ee exitError
+	if err != nil && c.JSON && !errors.As(err, &ee) {
+		writeJSON(e.stdout, &rlct.Report{Error: err.Error()})
+	}
+	return err
+}
+
+func (c *estimateCmd) run(e *env) error {
 	s, note, err := c.spec(c.Expr, e)
 	if err != nil {
 		return err
@@ -101,6 +113,13 @@ func (c *estimateCmd) Run(e *env) error {
 		return err
 	}
 
+	var unused []string // prior exponents at coordinates where the point is not 0
+	for i, v := range vars {
+		if p.Prior != nil && p.Prior[i].Sign() != 0 && p.Point != nil && p.Point[i].Sign() != 0 {
+			unused = append(unused, v)
+		}
+	}
+
 	prog := newProgress(e)
 	est, err := rlct.EstimateProblem(context.Background(), p, rlct.EstimateOptions{
 		Lower: lower, Upper: upper, Prior: prior,
@@ -119,6 +138,7 @@ func (c *estimateCmd) Run(e *env) error {
 	res := &estimateResult{
 		title: pictureTitle(s), vars: vars, point: p.Point, lower: lower, upper: upper, prior: prior,
 		est: est, seed: c.Seed, bound: bound, boundErr: berr, truncated: p.Truncated, order: p.Order,
+		unusedPrior: unused,
 	}
 	if bound != nil {
 		l, _ := bound.Lambda.Float64()

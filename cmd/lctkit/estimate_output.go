@@ -26,6 +26,7 @@ type estimateResult struct {
 	verdict      *rlct.Verdict // nil without a bound
 	truncated    bool
 	order        int
+	unusedPrior  []string // variables whose --prior exponent is not used
 }
 
 // estimateCaution is the warning printed with every estimate.
@@ -82,6 +83,10 @@ func (r *estimateResult) write(w io.Writer) {
 	fmt.Fprintf(w, "%s %s\n", r.title, where)
 	fmt.Fprintf(w, "box (offsets from the point): %s\n", boxString(r.vars, r.lower, r.upper))
 	fmt.Fprintf(w, "prior: %s\n", priorString(r.vars, r.prior))
+	if len(r.unusedPrior) > 0 {
+		fmt.Fprintf(w, "  (the --prior exponents of %s are not used: the point is not 0 there, where the factor is smooth and positive)\n",
+			strings.Join(r.unusedPrior, ", "))
+	}
 	fmt.Fprintf(w, "sampling: %d live points × %d runs, seed %d, %d evaluations of K\n\n", e.Live, e.Runs, r.seed, e.Evaluations)
 
 	dec := tableDecimals(e.Points)

@@ -379,6 +379,27 @@ func TestEstimateErrors(t *testing.T) {
 	}
 }
 
+// TestEstimateUnusedPrior checks that a prior exponent at a coordinate where
+// the point is not 0 is reported as unused, as the bound sets τ = 1 there.
+func TestEstimateUnusedPrior(t *testing.T) {
+	out, errOut, code := runCLI(t, "", "estimate", "(x-1)^2*y^2", "--at", "x=1", "--prior", "x=1,y=1", "--runs", "2", "--live", "10")
+	if code != exitOK {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	if !strings.Contains(out, "prior: proportional to |y|^1\n") || !strings.Contains(out, "--prior exponents of x are not used") {
+		t.Errorf("output:\n%s", out)
+	}
+}
+
+// TestEstimateJSONError checks that --json prints an error object too.
+func TestEstimateJSONError(t *testing.T) {
+	out, _, code := runCLI(t, "", "estimate", "x^2+y^2", "--box", "z=1", "--json")
+	var rep map[string]any
+	if code != exitFailed || json.Unmarshal([]byte(out), &rep) != nil || !strings.Contains(fmt.Sprint(rep["error"]), "not a variable") {
+		t.Errorf("exit %d, output %q", code, out)
+	}
+}
+
 // TestEstimateNegativeAtShiftedPoint checks that a K negative in the box
 // around a point other than the origin is reported in both coordinates.
 func TestEstimateNegativeAtShiftedPoint(t *testing.T) {
