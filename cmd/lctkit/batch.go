@@ -277,6 +277,9 @@ func (c *batchCmd) solve(it batchItem, id *json.RawMessage) *rlct.Report {
 	if it.err != nil {
 		return &rlct.Report{Error: it.err.Error()}
 	}
+	if it.line == 1 { // a byte order mark, as some editors write
+		it.data = bytes.TrimPrefix(it.data, []byte("\ufeff"))
+	}
 	if len(bytes.TrimSpace(it.data)) == 0 {
 		return &rlct.Report{Error: "blank line"}
 	}

@@ -142,6 +142,10 @@ func TestBatchAllFine(t *testing.T) {
 	if code != exitOK || out != "" {
 		t.Errorf("empty input: exit %d, output %q", code, out)
 	}
+	out, _, code = runCLI(t, "\ufeff{\"id\": 1, \"k\": \"x^2\"}\r\n{\"id\": 2, \"k\": \"y^2\"}\r\n", "batch")
+	if recs := parseBatch(t, out); code != exitOK || len(recs) != 2 || recs[1].Lambda != "1/2" {
+		t.Errorf("byte order mark and CRLF: exit %d, output %s", code, out)
+	}
 }
 
 // sweepInput returns n records of the low-rank family, some repeated
