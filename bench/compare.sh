@@ -6,6 +6,8 @@
 #   lrs, scdd_gmp    facet enumeration of the V-form (Pareto-minimal points plus
 #                    the d unit rays), then t = max over facets of b/(a·τ)
 #
+# The lctkit facet column runs on the same Pareto-minimal points as lrs and cdd
+# (the distance column on all N points, like glpsol).
 # Times are whole-process wall seconds of the tool alone (writing its input
 # and reading its output are not timed), with the CPU seconds (user+system)
 # beside them, which are less sensitive to a busy machine. Pareto filtering is done for lrs and
@@ -80,8 +82,9 @@ for name in "${INSTANCES[@]}"; do
 	lct=$ELAPSED lctc=$CPU
 	lt=$(field t "$w.lct")
 	minimal=$(field minimal "$w.lct")
-	# lctkit: facets
-	TIMED_OUT="$w.lctf" timed "$ND" -facets "$f"
+	# lctkit: facets, on the same Pareto-minimal points that lrs and cdd get
+	"$ND" -minimal "$f" >"$w.min"
+	TIMED_OUT="$w.lctf" timed "$ND" -facets "$w.min"
 	lctf=$ELAPSED lctfc=$CPU
 	nfac=$(field facets "$w.lctf")
 	lft=$(field t "$w.lctf")

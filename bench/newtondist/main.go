@@ -8,6 +8,7 @@
 // outputs:
 //
 //	newtondist [-facets] FILE   distance and face (or facets) of FILE
+//	newtondist -minimal FILE    the Pareto-minimal points, in the same text format
 //	newtondist -ext FILE        V-representation (Pareto-minimal points and the
 //	                            d unit rays) in the lrs/cdd input format
 //	newtondist -lp FILE         the ray-shooting LP over all points in CPLEX LP format
@@ -33,10 +34,11 @@ func main() {
 	facets := flag.Bool("facets", false, "enumerate facets and take the maximum of b/(a·τ)")
 	ext := flag.Bool("ext", false, "write the V-representation of the Pareto-minimal points")
 	lp := flag.Bool("lp", false, "write the ray-shooting LP in CPLEX LP format")
+	minimal := flag.Bool("minimal", false, "write the Pareto-minimal points in the instance format")
 	ine := flag.Bool("ine", false, "read an H-representation and print the exact distance")
 	flag.Parse()
 	if flag.NArg() != 1 {
-		fmt.Fprintln(os.Stderr, "usage: newtondist [-facets|-ext|-lp|-ine] FILE")
+		fmt.Fprintln(os.Stderr, "usage: newtondist [-facets|-minimal|-ext|-lp|-ine] FILE")
 		os.Exit(2)
 	}
 	if *ine {
@@ -60,6 +62,21 @@ func main() {
 	built := time.Since(start)
 	if *ext {
 		writeExt(d, n.Minimal())
+		return
+	}
+	if *minimal {
+		w := bufio.NewWriter(os.Stdout)
+		fmt.Fprintf(w, "# Pareto-minimal points of %s\n%d %d\n", flag.Arg(0), d, len(n.Minimal()))
+		for _, p := range n.Minimal() {
+			for i, x := range p {
+				if i > 0 {
+					w.WriteByte(' ')
+				}
+				fmt.Fprint(w, x)
+			}
+			w.WriteByte('\n')
+		}
+		w.Flush()
 		return
 	}
 	if *lp {
