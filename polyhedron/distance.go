@@ -29,7 +29,10 @@ type Face struct {
 	Dim      int   // dimension of the face
 	// Normal a >= 0 (primitive integer) and RHS b with a·x >= b on P and
 	// face = P ∩ {a·x = b}. Normal is strictly positive in every coordinate
-	// iff the face is compact.
+	// iff the face is compact. Any such a lies in the relative interior of
+	// the face's normal cone; it is unique (up to scale) only for facets.
+	// CompactFaces uses the sum of the facet normals, Distance and FaceAt a
+	// normal built from LP duals, so compare faces by Vertices and Rays.
 	Normal []*big.Int
 	RHS    *big.Int
 	// Facets holds the indices into Facets() of the facets containing the
