@@ -211,7 +211,7 @@ func (c *batchCmd) Run(e *env) error {
 		return err
 	}
 	if nf > 0 {
-		return exitError{exitRecords}
+		return exitError{code: exitRecords}
 	}
 	return nil
 }

@@ -82,7 +82,7 @@ func showSpecError(e *env, err error) error {
 			label = "K"
 		}
 		printError(e.stderr, label, se.Src, se.Err)
-		return exitError{exitFailed}
+		return exitError{exitFailed, se.Err}
 	}
 	return err
 }
@@ -125,10 +125,7 @@ func (c *boundCmd) Run(e *env) error {
 	r, err := solve(s, e)
 	if err != nil {
 		if c.JSON {
-			var ee exitError
-			if !errors.As(err, &ee) {
-				writeJSON(e.stdout, &rlct.Report{Error: err.Error()})
-			}
+			writeJSONError(e, err)
 		}
 		return err
 	}
@@ -157,6 +154,19 @@ func parseSizes(s string) ([]float64, error) {
 		out = append(out, n)
 	}
 	return out, nil
+}
+
+// writeJSONError prints {"error": …} for a failed command run with --json,
+// also when the message was already shown on stderr with a caret.
+func writeJSONError(e *env, err error) {
+	var ee exitError
+	if errors.As(err, &ee) {
+		if ee.err == nil {
+			return
+		}
+		err = ee.err
+	}
+	writeJSON(e.stdout, &rlct.Report{Error: err.Error()})
 }
 
 func writeJSON(w io.Writer, v any) error {

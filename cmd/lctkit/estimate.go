@@ -69,9 +69,8 @@ Examples:
 // object {"error": …}, as by lctkit bound.
 func (c *estimateCmd) Run(e *env) error {
 	err := c.run(e)
-	var ee exitError
-	if err != nil && c.JSON && !errors.As(err, &ee) {
-		writeJSON(e.stdout, &rlct.Report{Error: err.Error()})
+	if err != nil && c.JSON {
+		writeJSONError(e, err)
 	}
 	return err
 }

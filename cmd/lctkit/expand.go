@@ -48,13 +48,13 @@ func (c *expandCmd) Run(e *env) error {
 		names, point, err = monomial.ParseBindings(c.At)
 		if err != nil {
 			printError(e.stderr, "--at", c.At, err)
-			return exitError{exitFailed}
+			return exitError{exitFailed, err}
 		}
 	}
 	ex, err := monomial.Parse(src, monomial.Config{Vars: appendNew(vars, names...), Order: c.Order})
 	if err != nil {
 		printError(e.stderr, "", src, err)
-		return exitError{exitFailed}
+		return exitError{exitFailed, err}
 	}
 	p := ex.Poly
 	if point != nil {

@@ -2,7 +2,6 @@ package main
 
 import (
 	"bytes"
-	"errors"
 	"fmt"
 	"io"
 	"math/big"
@@ -46,10 +45,7 @@ func (c *facesCmd) Run(e *env) error {
 	descs, err := describe(s, e)
 	if err != nil {
 		if c.JSON {
-			var ee exitError
-			if !errors.As(err, &ee) {
-				writeJSON(e.stdout, &rlct.Report{Error: err.Error()})
-			}
+			writeJSONError(e, err)
 		}
 		return err
 	}

@@ -57,8 +57,11 @@ type env struct {
 }
 
 // exitError carries an exit code out of a command after its message has
-// been printed.
-type exitError struct{ code int }
+// been printed; err, when set, is the error that was shown.
+type exitError struct {
+	code int
+	err  error
+}
 
 func (e exitError) Error() string { return fmt.Sprintf("exit status %d", e.code) }
 

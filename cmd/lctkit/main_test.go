@@ -137,3 +137,24 @@ func TestPenalty(t *testing.T) {
 		}
 	}
 }
+
+// With --json every failure is also an object {"error": …} on stdout,
+// positioned parse errors included.
+func TestJSONErrorObjects(t *testing.T) {
+	for _, args := range [][]string{
+		{"bound", "x^2 + (y*", "--json"},
+		{"bound", "x^2+1", "--json"},
+		{"faces", "x^2 + (y*", "--json"},
+		{"estimate", "x^2 + (y*", "--json"},
+	} {
+		out, _, code := runCLI(t, "", args...)
+		var rep map[string]any
+		if err := json.Unmarshal([]byte(out), &rep); err != nil || code != exitFailed {
+			t.Errorf("%v: exit %d, stdout %q", args, code, out)
+			continue
+		}
+		if msg, _ := rep["error"].(string); msg == "" {
+			t.Errorf("%v: no error field in %s", args, out)
+		}
+	}
+}
