@@ -3,6 +3,7 @@ package rlct
 import (
 	"fmt"
 	"math/big"
+	"slices"
 	"strings"
 
 	"github.com/lctkit/lctkit/monomial"
@@ -141,14 +142,7 @@ func (s *Spec) Problem() (*Problem, [][]*big.Rat, error) {
 // appendNew appends the names not already in list.
 func appendNew(list []string, names ...string) []string {
 	for _, n := range names {
-		found := false
-		for _, m := range list {
-			if m == n {
-				found = true
-				break
-			}
-		}
-		if !found {
+		if !slices.Contains(list, n) {
 			list = append(list, n)
 		}
 	}

@@ -4,6 +4,7 @@ import (
 	"encoding/json"
 	"fmt"
 	"math/big"
+	"slices"
 
 	"github.com/lctkit/lctkit/monomial"
 )
@@ -51,7 +52,12 @@ func (c *expandCmd) Run(e *env) error {
 			return exitError{exitFailed, err}
 		}
 	}
-	ex, err := monomial.Parse(src, monomial.Config{Vars: appendNew(vars, names...), Order: c.Order})
+	for _, n := range names {
+		if !slices.Contains(vars, n) {
+			vars = append(vars, n)
+		}
+	}
+	ex, err := monomial.Parse(src, monomial.Config{Vars: vars, Order: c.Order})
 	if err != nil {
 		printError(e.stderr, "", src, err)
 		return exitError{exitFailed, err}

@@ -39,20 +39,3 @@ func splitNames(s string) ([]string, error) {
 	}
 	return out, nil
 }
-
-// appendNew appends the names not already in list.
-func appendNew(list []string, names ...string) []string {
-	for _, n := range names {
-		found := false
-		for _, m := range list {
-			if m == n {
-				found = true
-				break
-			}
-		}
-		if !found {
-			list = append(list, n)
-		}
-	}
-	return list
-}
