@@ -2,9 +2,12 @@ package rlct
 
 import (
 	"fmt"
+	"math/big"
 	"math/rand/v2"
 	"strings"
 	"testing"
+
+	"github.com/lctkit/lctkit/polyhedron"
 )
 
 // randomGenerator returns a polynomial with small integer coefficients and
@@ -69,6 +72,31 @@ func TestSumOfSquaresAgreesWithExpansion(t *testing.T) {
 			if (v == Nondegenerate && f.Verdict == Degenerate) || (v == Degenerate && f.Verdict == Nondegenerate) {
 				t.Fatalf("trial %d: K = %s: face %s is %s as generators but %s expanded", trial, k, formatVertices(f.Vertices), v, f.Verdict)
 			}
+		}
+	}
+}
+
+// exposes guards the face polynomials: a normal that cuts out more than the
+// face (or is not strictly positive) must be rejected. Worked by hand on the
+// segment from (2,0) to (0,2).
+func TestExposes(t *testing.T) {
+	verts := [][]int{{0, 2}, {2, 0}}
+	face := func(a, b int64, rhs int64, vs ...int) *polyhedron.Face {
+		return &polyhedron.Face{Vertices: vs, Normal: []*big.Int{big.NewInt(a), big.NewInt(b)}, RHS: big.NewInt(rhs)}
+	}
+	tests := []struct {
+		f    *polyhedron.Face
+		want bool
+	}{
+		{face(2, 1, 2, 0), true},     // 2x + y ≥ 2 touches (0,2) only
+		{face(1, 1, 2, 0, 1), true},  // x + y ≥ 2 is the edge
+		{face(1, 1, 2, 0), false},    // the edge's normal does not expose the vertex alone
+		{face(1, 0, 0, 0), false},    // not strictly positive
+		{face(1, 1, 3, 0, 1), false}, // not supporting: points below it
+	}
+	for i, tt := range tests {
+		if got := exposes(tt.f, verts); got != tt.want {
+			t.Errorf("case %d: exposes = %v, want %v", i, got, tt.want)
 		}
 	}
 }

@@ -173,13 +173,20 @@ func (an *analysis) parts(f *polyhedron.Face) []*monomial.Poly {
 	return out
 }
 
-// faceTest returns a test for Normal·e = RHS, in int64 arithmetic when the
-// normal is small enough that no sum can overflow, in big.Int otherwise.
+// faceTest returns a test for Normal·e = RHS.
 func faceTest(f *polyhedron.Face) func(monomial.Exponent) bool {
-	small := f.RHS.IsInt64() && f.RHS.Int64() < 1<<31
+	cmp := faceCompare(f)
+	return func(e monomial.Exponent) bool { return cmp(e) == 0 }
+}
+
+// faceCompare returns a function giving the sign of Normal·e − RHS, in
+// int64 arithmetic when the normal is small enough that no sum can
+// overflow, in big.Int otherwise.
+func faceCompare(f *polyhedron.Face) func(monomial.Exponent) int {
+	small := f.RHS.IsInt64() && f.RHS.Int64() < 1<<31 && f.RHS.Sign() >= 0
 	a := make([]int64, len(f.Normal))
 	for i, x := range f.Normal {
-		if !x.IsInt64() || x.Int64() >= 1<<31 {
+		if !x.IsInt64() || x.Int64() >= 1<<31 || x.Sign() < 0 {
 			small = false
 			break
 		}
@@ -187,33 +194,36 @@ func faceTest(f *polyhedron.Face) func(monomial.Exponent) bool {
 	}
 	if small {
 		b := f.RHS.Int64()
-		return func(e monomial.Exponent) bool {
-			// Entries of a are in [0, 2^31), b < 2^31, and the partial
-			// sums only grow, so stopping once past b is safe and no
-			// product or sum reaches 2^63 before that.
+		return func(e monomial.Exponent) int {
+			// Entries of a are in [0, 2^31), 0 ≤ b < 2^31, and the
+			// partial sums only grow, so stopping once past b is safe
+			// and no product or sum reaches 2^63 before that.
 			var s int64
 			for i, x := range e {
 				if a[i] == 0 {
 					continue
 				}
 				if x >= 1<<31 {
-					return false // a[i]·x ≥ 2^31 > b
+					return 1 // a[i]·x ≥ 2^31 > b
 				}
 				s += a[i] * int64(x)
 				if s > b {
-					return false
+					return 1
 				}
 			}
-			return s == b
+			if s == b {
+				return 0
+			}
+			return -1
 		}
 	}
 	dot, t := new(big.Int), new(big.Int)
-	return func(e monomial.Exponent) bool {
+	return func(e monomial.Exponent) int {
 		dot.SetInt64(0)
 		for k, a := range f.Normal {
 			dot.Add(dot, t.Mul(a, big.NewInt(int64(e[k]))))
 		}
-		return dot.Cmp(f.RHS) == 0
+		return dot.Cmp(f.RHS)
 	}
 }
 
@@ -293,6 +303,14 @@ const maxFaceReasons = 3
 
 // decide applies the sound tests to one compact face, in order.
 func (an *analysis) decide(fr *FaceReport, f *polyhedron.Face, parts []*monomial.Poly, verts [][]int) error {
+	if !exposes(f, verts) {
+		// The face polynomials are read off with the face's normal; if
+		// that normal does not cut out exactly this face, no verdict
+		// built on them can be trusted.
+		fr.Verdict, fr.Rule = Undetermined, RuleNone
+		fr.Reason = "internal check failed: the face's normal does not expose exactly its vertices"
+		return nil
+	}
 	if f.Dim == 0 {
 		fr.Verdict, fr.Rule = Nondegenerate, RuleVertex
 		return nil
@@ -350,6 +368,29 @@ func (an *analysis) decide(fr *FaceReport, f *polyhedron.Face, parts []*monomial
 	fr.Verdict = Degenerate
 	fr.Witness = torusWitness(an.vars, u, root)
 	return nil
+}
+
+// exposes checks that Normal·x ≥ RHS holds on every vertex with equality
+// exactly on the face's own vertices, and that the normal is strictly
+// positive, as a compact face's must be.
+func exposes(f *polyhedron.Face, verts [][]int) bool {
+	for _, a := range f.Normal {
+		if a.Sign() <= 0 {
+			return false
+		}
+	}
+	cmp := faceCompare(f)
+	own := make(map[int]bool, len(f.Vertices))
+	for _, j := range f.Vertices {
+		own[j] = true
+	}
+	for j, v := range verts {
+		c := cmp(monomial.Exponent(v))
+		if c < 0 || (c == 0) != own[j] {
+			return false
+		}
+	}
+	return true
 }
 
 // evenPositive reports whether every term of q has a positive coefficient
