@@ -36,7 +36,7 @@ func newFTableau(b []float64) *ftableau {
 			t.sign[i] = -1
 			t.rhs[i] = -b[i]
 		}
-		t.rows[i] = make([]float64, m)
+		t.rows[i] = make([]float64, m, 8*m) // room for the usual column count
 		t.rows[i][i] = 1
 		t.basis[i] = i
 		t.z += t.rhs[i]

@@ -317,6 +317,7 @@ func vertexFilter(d int, pts [][]int, ctx context.Context) ([][]int, error) {
 		var next atomic.Int64
 		work := func() {
 			var q []int
+			var scratch vertexScratch
 			for {
 				i := int(next.Add(1) - 1)
 				if i >= len(part) || contextErr(ctx) != nil {
@@ -325,7 +326,7 @@ func vertexFilter(d int, pts [][]int, ctx context.Context) ([][]int, error) {
 				k := part[i]
 				q = candidatesBelow(k, pts, supp, bySupport, d, q[:0])
 				q = slices.DeleteFunc(q, func(j int) bool { return removed[j] })
-				isV[k] = isVertex(pts[k], pts, q)
+				isV[k] = isVertex(pts[k], pts, q, &scratch)
 			}
 		}
 		var wg sync.WaitGroup
@@ -389,10 +390,16 @@ func bitsKey(s []uint64) string {
 	return string(b)
 }
 
+// vertexScratch holds buffers reused by the vertex tests of one worker.
+type vertexScratch struct {
+	rows [][]int
+	flat []int
+}
+
 // isVertex decides whether p is a vertex of conv({p} ∪ pts[q]) + orthant,
 // where every pts[j], j in q, has support inside supp(p) and p is
 // Pareto-minimal (so no pts[j] dominates p).
-func isVertex(p []int, pts [][]int, q []int) bool {
+func isVertex(p []int, pts [][]int, q []int, scratch *vertexScratch) bool {
 	if len(q) == 0 {
 		return true
 	}
@@ -439,17 +446,23 @@ func isVertex(p []int, pts [][]int, q []int) bool {
 	// (t0 > 0: a rounded integer normal A >= 0 with A·p < A·q for all q;
 	// t0 < 0: rounded rational weights λ with Σ λ_j q_j <= p); otherwise, or
 	// if the check fails, the exact LP decides.
-	sub := make([][]int, len(q))
+	sub := scratch.rows[:0]
+	flat := scratch.flat[:0]
+	if len(coords) < len(p) {
+		flat = slices.Grow(flat, len(q)*len(coords))[:len(q)*len(coords)]
+	}
 	for k, j := range q {
 		if len(coords) == len(p) {
-			sub[k] = pts[j]
+			sub = append(sub, pts[j])
 			continue
 		}
-		sub[k] = make([]int, len(coords))
+		r := flat[k*len(coords) : (k+1)*len(coords) : (k+1)*len(coords)]
 		for t, i := range coords {
-			sub[k][t] = pts[j][i]
+			r[t] = pts[j][i]
 		}
+		sub = append(sub, r)
 	}
+	scratch.rows, scratch.flat = sub, flat
 	pr := make([]int, len(coords))
 	pf := make([]float64, len(coords))
 	ones := make([]float64, len(coords))
