@@ -440,6 +440,9 @@ func isVertex(p []int, pts [][]int, q []int, scratch *vertexScratch) bool {
 			return true
 		}
 	}
+	if onSegmentAbove(p, pts, q, coords) {
+		return false
+	}
 	// LP: shoot from p along (1,…,1) within the coordinates of supp(p); p is
 	// a vertex iff t0 = min{t : p + t·1 ∈ conv(Q) + orthant} > 0. A float64
 	// solve proposes an answer with a certificate that is checked exactly
@@ -508,6 +511,88 @@ func ratOnes(n int) []*big.Rat {
 		out[i] = big.NewRat(1, 1)
 	}
 	return out
+}
+
+// pairSieve is the number of candidate points tried in pairs by
+// onSegmentAbove.
+const pairSieve = 16
+
+// onSegmentAbove is a cheap sufficient test for p not being a vertex: among
+// the points q of Q that come closest to dominating p (smallest
+// max_i(q_i − p_i)), it looks for two with λ·q1 + (1−λ)·q2 <= p for some
+// λ in [0, 1], decided exactly with integer arithmetic. Q's points have
+// support in coords.
+func onSegmentAbove(p []int, pts [][]int, q []int, coords []int) bool {
+	type cand struct{ j, need int }
+	var best [pairSieve]cand
+	nb := 0
+	for _, j := range q {
+		need := math.MinInt
+		for _, i := range coords {
+			need = max(need, pts[j][i]-p[i])
+		}
+		if nb == pairSieve && need >= best[nb-1].need {
+			continue
+		}
+		k := nb
+		if nb < pairSieve {
+			nb++
+		} else {
+			k = nb - 1
+		}
+		for k > 0 && best[k-1].need > need {
+			best[k] = best[k-1]
+			k--
+		}
+		best[k] = cand{j, need}
+	}
+	for a := 0; a < nb; a++ {
+		for b := a + 1; b < nb; b++ {
+			if segmentBelow(p, pts[best[a].j], pts[best[b].j], coords) {
+				return true
+			}
+		}
+	}
+	return false
+}
+
+// segmentBelow reports whether λ·q1 + (1−λ)·q2 <= p on coords for some λ in
+// [0, 1]: each coordinate bounds λ by a fraction; the bounds are compared
+// exactly (false on int64 overflow).
+func segmentBelow(p, q1, q2 []int, coords []int) bool {
+	loN, loD := int64(0), int64(1) // λ >= loN/loD
+	hiN, hiD := int64(1), int64(1) // λ <= hiN/hiD
+	for _, i := range coords {
+		dlt := int64(q1[i]) - int64(q2[i])
+		r := int64(p[i]) - int64(q2[i])
+		switch {
+		case dlt > 0: // λ <= r/dlt
+			x, ok1 := mul64(r, hiD)
+			y, ok2 := mul64(hiN, dlt)
+			if !ok1 || !ok2 {
+				return false
+			}
+			if x < y {
+				hiN, hiD = r, dlt
+			}
+		case dlt < 0: // λ >= r/dlt = (−r)/(−dlt)
+			x, ok1 := mul64(-r, loD)
+			y, ok2 := mul64(loN, -dlt)
+			if !ok1 || !ok2 {
+				return false
+			}
+			if x > y {
+				loN, loD = -r, -dlt
+			}
+		default:
+			if r < 0 {
+				return false
+			}
+		}
+	}
+	x, ok1 := mul64(loN, hiD)
+	y, ok2 := mul64(hiN, loD)
+	return ok1 && ok2 && x <= y
 }
 
 const certScale = 1 << 20

@@ -173,3 +173,26 @@ func TestFaceAtErrors(t *testing.T) {
 		t.Errorf("FaceAt(3,0) = %v %v dim %d", f.Vertices, f.Rays, f.Dim)
 	}
 }
+
+func TestSegmentBelow(t *testing.T) {
+	tests := []struct {
+		p, q1, q2 []int
+		want      bool
+	}{
+		// by hand: λ(2,0) + (1−λ)(0,2) <= (1,1) at λ = 1/2
+		{[]int{1, 1}, []int{2, 0}, []int{0, 2}, true},
+		// 3λ <= 1 and 3(1−λ) <= 1 need λ <= 1/3 and λ >= 2/3: impossible
+		{[]int{1, 1}, []int{3, 0}, []int{0, 3}, false},
+		// λ <= 2/3 and λ >= 1/3
+		{[]int{2, 2}, []int{3, 0}, []int{0, 3}, true},
+		// a coordinate where both exceed p
+		{[]int{2, 0}, []int{1, 1}, []int{3, 1}, false},
+		// equal coordinate (dlt = 0) below p, the other forces λ = 1/2 exactly
+		{[]int{1, 5, 1}, []int{2, 5, 0}, []int{0, 5, 2}, true},
+	}
+	for _, tc := range tests {
+		if got := segmentBelow(tc.p, tc.q1, tc.q2, []int{0, 1, 2}[:len(tc.p)]); got != tc.want {
+			t.Errorf("segmentBelow(%v, %v, %v) = %v, want %v", tc.p, tc.q1, tc.q2, got, tc.want)
+		}
+	}
+}
