@@ -88,7 +88,8 @@ const (
 // a minimal point p is a vertex of P exactly when it is a vertex of the
 // Newton polyhedron of the minimal points whose support lies in supp(p)
 // (restricted to those coordinates), which is decided by cheap sufficient
-// tests (unique minimiser of a linear order) or else by one LP: a float64
+// tests (unique minimiser of a linear order for a vertex; lying above a
+// segment between two other points for a non-vertex) or else by one LP: a float64
 // solve whose answer is accepted only with an exactly checked certificate
 // (an integer separating normal, or rounded convex weights, or an exact
 // solve over the float solution's points), and otherwise the exact LP.
