@@ -277,12 +277,14 @@ func (p *Poly) WeightedDegree(w []*big.Rat) *big.Rat {
 
 // Filter returns the part of p made of the terms whose exponent is kept
 // (for example the face polynomial of a face of the Newton polyhedron). keep
-// receives a copy of each exponent.
+// receives each exponent in term order; it must neither modify nor retain
+// it, which lets Filter run without copying (it is called once per face on
+// large polynomials).
 func (p *Poly) Filter(keep func(Exponent) bool) *Poly {
 	r := &Poly{vars: p.vars}
 	for i := range p.coefs {
 		e := p.exp(i)
-		if keep(slices.Clone(Exponent(e))) {
+		if keep(Exponent(e[:len(e):len(e)])) {
 			r.exps = append(r.exps, e...)
 			r.coefs = append(r.coefs, p.coefs[i])
 		}

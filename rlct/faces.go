@@ -145,30 +145,10 @@ func (an *analysis) report(f *polyhedron.Face, parts []*monomial.Poly) FaceRepor
 // parts returns, for each analysed polynomial, its part on face f: the
 // terms whose exponent e has Normal·e = RHS.
 func (an *analysis) parts(f *polyhedron.Face) []*monomial.Poly {
-	if an.terms == nil {
-		an.terms = make([][]termData, len(an.polys))
-		for i, q := range an.polys {
-			for e, c := range q.All() {
-				an.terms[i] = append(an.terms[i], termData{e, c})
-			}
-		}
-	}
 	onFace := faceTest(f)
 	out := make([]*monomial.Poly, len(an.polys))
-	for i, ts := range an.terms {
-		var exps []monomial.Exponent
-		var coefs []*big.Rat
-		for _, t := range ts {
-			if onFace(t.exp) {
-				exps = append(exps, t.exp)
-				coefs = append(coefs, t.coef)
-			}
-		}
-		p, err := monomial.FromTerms(an.vars, exps, coefs)
-		if err != nil {
-			panic("rlct: internal error: " + err.Error())
-		}
-		out[i] = p
+	for i, q := range an.polys {
+		out[i] = q.Filter(onFace)
 	}
 	return out
 }

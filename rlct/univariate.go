@@ -225,6 +225,12 @@ func isolateRoots(p upoly, width *big.Rat) []interval {
 	}
 	g := gcd(p, p.derivative())
 	sf, _ := p.divMod(g)
+	if sf.deg() == 1 {
+		// One root, −c0/c1, exactly.
+		r := new(big.Rat).Quo(sf[0], sf[1])
+		r.Neg(r)
+		return []interval{{r, new(big.Rat).Set(r)}}
+	}
 	seq := sturm(sf)
 	var out []interval
 	half := big.NewRat(1, 2)
