@@ -196,3 +196,51 @@ func TestSegmentBelow(t *testing.T) {
 		}
 	}
 }
+
+// TestExtremeDirections uses directions whose entries differ by 60 orders
+// of magnitude (float64 guidance degrades; the exact answer must not).
+func TestExtremeDirections(t *testing.T) {
+	rng := rand.New(rand.NewPCG(3, 4))
+	huge := new(big.Rat).SetFrac(new(big.Int).Exp(big.NewInt(10), big.NewInt(30), nil), big.NewInt(1))
+	tiny := new(big.Rat).Inv(huge)
+	for trial := 0; trial < 20; trial++ {
+		d := 2 + rng.IntN(3)
+		pts := randomPoints(rng, d, 2+rng.IntN(8), 6)
+		n, err := New(d, pts)
+		if err != nil {
+			t.Fatal(err)
+		}
+		fs := checkFacets(t, n, pts)
+		tau := make([]*big.Rat, d)
+		for i := range tau {
+			switch rng.IntN(3) {
+			case 0:
+				tau[i] = huge
+			case 1:
+				tau[i] = tiny
+			default:
+				tau[i] = big.NewRat(int64(1+rng.IntN(5)), 3)
+			}
+		}
+		h, err := n.Distance(tau)
+		if err != nil {
+			t.Fatal(err)
+		}
+		checkHit(t, n, pts, tau, h)
+		want := new(big.Rat)
+		for _, f := range fs {
+			q := new(big.Rat).Quo(new(big.Rat).SetInt(f.RHS), dotRat(f.Normal, tau))
+			if q.Cmp(want) > 0 {
+				want = q
+			}
+		}
+		if h.T.Cmp(want) != 0 {
+			t.Errorf("t = %v, facets give %v", h.T, want)
+		}
+		lat, err := n.CompactFaces()
+		if err != nil {
+			t.Fatal(err)
+		}
+		checkFace(t, n, fs, lat, h.Point, h.Face)
+	}
+}
