@@ -2,22 +2,18 @@ package main
 
 import (
 	"bytes"
-	"context"
 	"encoding/xml"
 	"fmt"
-	"image/png"
 	"io"
 	"math"
 	"math/big"
 	"math/rand/v2"
 	"os"
-	"os/exec"
 	"path/filepath"
 	"slices"
 	"strconv"
 	"strings"
 	"testing"
-	"time"
 
 	"github.com/lctkit/lctkit/monomial"
 	"github.com/lctkit/lctkit/rlct"
@@ -424,19 +420,6 @@ func TestDrawErrors(t *testing.T) {
 // shaded polyhedron and dark text and lines. It skips when Chromium is not
 // installed, and in -short mode.
 func TestDrawRenders(t *testing.T) {
-	if testing.Short() {
-		t.Skip("rendering with Chromium is slow; skipped in -short mode")
-	}
-	browser := ""
-	for _, name := range []string{"chromium", "chromium-browser", "google-chrome"} {
-		if p, err := exec.LookPath(name); err == nil {
-			browser = p
-			break
-		}
-	}
-	if browser == "" {
-		t.Skip("Chromium is not installed (apt-get install chromium); not rendering")
-	}
 	names := []string{"x4y6", "space"}
 	dir := t.TempDir()
 	page := `<!DOCTYPE html><html><body style="margin:0;display:flex;align-items:flex-start">`
@@ -462,25 +445,7 @@ func TestDrawRenders(t *testing.T) {
 	if err := os.WriteFile(html, []byte(page), 0o644); err != nil {
 		t.Fatal(err)
 	}
-	shot := filepath.Join(dir, "shot.png")
-	ctx, cancel := context.WithTimeout(context.Background(), 90*time.Second)
-	defer cancel()
-	cmd := exec.CommandContext(ctx, browser, "--headless", "--no-sandbox", "--disable-gpu",
-		"--disable-background-networking", "--disable-component-update", "--disable-sync", "--no-first-run",
-		"--hide-scrollbars", "--allow-file-access-from-files", "--user-data-dir="+filepath.Join(dir, "profile"),
-		"--screenshot="+shot, fmt.Sprintf("--window-size=%d,%d", len(names)*pageWidth, int(math.Ceil(height))), "file://"+html)
-	if msg, err := cmd.CombinedOutput(); err != nil {
-		t.Fatalf("%s: %v\n%s", browser, err, msg)
-	}
-	f, err := os.Open(shot)
-	if err != nil {
-		t.Fatalf("no screenshot: %v", err)
-	}
-	defer f.Close()
-	img, err := png.Decode(f)
-	if err != nil {
-		t.Fatal(err)
-	}
+	img := screenshot(t, html, len(names)*pageWidth, int(math.Ceil(height)))
 	b := img.Bounds()
 	if b.Dx() < len(names)*pageWidth || b.Dy() < 600 {
 		t.Fatalf("screenshot is %dx%d", b.Dx(), b.Dy())
