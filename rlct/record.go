@@ -280,18 +280,7 @@ func decodeNames(v json.RawMessage) ([]string, error) {
 		if err := json.Unmarshal(v, &s); err != nil {
 			return nil, err
 		}
-		if strings.TrimSpace(s) == "" {
-			return nil, nil
-		}
-		var out []string
-		for _, name := range strings.Split(s, ",") {
-			name = strings.TrimSpace(name)
-			if name == "" {
-				return nil, fmt.Errorf("empty variable name in %q", s)
-			}
-			out = append(out, name)
-		}
-		return out, nil
+		return SplitNames(s)
 	}
 	names, err := decodeStrings(v)
 	if err != nil {

@@ -139,6 +139,23 @@ func (s *Spec) Problem() (*Problem, [][]*big.Rat, error) {
 	return p, points, nil
 }
 
+// SplitNames reads a variable list written "x,y,z" (white space around the
+// names is ignored); an empty or blank string gives nil.
+func SplitNames(s string) ([]string, error) {
+	if strings.TrimSpace(s) == "" {
+		return nil, nil
+	}
+	var out []string
+	for _, f := range strings.Split(s, ",") {
+		f = strings.TrimSpace(f)
+		if f == "" {
+			return nil, fmt.Errorf("empty variable name in %q", s)
+		}
+		out = append(out, f)
+	}
+	return out, nil
+}
+
 // appendNew appends the names not already in list.
 func appendNew(list []string, names ...string) []string {
 	for _, n := range names {

@@ -31,7 +31,7 @@ type problemFlags struct {
 // spec turns the flags and the expression argument into a library spec. It
 // returns the spec and a note to print when the bundled example is used.
 func (f *problemFlags) spec(expr string, e *env) (*rlct.Spec, string, error) {
-	vars, err := splitNames(f.Vars)
+	vars, err := rlct.SplitNames(f.Vars)
 	if err != nil {
 		return nil, "", err
 	}

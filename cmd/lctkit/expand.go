@@ -7,6 +7,7 @@ import (
 	"slices"
 
 	"github.com/lctkit/lctkit/monomial"
+	"github.com/lctkit/lctkit/rlct"
 )
 
 // expandCmd prints the canonical expansion of an expression.
@@ -39,7 +40,7 @@ func (c *expandCmd) Run(e *env) error {
 	if err != nil {
 		return err
 	}
-	vars, err := splitNames(c.Vars)
+	vars, err := rlct.SplitNames(c.Vars)
 	if err != nil {
 		return err
 	}

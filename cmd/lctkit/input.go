@@ -3,7 +3,6 @@ package main
 import (
 	"fmt"
 	"io"
-	"strings"
 )
 
 // maxInput bounds what is read from standard input (256 MiB).
@@ -22,20 +21,4 @@ func readExpr(arg string, e *env) (string, error) {
 		return "", fmt.Errorf("standard input is larger than %d MiB", maxInput>>20)
 	}
 	return string(b), nil
-}
-
-// splitNames splits "x,y,z" into names; empty input gives nil.
-func splitNames(s string) ([]string, error) {
-	if strings.TrimSpace(s) == "" {
-		return nil, nil
-	}
-	var out []string
-	for _, f := range strings.Split(s, ",") {
-		f = strings.TrimSpace(f)
-		if f == "" {
-			return nil, fmt.Errorf("empty variable name in %q", s)
-		}
-		out = append(out, f)
-	}
-	return out, nil
 }
