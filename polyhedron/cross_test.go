@@ -191,15 +191,7 @@ func TestRandomCrossCheck(t *testing.T) {
 			// t_τ = max over facets of b/(a·τ) (facets with b > 0; those with
 			// b = 0 give 0): the largest t with t·τ on or outside a facet's
 			// hyperplane; common practice.
-			want := new(big.Rat)
-			for _, f := range fs {
-				at := dotRat(f.Normal, tau)
-				q := new(big.Rat).Quo(new(big.Rat).SetInt(f.RHS), at)
-				if q.Cmp(want) > 0 {
-					want = q
-				}
-			}
-			if h.T.Cmp(want) != 0 {
+			if want := facetDistance(fs, tau); h.T.Cmp(want) != 0 {
 				t.Errorf("%s %v τ=%v: t = %v, facets give %v", name, points, tau, h.T, want)
 			}
 			checkFace(t, n, fs, lat, h.Point, h.Face)
@@ -382,6 +374,19 @@ func checkLattice(t *testing.T, n *Newton, fs []Facet, lat *Lattice) {
 	if !slices.EqualFunc(got, want, slices.Equal) {
 		t.Errorf("compact faces %v, brute force %v", got, want)
 	}
+}
+
+// facetDistance returns max over facets of b/(a·τ) (0 when every b is 0):
+// the Newton distance computed from the facets alone.
+func facetDistance(fs []Facet, tau []*big.Rat) *big.Rat {
+	want := new(big.Rat)
+	for _, f := range fs {
+		q := new(big.Rat).Quo(new(big.Rat).SetInt(f.RHS), dotRat(f.Normal, tau))
+		if q.Cmp(want) > 0 {
+			want = q
+		}
+	}
+	return want
 }
 
 func isSubset(a, b []int) bool {

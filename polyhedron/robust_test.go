@@ -227,14 +227,7 @@ func TestExtremeDirections(t *testing.T) {
 			t.Fatal(err)
 		}
 		checkHit(t, n, pts, tau, h)
-		want := new(big.Rat)
-		for _, f := range fs {
-			q := new(big.Rat).Quo(new(big.Rat).SetInt(f.RHS), dotRat(f.Normal, tau))
-			if q.Cmp(want) > 0 {
-				want = q
-			}
-		}
-		if h.T.Cmp(want) != 0 {
+		if want := facetDistance(fs, tau); h.T.Cmp(want) != 0 {
 			t.Errorf("t = %v, facets give %v", h.T, want)
 		}
 		lat, err := n.CompactFaces()
