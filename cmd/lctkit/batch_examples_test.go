@@ -27,19 +27,7 @@ func TestBatchLowRankExample(t *testing.T) {
 	if code != exitOK {
 		t.Fatalf("exit %d: %s", code, errOut)
 	}
-	golden := filepath.Join(dir, "expected.jsonl")
-	if *update {
-		if err := os.WriteFile(golden, []byte(out), 0o644); err != nil {
-			t.Fatal(err)
-		}
-	}
-	want, err := os.ReadFile(golden)
-	if err != nil {
-		t.Fatalf("%v (run with -update to create it)", err)
-	}
-	if out != string(want) {
-		t.Errorf("output differs from %s (after a deliberate change, rerun with -update and read the diff)", golden)
-	}
+	checkGolden(t, filepath.Join(dir, "expected.jsonl"), out)
 
 	inLines := strings.Split(strings.TrimSuffix(string(input), "\n"), "\n")
 	recs := parseBatch(t, out)

@@ -228,19 +228,7 @@ func TestDrawPictures(t *testing.T) {
 			if code != exitOK {
 				t.Fatalf("exit %d: %s", code, errOut)
 			}
-			golden := filepath.Join("testdata", "draw_"+tc.name+".svg")
-			if *update {
-				if err := os.WriteFile(golden, []byte(out), 0o644); err != nil {
-					t.Fatal(err)
-				}
-			}
-			want, err := os.ReadFile(golden)
-			if err != nil {
-				t.Fatalf("%v (run with -update to create it)", err)
-			}
-			if out != string(want) {
-				t.Errorf("the picture differs from %s (run with -update after checking it)", golden)
-			}
+			checkGolden(t, filepath.Join("testdata", "draw_"+tc.name+".svg"), out)
 			els := parseSVG(t, []byte(out))
 			if err := checkFinite(els); err != nil {
 				t.Error(err)

@@ -27,6 +27,28 @@ var exampleChecks = map[string]struct {
 	"mixture": {"1/2", 2, "exact"},
 }
 
+// checkGolden compares got with the golden file at path, first rewriting
+// the file when -update is given.
+func checkGolden(t *testing.T, path, got string) {
+	t.Helper()
+	if *update {
+		if err := os.WriteFile(path, []byte(got), 0o644); err != nil {
+			t.Fatal(err)
+		}
+	}
+	want, err := os.ReadFile(path)
+	if err != nil {
+		t.Fatalf("%v (run with -update to create it)", err)
+	}
+	if got != string(want) {
+		if len(got)+len(want) < 20000 {
+			t.Errorf("output differs from %s (after a deliberate change, rerun with -update and read the diff):\n--- got\n%s\n--- want\n%s", path, got, want)
+		} else {
+			t.Errorf("output differs from %s (after a deliberate change, rerun with -update and read the diff)", path)
+		}
+	}
+}
+
 // TestExamples runs every examples/*/args command line and compares the
 // output with expected.txt beside it.
 func TestExamples(t *testing.T) {
@@ -50,19 +72,7 @@ func TestExamples(t *testing.T) {
 			if code != exitOK {
 				t.Fatalf("exit %d: %s", code, errOut)
 			}
-			golden := filepath.Join(dir, "expected.txt")
-			if *update {
-				if err := os.WriteFile(golden, []byte(out), 0o644); err != nil {
-					t.Fatal(err)
-				}
-			}
-			want, err := os.ReadFile(golden)
-			if err != nil {
-				t.Fatalf("%v (run with -update to create it)", err)
-			}
-			if out != string(want) {
-				t.Errorf("output differs from %s:\n--- got\n%s\n--- want\n%s", golden, out, want)
-			}
+			checkGolden(t, filepath.Join(dir, "expected.txt"), out)
 			check, ok := exampleChecks[name]
 			if !ok || args[0] != "bound" {
 				return
