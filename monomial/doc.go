@@ -56,14 +56,41 @@
 // is rational, like 4^(1/2)), divisions are by non-zero constants, and
 // functions are errors asking for an order.
 //
-// With Order = D > 0 the result is the Taylor polynomial of total degree
-// at most D of the expression at 0, computed exactly in the ring of
-// truncated power series (all terms of total degree > D are dropped after
-// each operation). Functions are composed with their argument by one
-// general mechanism: the univariate Taylor coefficients of the function
-// (exact rationals) are composed with the argument minus its constant term
-// by Horner's scheme with truncation. The Taylor coefficients are rational
-// only for suitable constant terms, so
+// With Order = D > 0 the expression may also involve series, and the
+// result is exact up to total degree D. Precisely: the value of the
+// expression minus [Expansion].Poly is a power series all of whose terms
+// have total degree > D, and [Expansion].Truncated is true exactly when
+// that difference may be non-zero. The parser keeps, for every
+// subexpression, whether its polynomial is exact:
+//
+//   - Exact values are never truncated (but see the last point). Numbers, variables, and sums,
+//     products and non-negative integer powers of exact values are expanded
+//     completely, as in polynomial mode and under the same [Limits]: with
+//     D = 8, x^2 + y^10 gives both terms and is not truncated, and
+//     (x+y)^12 with D = 3 gives all 13 terms.
+//   - A value that involves a series (a function, a division by a
+//     non-constant, a negative or fractional power of a non-constant) is
+//     computed in the ring of power series truncated at total degree D:
+//     its terms of degree > D are dropped, and it is inexact.
+//   - A product, quotient, power or function with an inexact operand is
+//     inexact and truncated at D: with an exact factor its terms above D
+//     would be incomplete (x^10*cos(z) with D = 4 is 0, truncated).
+//   - A sum, difference or sign change keeps every term of its operands:
+//     the sum of the omitted parts is still of degree > D (tanh(x)^2 + y^10 with D = 4 is
+//     x^2 - 2/3*x^4 + y^10, truncated). So when Truncated is true, Poly may
+//     have terms above D that differ from the Taylor coefficients of the
+//     value (only the terms of degree <= D are guaranteed).
+//   - In series mode an exact product or power whose full expansion would
+//     exceed the Limits (too many terms, too much work, too large
+//     coefficients, exponents of 2^62 or more) is computed truncated at D
+//     instead and becomes inexact, rather than failing as in polynomial
+//     mode.
+//
+// Functions are composed with their argument by one general mechanism: the
+// univariate Taylor coefficients of the function (exact rationals) are
+// composed with the argument minus its constant term by Horner's scheme
+// with truncation. The Taylor coefficients are rational only for suitable
+// constant terms, so
 //
 //   - exp, sin, cos, sinh, cosh, tanh and atan need an argument vanishing
 //     at 0 (exp(1+x) is refused: exp(1) is irrational);
@@ -71,8 +98,6 @@
 //   - sqrt(c+u) and (c+u)^(p/q) need c^(p/q) rational (c = 1, or 4 for
 //     sqrt), and negative integer powers and divisions need c != 0; they use
 //     the binomial series of (1+u/c)^(p/q).
-//
-// [Expansion].Truncated tells whether terms were or may have been dropped.
 //
 // # Limits
 //

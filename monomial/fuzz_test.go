@@ -10,8 +10,9 @@ import (
 var fuzzLimits = Limits{MaxTerms: 5000, MaxExponent: 60, MaxOrder: 8, MaxBits: 50000}
 
 // FuzzParse checks that no input makes the parser panic, that errors carry
-// sane positions, and that whatever parses prints and re-parses to the same
-// polynomial.
+// sane positions, that whatever parses prints and re-parses to the same
+// polynomial, and that a series expansion agrees with the one of the next
+// order up to its own order (exactly, when it is not truncated).
 func FuzzParse(f *testing.F) {
 	for _, tc := range validCases {
 		f.Add(tc.src, uint8(tc.order))
@@ -29,6 +30,14 @@ func FuzzParse(f *testing.F) {
 			checkErrorPosition(t, src, err)
 		} else {
 			roundTrip(t, src, e)
+			if cfg.Order > 0 {
+				next := cfg
+				next.Order++
+				next.Limits.MaxOrder = next.Order
+				if e2, err := Parse(src, next); err == nil {
+					checkOrders(t, src, e, e2)
+				}
+			}
 		}
 		list, err := ParseList(src, cfg)
 		if err != nil {
@@ -88,7 +97,19 @@ func roundTrip(t *testing.T, src string, e *Expansion) {
 	if !e2.Poly.Equal(e.Poly) || e2.Truncated {
 		t.Fatalf("%q parsed to %q, which re-parses to %q", src, s, e2.Poly)
 	}
-	if e.Order > 0 && e.Poly.Degree() > e.Order {
-		t.Fatalf("%q: degree %d above order %d", src, e.Poly.Degree(), e.Order)
+}
+
+// checkOrders checks the invariant of series mode on two expansions of src
+// at orders D < D': the value minus each Poly has only terms of degree
+// above its order, so both agree on the terms of degree <= D; and a
+// non-truncated Poly is the value itself, so when both are exact they are
+// equal.
+func checkOrders(t *testing.T, src string, lo, hi *Expansion) {
+	t.Helper()
+	if a, b := lo.Poly.Truncate(lo.Order), hi.Poly.Truncate(lo.Order); !a.Equal(b) {
+		t.Fatalf("%q: order %d gives %v, order %d gives %v: they differ up to degree %d", src, lo.Order, lo.Poly, hi.Order, hi.Poly, lo.Order)
+	}
+	if !lo.Truncated && !hi.Truncated && !lo.Poly.Equal(hi.Poly) {
+		t.Fatalf("%q: exact at orders %d and %d but %v != %v", src, lo.Order, hi.Order, lo.Poly, hi.Poly)
 	}
 }

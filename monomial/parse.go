@@ -17,28 +17,41 @@ type Config struct {
 	// is compared piecewise, runs of letters and underscores as text and
 	// runs of digits as numbers, so w2 < w10 < x < x1 < x2.
 	Vars []string
-	// Order, if > 0, asks for the Taylor polynomial of total degree <= Order
-	// of the expression around 0 (a truncated power series). If 0, the
-	// expression must be a polynomial, and anything else (a function, a
-	// division by a non-constant, a negative or fractional power) is an
-	// error asking for an order.
+	// Order, if > 0, asks for an expansion around 0 that is exact up to
+	// total degree Order: the parts of the expression that are series are
+	// truncated above Order, the exact polynomial parts are kept whole (see
+	// Expansion). If 0, the expression must be a polynomial, and anything
+	// else (a function, a division by a non-constant, a negative or
+	// fractional power) is an error asking for an order.
 	Order int
 	// Limits guard against runaway expansion; zero fields take defaults.
 	Limits Limits
 }
 
 // Expansion is the result of parsing one expression.
+//
+// With Order = 0, Poly is the value of the expression. With Order = D > 0
+// the value of the expression minus Poly is a power series all of whose
+// terms have total degree > D, and Truncated is true exactly when that
+// difference may be non-zero. So Poly always has the Taylor coefficients of
+// the value for every degree <= D; it also keeps, above D, every term of
+// the exact polynomial parts of the expression (x^2 + y^10 with Order 8
+// gives both terms and Truncated = false). When Truncated is true, a term
+// of Poly above D need not be the Taylor coefficient of the value: in
+// tanh(x) + x^11 with Order 4, Poly = x - 1/3*x^3 + x^11 while the x^11
+// coefficient of the value also has a contribution from tanh(x).
 type Expansion struct {
-	// Poly is the polynomial; with Order > 0 it has no term of total degree
-	// above Order.
+	// Poly is the expansion described above.
 	Poly *Poly
 	// Order is the Config.Order used.
 	Order int
 	// Truncated is true when terms of total degree > Order were or may have
-	// been dropped: the expression is not a polynomial (it involves a
-	// function, a division by a non-constant or a non-integer power), or it
-	// is a polynomial with terms above Order. False means Poly is exactly
-	// the value of the expression.
+	// been dropped: the expression involves a series (a function, a
+	// division by a non-constant, a negative or fractional power of a
+	// non-constant) that was truncated at Order, or, in series mode, an
+	// exact part whose full expansion exceeded the Limits and was truncated
+	// at Order instead. False means Poly is exactly the value of the
+	// expression.
 	Truncated bool
 }
 
@@ -318,8 +331,12 @@ type parser struct {
 	depth int
 }
 
-// value is the value of a subexpression: its polynomial (truncated to the
-// order in series mode), whether that is exact, and its source span.
+// value is the value of a subexpression: its polynomial, whether that is
+// exact, and its source span. When exact is false (series mode only) the
+// true value minus p is a power series with terms of total degree > order
+// only; p may still hold terms above the order that come from exact
+// summands (a sum keeps them), but every other operation with an inexact
+// operand truncates its result at the order.
 type value struct {
 	p        *Poly
 	exact    bool
@@ -584,25 +601,39 @@ func (p *parser) tooMany(t token, v value) *Error {
 	return p.errAt(t, "%s expands to more than %d terms (Limits.MaxTerms)", p.snippet(v), p.lim.MaxTerms)
 }
 
-// multiply returns v·w, truncated to the order in series mode.
+// multiply returns v·w: the whole product when both are exact, else (in
+// series mode) the product truncated at the order. In series mode an exact
+// product that exceeds the limits is truncated at the order instead of
+// failing, and the result is inexact.
 func (p *parser) multiply(v, w value, op token) (value, *Error) {
 	r := value{off: v.off, end: w.end}
-	maxDeg := -1
-	if p.order > 0 {
-		maxDeg = p.order
+	if (v.exact && v.p.IsZero()) || (w.exact && w.p.IsZero()) {
+		r.p, r.exact = &Poly{vars: p.vars}, true
+		return r, nil
 	}
-	prod, merr := mul(v.p, w.p, maxDeg, p.guard)
+	if v.exact && w.exact {
+		prod, merr := mul(v.p, w.p, -1, p.guard)
+		if merr == nil {
+			r.p, r.exact = prod, true
+			return r, nil
+		}
+		if p.order == 0 {
+			return r, p.limitErr(merr, op, r)
+		}
+	}
+	prod, merr := p.mulTruncated(v.p, w.p)
 	if merr != nil {
 		return r, p.limitErr(merr, op, r)
 	}
 	r.p = prod
-	switch {
-	case (v.exact && v.p.IsZero()) || (w.exact && w.p.IsZero()):
-		r.exact = true
-	default:
-		r.exact = v.exact && w.exact && (p.order == 0 || v.p.Degree()+w.p.Degree() <= p.order)
-	}
 	return r, nil
+}
+
+// mulTruncated returns a·b without its terms of total degree above the
+// order. Terms of a or b above the order cannot reach the result (degrees
+// are non-negative), so they are dropped first.
+func (p *parser) mulTruncated(a, b *Poly) (*Poly, error) {
+	return mul(a.Truncate(p.order), b.Truncate(p.order), p.order, p.guard)
 }
 
 // divide returns v/w: an exact division by a constant, or in series mode a
@@ -615,6 +646,9 @@ func (p *parser) divide(v, w value, op token) (value, *Error) {
 			return r, p.errAt(op, "division by zero")
 		}
 		r.p, r.exact = v.p.scale(c.inv()), v.exact
+		if !v.exact {
+			r.p = r.p.Truncate(p.order)
+		}
 		return r, nil
 	}
 	if p.order == 0 {
@@ -670,26 +704,28 @@ func (p *parser) raise(base, ex value, op token) (value, *Error) {
 		return r, nil
 	}
 	if e.IsInt() && n >= 0 {
-		if p.order == 0 {
+		if base.exact {
+			// The whole power, under the same limits in both modes. In
+			// series mode a power beyond them is truncated below instead.
 			res, perr := base.p.Pow(n, p.lim)
-			if perr != nil {
+			if perr == nil {
+				r.p, r.exact = res, true
+				return r, nil
+			}
+			if p.order == 0 {
 				var le *LimitError
 				if errors.As(perr, &le) {
 					return r, p.errAt(op, "%s", strings.TrimPrefix(strings.Replace(le.Error(), le.What, p.snippet(r), 1), "monomial: "))
 				}
 				return r, p.limitErr(perr, op, r)
 			}
-			r.p, r.exact = res, true
-			return r, nil
 		}
-		deg := base.p.Degree()
-		exactFits := base.exact && deg >= 0 && deg <= p.order/max(n, 1)
-		if base.p.vanishesAtZero() || exactFits {
-			res, perr := base.p.pow(n, p.order, p.guard)
+		if base.p.vanishesAtZero() {
+			res, perr := base.p.pow(n, p.order, p.guard) // truncates base first
 			if perr != nil {
 				return r, p.limitErr(perr, op, r)
 			}
-			r.p, r.exact = res, exactFits || (base.exact && base.p.IsZero())
+			r.p, r.exact = res, false
 			return r, nil
 		}
 		return p.seriesPower(base, e, r, op, "")

@@ -3,6 +3,8 @@ package monomial
 import (
 	"fmt"
 	"math/big"
+	"math/rand/v2"
+	"strconv"
 	"testing"
 )
 
@@ -299,10 +301,11 @@ func TestTruncatedFlag(t *testing.T) {
 	}{
 		{"x^2 + y", 0, false, "x^2 + y"},
 		{"x^2 + y", 2, false, "x^2 + y"},
-		{"x^3 + y", 2, true, "y"},
-		{"x*y", 1, true, "0"},
+		// Exact polynomials keep their terms above the order.
+		{"x^3 + y", 2, false, "x^3 + y"},
+		{"x*y", 1, false, "x*y"},
 		{"(1+x)^2", 2, false, "x^2 + 2*x + 1"},
-		{"(1+x)^3", 2, true, "3*x^2 + 3*x + 1"},
+		{"(1+x)^3", 2, false, "x^3 + 3*x^2 + 3*x + 1"},
 		{"x/2", 1, false, "1/2*x"},
 		{"x/(1/2)", 1, false, "2*x"},
 		{"1/(1+x)", 1, true, "-x + 1"},
@@ -311,7 +314,7 @@ func TestTruncatedFlag(t *testing.T) {
 		{"0*exp(x)", 3, false, "0"},
 		{"exp(x) - exp(x)", 3, true, "0"},
 		{"(x^2)^2", 4, false, "x^4"},
-		{"(x^2)^3", 4, true, "0"},
+		{"(x^2)^3", 4, false, "x^6"},
 		{"4^(1/2)*x", 1, false, "2*x"},
 	} {
 		e, err := Parse(tc.src, Config{Order: tc.order})
@@ -353,5 +356,163 @@ func TestUnivariateHelpers(t *testing.T) {
 		if got := fmt.Sprint(ok); (tc.want == "") == ok || (ok && r.Cmp(rat(tc.want)) != 0) {
 			t.Errorf("ratPow(%s, %s) = %v (ok %s), want %q", tc.c, tc.e, r, got, tc.want)
 		}
+	}
+}
+
+// TestExactTermsKept: in series mode the exact polynomial parts of an
+// expression keep their terms above the order, and only the parts that
+// involve a series are truncated. Expected values are derived by hand in
+// the comments.
+func TestExactTermsKept(t *testing.T) {
+	for _, tc := range []struct {
+		src       string
+		order     int
+		want      string
+		truncated bool
+	}{
+		// Both terms are exact: nothing is dropped.
+		{"x^2 + y^10", 8, "y^10 + x^2", false},
+		{"x^2 + y^10 - y^10", 8, "x^2", false},
+		{"(x^2 + y^10)/2", 8, "1/2*y^10 + 1/2*x^2", false},
+		{"(x^2 + y^10)*(1 + z^7)", 3, "y^10*z^7 + y^10 + x^2*z^7 + x^2", false},
+		// cos(z) is a truncated series (1 - z^2/2 + z^4/24 at order 4), so
+		// the product is truncated at 4. Every term of x^10*cos(z) has
+		// degree >= 10 > 4, so the truncated product is 0, and the value
+		// minus 0 has only terms of degree > 4 as required. Keeping x^10,
+		// -1/2*x^10*z^2, … would show terms above the order with missing
+		// companions (x^10*z^6 is absent at order 4), hence the rule.
+		{"x^10*cos(z)", 4, "0", true},
+		// tanh x = x - x^3/3 + O(x^5) (A&S 4.5.64), so tanh(x)^2 = x^2 -
+		// 2/3*x^4 + O(x^6); the exact summand y^10 is kept whole.
+		{"tanh(x)^2 + y^10", 4, "y^10 - 2/3*x^4 + x^2", true},
+		// exp(x) = 1 + x + x^2/2 + x^3/6 + O(x^4) (A&S 4.2.1); times 1 + y^9,
+		// every y^9 term has degree >= 9 > 3.
+		{"exp(x)*(1+y^9)", 3, "1/6*x^3 + 1/2*x^2 + x + 1", true},
+		// A sum keeps the exact terms of its summands, also under a sign.
+		{"-(tanh(x) + y^10)", 4, "-y^10 + 1/3*x^3 - x", true},
+		// Any other operation with an inexact operand truncates at the order.
+		{"2*(tanh(x) + y^10)", 4, "-2/3*x^3 + 2*x", true},
+		{"(tanh(x) + y^10)/2", 4, "-1/6*x^3 + 1/2*x", true},
+		{"(tanh(x) + y^10)^2", 4, "-2/3*x^4 + x^2", true},
+		{"exp(y^10)", 4, "1", true},
+		// Exact powers whose expansion would exceed the default limits are
+		// truncated instead: (x+y+z)^5000 has only terms of degree 5000,
+		// and (1+x)^10000 = 1 + 10000 x + C(10000, 2) x^2 + … with
+		// C(10000, 2) = 10000·9999/2 = 49995000.
+		{"(x+y+z)^5000", 3, "0", true},
+		{"(1+x)^10000", 2, "49995000*x^2 + 10000*x + 1", true},
+	} {
+		e, err := Parse(tc.src, Config{Order: tc.order})
+		if err != nil {
+			t.Errorf("%q order %d: %v", tc.src, tc.order, err)
+			continue
+		}
+		if got := e.Poly.String(); got != tc.want || e.Truncated != tc.truncated {
+			t.Errorf("%q order %d = %s (truncated %v), want %s (truncated %v)", tc.src, tc.order, got, e.Truncated, tc.want, tc.truncated)
+		}
+	}
+}
+
+// TestExactPowerAllTerms: (x+y)^12 at order 3 keeps all 13 terms, with the
+// binomial coefficients C(12, k) (binomial theorem, common practice).
+func TestExactPowerAllTerms(t *testing.T) {
+	e, err := Parse("(x+y)^12", Config{Order: 3})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if e.Truncated || e.Poly.Len() != 13 {
+		t.Fatalf("(x+y)^12 at order 3: %d terms, truncated %v; want 13 terms, exact", e.Poly.Len(), e.Truncated)
+	}
+	for k := 0; k <= 12; k++ {
+		want := new(big.Rat).SetInt(new(big.Int).Binomial(12, int64(k)))
+		if got := e.Poly.Coefficient(Exponent{k, 12 - k}); got.Cmp(want) != 0 {
+			t.Errorf("coefficient of x^%d*y^%d = %v, want C(12,%d) = %v", k, 12-k, got, k, want)
+		}
+	}
+}
+
+// randomMixed returns a random expression in x, y, z mixing exact
+// polynomials (with terms of degree up to 9) and series (functions,
+// divisions and fractional powers whose arguments vanish at 0 or have
+// constant term 1).
+func randomMixed(r *rand.Rand, depth int) string {
+	vars := []string{"x", "y", "z"}
+	v := func() string { return vars[r.IntN(3)] }
+	if depth == 0 || r.IntN(4) == 0 {
+		switch r.IntN(3) {
+		case 0:
+			return v()
+		case 1:
+			return strconv.Itoa(1 + r.IntN(3))
+		}
+		return v() + "^" + strconv.Itoa(2+r.IntN(8))
+	}
+	sub := func() string { return randomMixed(r, depth-1) }
+	switch r.IntN(10) {
+	case 0:
+		return "(" + sub() + " + " + sub() + ")"
+	case 1:
+		return "(" + sub() + " - " + sub() + ")"
+	case 2, 3:
+		return sub() + "*" + sub()
+	case 4:
+		return "(" + sub() + ")^" + strconv.Itoa(r.IntN(4))
+	case 5:
+		fn := []string{"exp", "sin", "cos", "tanh", "atan", "sinh"}[r.IntN(6)]
+		return fn + "(" + v() + "*(" + sub() + "))"
+	case 6:
+		return "log(1 + " + v() + "*(" + sub() + "))"
+	case 7:
+		return "(" + sub() + ")/(1 + " + v() + "*(" + sub() + "))"
+	case 8:
+		return "(1 + " + v() + "*(" + sub() + "))^(" + []string{"-1/2", "1/3", "-2"}[r.IntN(3)] + ")"
+	}
+	return "(" + sub() + ")/3"
+}
+
+// TestSeriesInvariantRandom checks the invariant of series mode on random
+// expressions: the value minus Poly has only terms of degree > Order, so
+// the expansions at orders D and D+k agree on all terms of degree <= D; an
+// expansion that is not truncated is the value itself, so it is the same
+// at every order and equal to the polynomial-mode result when that exists.
+// Whether an expansion is truncated depends on the expression only (these
+// are far inside the limits).
+func TestSeriesInvariantRandom(t *testing.T) {
+	r := rand.New(rand.NewPCG(21, 22))
+	vars := []string{"x", "y", "z"}
+	exact, inexact := 0, 0
+	for range 400 {
+		src := randomMixed(r, 3)
+		d := 1 + r.IntN(5)
+		k := 1 + r.IntN(3)
+		lo, err := Parse(src, Config{Vars: vars, Order: d})
+		if err != nil {
+			t.Fatalf("%q order %d: %v", src, d, err)
+		}
+		hi, err := Parse(src, Config{Vars: vars, Order: d + k})
+		if err != nil {
+			t.Fatalf("%q order %d: %v", src, d+k, err)
+		}
+		if !lo.Poly.Truncate(d).Equal(hi.Poly.Truncate(d)) {
+			t.Fatalf("%q: order %d gives %v, order %d gives %v", src, d, lo.Poly, d+k, hi.Poly)
+		}
+		if lo.Truncated != hi.Truncated {
+			t.Fatalf("%q: truncated %v at order %d but %v at order %d", src, lo.Truncated, d, hi.Truncated, d+k)
+		}
+		if lo.Truncated {
+			inexact++
+			continue
+		}
+		exact++
+		if !lo.Poly.Equal(hi.Poly) {
+			t.Fatalf("%q exact: order %d gives %v, order %d gives %v", src, d, lo.Poly, d+k, hi.Poly)
+		}
+		if p0, err := Parse(src, Config{Vars: vars}); err == nil && !p0.Poly.Equal(lo.Poly) {
+			t.Fatalf("%q exact: order %d gives %v, polynomial mode %v", src, d, lo.Poly, p0.Poly)
+		}
+	}
+	t.Logf("%d exact, %d truncated", exact, inexact)
+	if exact < 40 || inexact < 40 {
+		t.Errorf("weak sample: %d exact and %d truncated expressions", exact, inexact)
 	}
 }
