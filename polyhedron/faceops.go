@@ -1,0 +1,569 @@
+package polyhedron
+
+import (
+	"context"
+	"errors"
+	"fmt"
+	"math"
+	"math/big"
+	"slices"
+)
+
+// ErrFace is returned by the face operations (Covers, NormalConeMin,
+// FacetsContaining) for a *Face that does not describe a face of P: nil,
+// vertex or ray indices out of range or not strictly ascending, vertices and
+// rays that are not exactly those of one face of P, or a wrong Dim; and for a
+// face that is not compact where a compact one is required.
+var ErrFace = errors.New("polyhedron: not a face of the polyhedron")
+
+// Side returns the sign of f.Normal·x − f.RHS: −1, 0 or +1. For a point x
+// of P, 0 means that x lies on f, since the normal exposes f (f = P ∩
+// {Normal·y = RHS}) and Normal·y >= RHS on P.
+//
+// Method: the dot product is accumulated in int64 with overflow detection
+// (no allocation) and recomputed with math/big only when an entry of the
+// normal does not fit in an int64 or a product or partial sum would
+// overflow. Cost: O(d).
+//
+// Side panics if f.Normal or f.RHS is nil or len(x) != len(f.Normal) (a
+// caller mistake: every face returned by this package has a normal of
+// length d).
+func (f *Face) Side(x []int) int {
+	if f.Normal == nil || f.RHS == nil || len(x) != len(f.Normal) {
+		panic(fmt.Sprintf("polyhedron: Face.Side: point of length %d for a normal of length %d", len(x), len(f.Normal)))
+	}
+	if s, ok := smallDot(f.Normal, x); ok {
+		if f.RHS.IsInt64() {
+			r := f.RHS.Int64()
+			switch {
+			case s < r:
+				return -1
+			case s > r:
+				return 1
+			}
+			return 0
+		}
+		return -f.RHS.Sign() // |RHS| >= 2^63 > |s|
+	}
+	var acc, prod big.Int
+	for i, a := range f.Normal {
+		if x[i] != 0 && a.Sign() != 0 {
+			prod.Mul(a, prod.SetInt64(int64(x[i])))
+			acc.Add(&acc, &prod)
+		}
+	}
+	return acc.Cmp(f.RHS)
+}
+
+// smallDot returns a·x in int64, and false if an entry of a does not fit
+// or a product or partial sum would overflow.
+func smallDot(a []*big.Int, x []int) (int64, bool) {
+	var s int64
+	for i, ai := range a {
+		if x[i] == 0 || ai.Sign() == 0 {
+			continue
+		}
+		if !ai.IsInt64() {
+			return 0, false
+		}
+		term, ok := mul64(ai.Int64(), int64(x[i]))
+		if !ok {
+			return 0, false
+		}
+		ns := s + term
+		if (term > 0 && ns < s) || (term < 0 && ns > s) {
+			return 0, false
+		}
+		s = ns
+	}
+	return s, true
+}
+
+// Contains reports whether the point x lies on the face f, i.e. f.Side(x)
+// == 0. x must be a point of P (for instance an exponent of the polynomial
+// whose Newton polyhedron P is): for a point outside P a zero side only
+// means that x is on the hyperplane Normal·y = RHS. Cost: O(d). It panics
+// when Side does.
+func (f *Face) Contains(x []int) bool { return f.Side(x) == 0 }
+
+// Equal reports whether f and g are the same face of P: the same vertex
+// indices and the same rays. Normals are not compared: a face that is not a
+// facet has many exposing normals, and different methods return different
+// ones. Two nil faces are equal. Cost: O(#vertices + #rays).
+func (f *Face) Equal(g *Face) bool {
+	if f == nil || g == nil {
+		return f == g
+	}
+	return slices.Equal(f.Vertices, g.Vertices) && slices.Equal(f.Rays, g.Rays)
+}
+
+// Exposes reports whether f's Normal and RHS expose exactly f: len(Normal)
+// == d, Normal >= 0, Normal·v >= RHS for every vertex v of P with equality
+// exactly for the vertices listed in f.Vertices (which must be nonempty),
+// and Normal_i == 0 exactly for the coordinates i listed in f.Rays. Then
+// f = P ∩ {Normal·x = RHS} is a face of P with those vertices and rays (a
+// check to run before trusting a face's normal, for instance one built or
+// modified by hand). f.Dim and f.Facets are not checked.
+//
+// Method: exact integer evaluation of the normal on every vertex (int64 with
+// overflow detection, math/big fallback). Cost: O(V·d) for V vertices.
+func (n *Newton) Exposes(f *Face) bool {
+	if f == nil || len(f.Vertices) == 0 || len(f.Normal) != n.d || f.RHS == nil {
+		return false
+	}
+	k := 0 // position in f.Rays
+	for i, a := range f.Normal {
+		if a == nil || a.Sign() < 0 {
+			return false
+		}
+		isRay := k < len(f.Rays) && f.Rays[k] == i
+		if isRay {
+			k++
+		}
+		if (a.Sign() == 0) != isRay {
+			return false
+		}
+	}
+	if k != len(f.Rays) {
+		return false // Rays not ascending or out of range
+	}
+	dt := newDotter(f.Normal)
+	k = 0 // position in f.Vertices
+	for j, v := range n.vertices {
+		c := dt.dot(v).Cmp(f.RHS)
+		if c < 0 {
+			return false
+		}
+		own := k < len(f.Vertices) && f.Vertices[k] == j
+		if own {
+			k++
+		}
+		if (c == 0) != own {
+			return false
+		}
+	}
+	return k == len(f.Vertices)
+}
+
+// validIndices reports whether xs is strictly ascending with entries in
+// [0, limit).
+func validIndices(xs []int, limit int) bool {
+	for k, x := range xs {
+		if x < 0 || x >= limit || (k > 0 && xs[k-1] >= x) {
+			return false
+		}
+	}
+	return true
+}
+
+// checkFace verifies that f describes a face of P (see ErrFace) and returns
+// an exposing integer normal for it: f's own when it exposes f, or else the
+// one found at the relative interior point Σ_{v in f} v/k + Σ_{i in rays}
+// e_i, whose face must then be f. The dimension must match the affine rank.
+func (n *Newton) checkFace(f *Face) ([]*big.Int, *big.Int, error) {
+	if f == nil {
+		return nil, nil, fmt.Errorf("%w: nil face", ErrFace)
+	}
+	if len(f.Vertices) == 0 || !validIndices(f.Vertices, len(n.vertices)) || !validIndices(f.Rays, n.d) {
+		return nil, nil, fmt.Errorf("%w: vertices %v, rays %v", ErrFace, f.Vertices, f.Rays)
+	}
+	if dim := n.faceDim(f.Vertices, f.Rays); dim != f.Dim {
+		return nil, nil, fmt.Errorf("%w: vertices %v and rays %v span dimension %d, face says %d", ErrFace, f.Vertices, f.Rays, dim, f.Dim)
+	}
+	if n.Exposes(f) {
+		return f.Normal, f.RHS, nil
+	}
+	x := n.centroid(f.Vertices)
+	for _, i := range f.Rays {
+		x[i].Add(x[i], ratOne)
+	}
+	g, sign := n.faceHolding(x)
+	if sign != 0 || !g.Equal(f) {
+		return nil, nil, fmt.Errorf("%w: vertices %v and rays %v are not those of a face", ErrFace, f.Vertices, f.Rays)
+	}
+	return g.Normal, g.RHS, nil
+}
+
+// centroid returns the average of the given vertices.
+func (n *Newton) centroid(verts []int) []*big.Rat {
+	x := make([]*big.Rat, n.d)
+	k := big.NewInt(int64(len(verts)))
+	var s, t big.Int
+	for i := range x {
+		s.SetInt64(0)
+		for _, j := range verts {
+			s.Add(&s, t.SetInt64(int64(n.vertices[j][i])))
+		}
+		x[i] = new(big.Rat).SetFrac(&s, k)
+	}
+	return x
+}
+
+// faceHolding shoots from x along (1,…,1) and returns the sign of t0 (−1:
+// x interior, +1: x outside P) and, when t0 = 0, the face holding x in its
+// relative interior (see FaceAt).
+func (n *Newton) faceHolding(x []*big.Rat) (*Face, int) {
+	s := shoot(n.vertices, x, ratOnes(n.d))
+	if sign := s.t.Sign(); sign != 0 {
+		return nil, sign
+	}
+	f, err := n.faceFromShot(x, s)
+	if err != nil { // faceFromShot reports no errors today
+		panic("polyhedron: internal error: " + err.Error())
+	}
+	return f, 0
+}
+
+// CompactFaceAt returns, for a point x of P, the face of P that holds x in
+// its relative interior when that face is compact, and (nil, nil) when x is
+// in the interior of P or its face is not compact. The face is complete
+// (Vertices, empty Rays, Dim, a strictly positive primitive integer Normal
+// exposing it, RHS). It returns an error wrapping ErrDimension if len(x) !=
+// d or an entry is nil, ErrNotBoundary if x is outside P, and one wrapping
+// ctx.Err() if ctx (which may be nil) is done before the LP.
+//
+// Method: a point on a compact face dominates no other point of P (a
+// strictly positive normal would be larger on it), so x is first compared
+// coordinatewise with the Pareto-minimal points (integer comparisons of
+// ⌊x_i⌋, O(M·d) for M minimal points); if x >= m for a minimal m != x, the
+// answer is nil without any LP. Otherwise the face is found as by FaceAt
+// (ray-shooting LP from x along (1,…,1), then the face of the hit point),
+// stopping early when the representation of x already uses a ray. Cost: that
+// scan plus, when it does not decide, the cost of FaceAt.
+func (n *Newton) CompactFaceAt(ctx context.Context, x []*big.Rat) (*Face, error) {
+	if len(x) != n.d {
+		return nil, fmt.Errorf("%w: point has %d coordinates, want %d", ErrDimension, len(x), n.d)
+	}
+	fl := make([]int, n.d)
+	integral := true
+	var q big.Int
+	for i, xi := range x {
+		if xi == nil {
+			return nil, fmt.Errorf("%w: coordinate %d is nil", ErrDimension, i)
+		}
+		if xi.Sign() < 0 {
+			return nil, fmt.Errorf("%w: coordinate %d is negative, so the point is outside P", ErrNotBoundary, i)
+		}
+		if !xi.IsInt() {
+			integral = false
+		}
+		q.Quo(xi.Num(), xi.Denom()) // floor, as x_i >= 0
+		if q.IsInt64() && q.Int64() <= math.MaxInt {
+			fl[i] = int(q.Int64())
+		} else {
+			fl[i] = math.MaxInt // m_i <= ⌊x_i⌋ still decides m_i <= x_i
+		}
+	}
+	for _, m := range n.minimal {
+		if dominates(m, fl) && !(integral && slices.Equal(m, fl)) {
+			return nil, nil // x >= m, x != m: x is on no compact face
+		}
+	}
+	if err := contextErr(ctx); err != nil {
+		return nil, err
+	}
+	s := shoot(n.vertices, x, ratOnes(n.d))
+	switch s.t.Sign() {
+	case -1:
+		return nil, nil
+	case 1:
+		return nil, fmt.Errorf("%w: it is outside P", ErrNotBoundary)
+	}
+	for _, si := range s.slack {
+		if si.Sign() > 0 {
+			return nil, nil // x = Σ λ_j v_j + s uses a ray: its face is not compact
+		}
+	}
+	f, err := n.faceFromShot(x, s)
+	if err != nil {
+		return nil, err
+	}
+	if !f.Compact() {
+		return nil, nil
+	}
+	return f, nil
+}
+
+// FacetsContaining returns the indices into Facets() of the facets that
+// contain the face f (all of f's vertices lie on the facet and the facet's
+// normal vanishes on f's rays), ascending. It enumerates the facets first
+// (see Facets) and returns their error, or one wrapping ErrFace when f's
+// vertex or ray indices are out of range or not strictly ascending.
+//
+// Method: intersection of the per-vertex facet bitsets built with the
+// facets, then a check of the rays. Cost: O(|f.Vertices|·F/64 + F·|f.Rays|)
+// for F facets, after the enumeration.
+func (n *Newton) FacetsContaining(f *Face) ([]int, error) {
+	if f == nil || !validIndices(f.Vertices, len(n.vertices)) || !validIndices(f.Rays, n.d) {
+		return nil, fmt.Errorf("%w: bad vertex or ray indices", ErrFace)
+	}
+	fs, err := n.Facets()
+	if err != nil {
+		return nil, err
+	}
+	set := make([]uint64, (len(fs)+63)/64)
+	for k := range fs {
+		setBit(set, k)
+	}
+	for _, j := range f.Vertices {
+		for w := range set {
+			set[w] &= n.vertexFacets[j][w]
+		}
+	}
+	out := []int{}
+	for k := range fs {
+		if !hasBit(set, k) {
+			continue
+		}
+		if slices.ContainsFunc(f.Rays, func(i int) bool { return fs[k].Normal[i].Sign() != 0 }) {
+			continue
+		}
+		out = append(out, k)
+	}
+	return out, nil
+}
+
+// Covers returns the compact faces of P of dimension f.Dim+1 that contain
+// the compact face f, sorted by vertex list, without enumerating facets.
+// Each is complete: Vertices, empty Rays, Dim, and a strictly positive
+// primitive integer Normal with RHS that exposes it (Facets is filled only
+// when the facets are already known). It returns an error wrapping ErrFace
+// when f is not a compact face of P (see ErrFace; a face whose Normal does
+// not expose it is accepted when its vertices are those of a face, at the
+// cost of one more LP), and one wrapping ctx.Err() when ctx (which may be
+// nil) is done; ctx is checked between LPs.
+//
+// Method: for a vertex u not in f, the smallest face of P containing f ∪
+// {u} is the face holding the midpoint x_u of u and the centroid of f's
+// vertices in its relative interior (common practice: a face contains a
+// point of the relative interior of a convex set iff it contains the whole
+// set). The faces of dimension f.Dim+1 containing f are exactly the
+// smallest faces containing f ∪ {u} that have that dimension. So every
+// vertex u outside f gives a candidate, found as by FaceAt (one ray-shooting
+// LP and the face of its hit point), and kept when it is compact of
+// dimension f.Dim+1. Two exact prefilters skip LPs: x_u dominating a vertex
+// coordinatewise lies on no compact face; and a vertex of a cover already
+// found gives that same cover (a face of dimension f.Dim+1 containing f ∪
+// {u} is the smallest one). Cost: at most one small exact LP round (d+1
+// rows, column generation with O(V·d) integer pricing) per vertex outside
+// f, V vertices; it grows with V, not with the face lattice.
+func (n *Newton) Covers(ctx context.Context, f *Face) ([]*Face, error) {
+	if f != nil && len(f.Rays) > 0 {
+		return nil, fmt.Errorf("%w: face with rays %v is not compact", ErrFace, f.Rays)
+	}
+	if _, _, err := n.checkFace(f); err != nil {
+		return nil, err
+	}
+	nv := len(n.vertices)
+	d := n.d
+	skip := make([]bool, nv) // vertices of f and of covers found
+	for _, j := range f.Vertices {
+		skip[j] = true
+	}
+	k := int64(len(f.Vertices))
+	// 2k·x_u = S + k·u with S the sum of f's vertices: integers.
+	sum := make([]*big.Int, d)
+	for i := range sum {
+		sum[i] = new(big.Int)
+		for _, j := range f.Vertices {
+			sum[i].Add(sum[i], big.NewInt(int64(n.vertices[j][i])))
+		}
+	}
+	// The dominance prefilter runs in int64 when 2k·maxCoord fits.
+	small := n.maxCoord <= math.MaxInt64/(4*k)
+	scaled := make([]int64, d)
+	den := big.NewInt(2 * k)
+	var out []*Face
+	for u := 0; u < nv; u++ {
+		if skip[u] {
+			continue
+		}
+		if small {
+			for i := range scaled {
+				scaled[i] = sum[i].Int64() + k*int64(n.vertices[u][i])
+			}
+			if n.dominatesVertexScaled(scaled, 2*k) {
+				continue
+			}
+		}
+		if err := contextErr(ctx); err != nil {
+			return nil, err
+		}
+		x := make([]*big.Rat, d)
+		for i := range x {
+			num := new(big.Int).Mul(big.NewInt(k), big.NewInt(int64(n.vertices[u][i])))
+			num.Add(num, sum[i])
+			x[i] = new(big.Rat).SetFrac(num, den)
+		}
+		g, sign := n.faceHolding(x)
+		if sign != 0 || !g.Compact() || g.Dim != f.Dim+1 {
+			continue
+		}
+		for _, j := range g.Vertices {
+			skip[j] = true
+		}
+		out = append(out, g)
+	}
+	slices.SortFunc(out, func(a, b *Face) int { return slices.Compare(a.Vertices, b.Vertices) })
+	return out, nil
+}
+
+// dominatesVertexScaled reports whether y/s >= w coordinatewise for some
+// vertex w (y and s·w in int64: the caller checked that s·maxCoord fits).
+func (n *Newton) dominatesVertexScaled(y []int64, s int64) bool {
+	for _, w := range n.vertices {
+		ok := true
+		for i, wi := range w {
+			if s*int64(wi) > y[i] {
+				ok = false
+				break
+			}
+		}
+		if ok {
+			return true
+		}
+	}
+	return false
+}
+
+// NormalConeMin minimises c·y over the normalised normal cone of the face
+// f: over the y in R^d with y >= 0, y·τ = 1, y·v >= y·x for every vertex v
+// of P and every point x of f, and y_i = 0 for every ray i of f; these are
+// the linear functionals, scaled to y·τ = 1, whose minimum over P is
+// attained on all of f. It returns the exact optimum and an optimal y. τ
+// must be d positive rationals (else an error wrapping ErrDirection); c must
+// have d non-nil entries (else ErrDimension). It returns an error wrapping
+// ErrFace when f is not a face of P or is P itself (whose normal cone is
+// {0}), and one wrapping ctx.Err() when ctx (which may be nil) is done; ctx
+// is checked between LPs.
+//
+// Method: with x_f the centroid of f's k vertices (a point of the relative
+// interior of their convex hull), the cone is {y >= 0 : y_i = 0 for i in
+// f.Rays, y·(k·v − Σ_{w in f} w) >= 0 for every vertex v}: the constraints
+// of f's own vertices sum to zero, so they hold with equality and y is
+// constant on f. The LP is solved through its dual,
+//
+//	maximise z  subject to  z·τ + Σ_v λ_v (k·v − Σ_{w in f} w) + s = c,  λ, s >= 0,
+//
+// restricted to the coordinates not in f.Rays, by column generation (the
+// constraint generation of the primal) on the exact simplex tableau (see LP):
+// it starts with the columns of f's own vertices, and each round prices
+// every vertex with exact integer arithmetic and adds the most violated
+// ones, until none is violated; the optimal duals are then y, feasible for
+// every vertex, and c·y equals the dual optimum, which proves optimality
+// (LP duality). Cost: a few exact LPs with d − |f.Rays| rows plus O(V·d)
+// integer work per pricing round for V vertices.
+func (n *Newton) NormalConeMin(ctx context.Context, f *Face, tau, c []*big.Rat) (*big.Rat, []*big.Rat, error) {
+	d := n.d
+	if len(tau) != d {
+		return nil, nil, fmt.Errorf("%w: got %d entries, want %d", ErrDirection, len(tau), d)
+	}
+	for i, x := range tau {
+		if x == nil || x.Sign() <= 0 {
+			return nil, nil, fmt.Errorf("%w: entry %d is %v", ErrDirection, i, x)
+		}
+	}
+	if len(c) != d {
+		return nil, nil, fmt.Errorf("%w: objective has %d entries, want %d", ErrDimension, len(c), d)
+	}
+	for i, x := range c {
+		if x == nil {
+			return nil, nil, fmt.Errorf("%w: objective entry %d is nil", ErrDimension, i)
+		}
+	}
+	if _, _, err := n.checkFace(f); err != nil {
+		return nil, nil, err
+	}
+	var cols []int // coordinates not in f.Rays: the rows of the dual
+	for i := 0; i < d; i++ {
+		if !slices.Contains(f.Rays, i) {
+			cols = append(cols, i)
+		}
+	}
+	m := len(cols)
+	if m == 0 {
+		return nil, nil, fmt.Errorf("%w: the face is P itself, whose normal cone is {0}", ErrFace)
+	}
+	k := int64(len(f.Vertices))
+	sum := make([]*big.Int, d) // Σ_{w in f} w
+	for i := range sum {
+		sum[i] = new(big.Int)
+		for _, j := range f.Vertices {
+			sum[i].Add(sum[i], big.NewInt(int64(n.vertices[j][i])))
+		}
+	}
+	rhs := make([]*big.Rat, m)
+	for r, i := range cols {
+		rhs[r] = c[i]
+	}
+	t := newTableau(rhs)
+	zero := new(big.Rat)
+	col := make([]*big.Rat, m)
+	for r := 0; r < m; r++ { // slacks s
+		for q := range col {
+			col[q] = zero
+		}
+		col[r] = ratOne
+		t.addColumn(col, zero)
+	}
+	for r, i := range cols {
+		col[r] = tau[i]
+	}
+	t.addColumn(col, big.NewRat(-1, 1)) // z⁺
+	for r, i := range cols {
+		col[r] = new(big.Rat).Neg(tau[i])
+	}
+	t.addColumn(col, ratOne) // z⁻
+	added := make([]bool, len(n.vertices))
+	addVertex := func(j int) {
+		added[j] = true
+		for r, i := range cols {
+			g := new(big.Int).Mul(big.NewInt(k), big.NewInt(int64(n.vertices[j][i])))
+			col[r] = new(big.Rat).SetInt(g.Sub(g, sum[i]))
+		}
+		t.addColumn(col, zero)
+	}
+	for _, j := range f.Vertices {
+		addVertex(j)
+	}
+	var pr pricer
+	y := make([]*big.Rat, d)
+	for {
+		if err := contextErr(ctx); err != nil {
+			return nil, nil, err
+		}
+		if st := t.solve(); st != Optimal {
+			// The primal is infeasible only if the normal cone is {0},
+			// which checkFace rules out for a face other than P.
+			return nil, nil, fmt.Errorf("%w: normal cone LP %v", ErrFace, st)
+		}
+		pi := t.duals()
+		for i := range y {
+			y[i] = new(big.Rat)
+		}
+		for r, i := range cols {
+			y[i].Neg(pi[r])
+		}
+		// y·v >= y·S/k for every vertex v.
+		b := new(big.Rat)
+		for i := range y {
+			b.Add(b, new(big.Rat).Mul(y[i], new(big.Rat).SetInt(sum[i])))
+		}
+		b.Quo(b, big.NewRat(k, 1))
+		viol := pr.price(n.vertices, y, b, 2*m)
+		if len(viol) == 0 {
+			break
+		}
+		for _, j := range viol {
+			if added[j] { // its reduced cost is >= 0 at an optimum
+				panic("polyhedron: internal error: normal cone LP prices an added column")
+			}
+			addVertex(j)
+		}
+	}
+	val := new(big.Rat)
+	for i := range y {
+		val.Add(val, new(big.Rat).Mul(c[i], y[i]))
+	}
+	return val, y, nil
+}
