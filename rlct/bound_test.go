@@ -2,6 +2,7 @@ package rlct
 
 import (
 	"bufio"
+	"context"
 	"encoding/json"
 	"errors"
 	"fmt"
@@ -54,11 +55,17 @@ func readKnownCases(t *testing.T) []knownCase {
 
 func solve(t *testing.T, s *Spec) *Result {
 	t.Helper()
+	return solveWith(t, s, nil)
+}
+
+// solveWith is solve with options; it fails the test on any error.
+func solveWith(t *testing.T, s *Spec, opt *Options) *Result {
+	t.Helper()
 	p, points, err := s.Problem()
 	if err != nil {
 		t.Fatalf("%+v: %v", s, err)
 	}
-	r, err := BoundAt(p, points, nil)
+	r, err := BoundAt(context.Background(), p, points, opt)
 	if err != nil {
 		t.Fatalf("%+v: %v", s, err)
 	}
@@ -88,9 +95,9 @@ func TestDegenerateWitness(t *testing.T) {
 	// is a zero of the face polynomial with x, y ≠ 0).
 	r := solve(t, &Spec{K: "(y-x^2)^2"})
 	var deg *FaceReport
-	for i := range r.Faces {
-		if r.Faces[i].Verdict == Degenerate {
-			deg = &r.Faces[i]
+	for i := range r.Certificate.Deciding {
+		if r.Certificate.Deciding[i].Verdict == Degenerate {
+			deg = &r.Certificate.Deciding[i]
 		}
 	}
 	if deg == nil {
@@ -144,7 +151,7 @@ func TestInvalidInput(t *testing.T) {
 		{Spec{K: "x^3+y^2"}, ErrNegative, "odd power of x"},
 		// The edge polynomial of x^2 - 3xy + y^2 is 1 - 3s + s^2, with two
 		// simple real roots: K changes sign although both vertices are fine.
-		{Spec{K: "x^2-3*x*y+y^2"}, ErrNegative, "changes sign"},
+		{Spec{K: "x^2-3*x*y+y^2"}, ErrNegative, "is -1 at x=1, y=1"},
 		{Spec{K: "x^2", Prior: "x=-1"}, ErrPrior, ""},
 		{Spec{K: "x^2", Prior: "x=-3/2"}, ErrPrior, ""},
 		{Spec{}, ErrNoFunction, ""},
@@ -153,7 +160,7 @@ func TestInvalidInput(t *testing.T) {
 	for _, tt := range tests {
 		p, points, err := tt.spec.Problem()
 		if err == nil {
-			_, err = BoundAt(p, points, nil)
+			_, err = BoundAt(context.Background(), p, points, nil)
 		}
 		if err == nil {
 			t.Errorf("%+v: no error", tt.spec)
@@ -197,11 +204,21 @@ func TestTruncatedSeries(t *testing.T) {
 		// (λ = 1 for a regular minimum, Watanabe 2009).
 		{"pure powers present", Spec{K: "1-cos(x)+y^2*exp(x)", Order: 4}, true, true, Exact, "1"},
 		// x² alone in (x, y): a supporting hyperplane gives y no weight,
-		// so no order can exclude terms y^k.
-		{"missing variable", Spec{K: "x^2*exp(x)", Vars: []string{"x", "y"}, Order: 3}, false, false, UpperBound, "1/2"},
-		// Truncating x^2 + y^8 at order 6 loses y^8: the truncated K is x²
-		// in (x, y), which cannot be certified.
-		{"polynomial cut short", Spec{K: "x^2+y^8", Order: 6}, false, false, UpperBound, "1/2"},
+		// so no order can exclude terms y^k, which would raise the Newton
+		// value: the value is not a bound at all.
+		{"missing variable", Spec{K: "x^2*exp(x)", Vars: []string{"x", "y"}, Order: 3}, false, false, Uncertified, "1/2"},
+		// z² + x²·sin(y)² cut at degree 3 loses x²y² (degree 4): the
+		// computed K is z² in (x, y, z), value 1/2, while the true K has
+		// the Newton value 1/2 + 1/2 = 1 of z² + x²y² (a sum of squared
+		// monomials: λ = min over the weighted directions; worked by hand
+		// from the polyhedron of {(0,0,2), (2,2,0)}, distance 1 along
+		// (1,1,1)). So 1/2 must not be called a bound.
+		{"series cut short", Spec{K: "z^2 + x^2*sin(y)^2", Order: 3}, false, false, Uncertified, "1/2"},
+		// (x − tanh(x))² + y² cut at degree 4: x − tanh(x) = x³/3 + O(x⁵)
+		// (Abramowitz & Stegun 4.5.64, from memory), so its square vanishes
+		// below degree 6; the computed K is y², value 1/2, the true value
+		// is 1/6 + 1/2 = 2/3 (x⁶/9 + y²). Not a bound.
+		{"square of a series cut short", Spec{K: "(x - tanh(x))^2 + y^2", Order: 4}, false, false, Uncertified, "1/2"},
 	}
 	for _, tt := range tests {
 		t.Run(tt.name, func(t *testing.T) {
@@ -226,7 +243,7 @@ func TestTruncationNeededOrder(t *testing.T) {
 	if r.Truncation.Principal {
 		t.Errorf("order 6 should not certify; reasons %v", r.Reasons)
 	}
-	if !strings.Contains(strings.Join(r.Reasons, " "), "order 8 would suffice") {
+	if r.Status != Uncertified || r.Truncation.BoundOrder != 8 || !strings.Contains(strings.Join(r.Reasons, " "), "order 8 would") {
 		t.Errorf("reasons %v do not name order 8", r.Reasons)
 	}
 	r = solve(t, &Spec{K: "y^4 + x^4*y^2*exp(x)", Order: 8})
@@ -454,5 +471,30 @@ func TestSeveralPoints(t *testing.T) {
 	if r.Lambda.RatString() != "3/2" || r.Status != UpperBound || len(r.Locals) != 2 ||
 		r.Locals[0].Status != UpperBound || r.Locals[1].Status != Exact {
 		t.Errorf("got λ %s status %s; reasons %v", r.Lambda.RatString(), r.Status, r.Reasons)
+	}
+}
+
+// Polynomial terms are never dropped by an order: only what a series
+// produces is truncated, so a polynomial K given with an order is exact.
+func TestOrderKeepsPolynomialTerms(t *testing.T) {
+	tests := []struct {
+		spec   Spec
+		lambda string
+		theta  int
+	}{
+		// x² + y¹⁰: λ = 1/2 + 1/10 = 3/5, θ = 1 (a sum of squared monomials
+		// in separate variables: the λ add, Watanabe 2009, Algebraic
+		// Geometry and Statistical Learning Theory, the remark on direct
+		// sums; chapter from memory).
+		{Spec{K: "x^2 + y^10", Order: 8}, "3/5", 1},
+		// x² + y⁸ at order 6: 1/2 + 1/8 = 5/8 (same source).
+		{Spec{K: "x^2+y^8", Order: 6}, "5/8", 1},
+	}
+	for _, tt := range tests {
+		r := solve(t, &tt.spec)
+		if r.Status != Exact || r.Lambda.RatString() != tt.lambda || r.Theta != tt.theta || r.Truncation != nil {
+			t.Errorf("%s at order %d: %s λ = %s θ = %d truncation %+v; want exact %s, %d, no truncation",
+				tt.spec.K, tt.spec.Order, r.Status, r.Lambda.RatString(), r.Theta, r.Truncation, tt.lambda, tt.theta)
+		}
 	}
 }

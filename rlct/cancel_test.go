@@ -35,7 +35,7 @@ func mustProblem(t *testing.T, s Spec) *Problem {
 	return p
 }
 
-func TestOptionsContextLive(t *testing.T) {
+func TestContextLive(t *testing.T) {
 	// A live context changes nothing. Expected values: x^4 + y^6 has
 	// λ = 5/12, θ = 1, exact (Howald 2001, Multiplier ideals of monomial
 	// ideals, Trans. AMS 353: lct(x^2, y^3) = 5/6, halved for squares);
@@ -51,7 +51,7 @@ func TestOptionsContextLive(t *testing.T) {
 		{Spec{SOS: lowRankGenerators(2, 3, 1)}, "1", 1},
 	}
 	for _, tt := range tests {
-		r, err := Bound(mustProblem(t, tt.spec), &Options{Context: context.Background()})
+		r, err := Bound(context.Background(), mustProblem(t, tt.spec), nil)
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -61,24 +61,91 @@ func TestOptionsContextLive(t *testing.T) {
 	}
 }
 
-func TestOptionsContextStops(t *testing.T) {
+func TestContextCancelled(t *testing.T) {
 	ctx, cancel := context.WithCancel(context.Background())
 	cancel()
-	if _, err := Bound(mustProblem(t, Spec{K: "x^4+y^6"}), &Options{Context: ctx}); !errors.Is(err, context.Canceled) {
+	if _, err := Bound(ctx, mustProblem(t, Spec{K: "x^4+y^6"}), nil); !errors.Is(err, context.Canceled) {
 		t.Errorf("cancelled context: error %v, want context.Canceled", err)
 	}
-	if _, err := BoundAt(mustProblem(t, Spec{K: "x^2"}), nil, &Options{Context: ctx}); !errors.Is(err, context.Canceled) {
+	if _, err := BoundAt(ctx, mustProblem(t, Spec{K: "x^2"}), nil, nil); !errors.Is(err, context.Canceled) {
 		t.Errorf("BoundAt, cancelled context: error %v, want context.Canceled", err)
 	}
+}
 
-	// ‖BA‖² with B, A of shape 4×2, 2×4 has a large face lattice and takes
-	// over ten seconds to finish on a development machine; a deadline of
-	// 20ms must stop it with an error, not a partial answer.
-	p := mustProblem(t, Spec{SOS: lowRankGenerators(4, 4, 2)})
-	ctx, cancel = context.WithTimeout(context.Background(), 20*time.Millisecond)
+// pairSquares returns the generators x_i² + x_j² for all i < j ≤ n. Each has
+// two terms, so every compact face of P(I) (the simplex of the 2·e_i) holds
+// the midpoint of a generator's terms and must be examined, and each is
+// nondegenerate (a generator with even exponents and positive coefficients
+// has no torus zero): a search that cannot stop early.
+func pairSquares(n int) []string {
+	var out []string
+	for i := 1; i <= n; i++ {
+		for j := i + 1; j <= n; j++ {
+			out = append(out, fmt.Sprintf("x%d^2 + x%d^2", i, j))
+		}
+	}
+	return out
+}
+
+func TestBudgetReached(t *testing.T) {
+	// Without a budget the pairs of 4 variables certify exactly: the
+	// generators have no common torus zero, and λ = n/4 = 1 for the simplex
+	// with vertices 4·e_i in P(K) (distance 1 along (1,…,1)), θ = 1 (worked
+	// by hand).
+	p := mustProblem(t, Spec{SOS: pairSquares(4)})
+	r, err := Bound(context.Background(), p, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if r.Status != Exact || r.Lambda.RatString() != "1" || r.Theta != 1 {
+		t.Fatalf("no budget: %s, λ = %s, θ = %d; want exact 1, 1 (%v)", r.Status, r.Lambda.RatString(), r.Theta, r.Reasons)
+	}
+	// 2^4 − 1 = 15 compact faces, all but the 4 vertices hold a midpoint.
+	if r.Certificate.Examined < 11 {
+		t.Errorf("examined %d faces, want at least the 11 of dimension ≥ 1", r.Certificate.Examined)
+	}
+	r, err = Bound(context.Background(), p, &Options{MaxFaces: 2})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if r.Status != UpperBound || r.Certificate.Stop != StopBudget || r.Certificate.Examined != 2 {
+		t.Fatalf("budget 2: %s, stop %q, examined %d; want upper-bound, budget, 2", r.Status, r.Certificate.Stop, r.Certificate.Examined)
+	}
+	if r.Lambda.RatString() != "1" || !strings.Contains(strings.Join(r.Reasons, "\n"), "budget reached") {
+		t.Errorf("budget 2: λ = %s, reasons %q", r.Lambda.RatString(), r.Reasons)
+	}
+}
+
+func TestDeadlineEndsSearch(t *testing.T) {
+	// 12 variables: 4,095 compact faces to examine, seconds of work. A
+	// deadline inside the search ends it like a spent budget: the value with
+	// status upper-bound and the reason, returned soon after the deadline.
+	p := mustProblem(t, Spec{SOS: pairSquares(12)})
+	const deadline = 200 * time.Millisecond
+	ctx, cancel := context.WithTimeout(context.Background(), deadline)
 	defer cancel()
-	r, err := Bound(p, &Options{Context: ctx})
-	if !errors.Is(err, context.DeadlineExceeded) || r != nil {
-		t.Errorf("deadline: result %v, error %v; want no result and context.DeadlineExceeded", r, err)
+	start := time.Now()
+	r, err := Bound(ctx, p, nil)
+	elapsed := time.Since(start)
+	if err != nil {
+		// The deadline passed before the search began (a very slow
+		// machine): then an error is the documented outcome.
+		if !errors.Is(err, context.DeadlineExceeded) {
+			t.Fatalf("error %v, want a result or context.DeadlineExceeded", err)
+		}
+		return
+	}
+	if r.Status != UpperBound || r.Certificate.Stop != StopBudget {
+		t.Errorf("status %s, stop %q; want upper-bound, budget", r.Status, r.Certificate.Stop)
+	}
+	// λ = n/4 = 3: P(I) is the simplex Σ x_i ≥ 2 spanned by the 2·e_i, so
+	// t = 2/n along (1,…,1) and P(K) = 2·P(I) gives t = 4/n (worked by hand).
+	if r.Lambda.RatString() != "3" {
+		t.Errorf("λ = %s, want 3", r.Lambda.RatString())
+	}
+	// Not a speed target: a generous bound that only a search ignoring
+	// its deadline would miss.
+	if elapsed > deadline+10*time.Second {
+		t.Errorf("returned after %v, long after the deadline %v", elapsed, deadline)
 	}
 }

@@ -1,6 +1,7 @@
 package rlct
 
 import (
+	"context"
 	"fmt"
 	"math/big"
 	"slices"
@@ -67,12 +68,18 @@ type FacetReport struct {
 	Rays []string
 }
 
-// Describe bounds p at its point, as Bound does, and describes the Newton
+// Describe bounds p at its point, as Bound does with Options.AllFaces set
+// (every compact face is decided and listed), and describes the Newton
 // polyhedron the bound comes from. It returns the errors of Bound, and an
 // error wrapping polyhedron.ErrTooLarge when the facets cannot be
 // enumerated within opt.Limits.
-func Describe(p *Problem, opt *Options) (*Description, error) {
-	res, err := Bound(p, opt)
+func Describe(ctx context.Context, p *Problem, opt *Options) (*Description, error) {
+	o := Options{}
+	if opt != nil {
+		o = *opt
+	}
+	o.AllFaces = true
+	res, err := Bound(ctx, p, &o)
 	if err != nil {
 		return nil, err
 	}

@@ -1,6 +1,7 @@
 package rlct
 
 import (
+	"context"
 	"fmt"
 	"math/big"
 	"math/rand/v2"
@@ -21,7 +22,7 @@ func describeSpec(t *testing.T, s *Spec) *Description {
 	if len(points) == 1 {
 		p.Point = points[0]
 	}
-	d, err := Describe(p, nil)
+	d, err := Describe(context.Background(), p, nil)
 	if err != nil {
 		t.Fatalf("%+v: %v", s, err)
 	}
@@ -217,11 +218,11 @@ func TestDescribeSOSAgainstExpansion(t *testing.T) {
 		if len(gens) == 0 {
 			continue
 		}
-		sos, err := Describe(&Problem{Generators: gens}, nil)
+		sos, err := Describe(context.Background(), &Problem{Generators: gens}, nil)
 		if err != nil {
 			t.Fatalf("trial %d: %v", trial, err)
 		}
-		poly, err := Describe(&Problem{K: k}, nil)
+		poly, err := Describe(context.Background(), &Problem{K: k}, nil)
 		if err != nil {
 			t.Fatalf("trial %d: K = %s: %v", trial, k, err)
 		}
@@ -275,7 +276,7 @@ func ExampleDescribe() {
 	if err != nil {
 		panic(err)
 	}
-	d, err := Describe(p, nil)
+	d, err := Describe(context.Background(), p, nil)
 	if err != nil {
 		panic(err)
 	}

@@ -18,7 +18,7 @@ func ExampleEstimateProblem() {
 		return
 	}
 	p.Point = points[0]
-	bound, err := rlct.Bound(p, nil)
+	bound, err := rlct.Bound(context.Background(), p, nil)
 	if err != nil {
 		fmt.Println(err)
 		return

@@ -154,7 +154,7 @@ func TestEstimatePrior(t *testing.T) {
 				}
 			}
 			// The same weights as Bound: τ_i = h_i + 1.
-			r, err := Bound(p, nil)
+			r, err := Bound(context.Background(), p, nil)
 			if err != nil {
 				t.Fatal(err)
 			}

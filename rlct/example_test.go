@@ -1,6 +1,7 @@
 package rlct_test
 
 import (
+	"context"
 	"fmt"
 
 	"github.com/lctkit/lctkit/monomial"
@@ -15,7 +16,7 @@ func ExampleBound() {
 		fmt.Println(err)
 		return
 	}
-	r, err := rlct.Bound(&rlct.Problem{K: ex.Poly}, nil)
+	r, err := rlct.Bound(context.Background(), &rlct.Problem{K: ex.Poly}, nil)
 	if err != nil {
 		fmt.Println(err)
 		return
@@ -27,7 +28,7 @@ func ExampleBound() {
 // A degenerate divergence gives only an upper bound, with the reason.
 func ExampleBound_degenerate() {
 	ex, _ := monomial.Parse("(y - x^2)^2", monomial.Config{})
-	r, _ := rlct.Bound(&rlct.Problem{K: ex.Poly}, nil)
+	r, _ := rlct.Bound(context.Background(), &rlct.Problem{K: ex.Poly}, nil)
 	fmt.Println(r.Lambda.RatString(), r.Theta, r.Status)
 	fmt.Println(r.Reasons[0])
 	// Output:
@@ -44,7 +45,7 @@ func ExampleSpec() {
 		fmt.Println(err)
 		return
 	}
-	r, err := rlct.BoundAt(p, points, nil)
+	r, err := rlct.BoundAt(context.Background(), p, points, nil)
 	if err != nil {
 		fmt.Println(err)
 		return

@@ -1,133 +1,148 @@
 package rlct
 
 import (
+	"context"
 	"fmt"
 	"math/big"
 
 	"github.com/lctkit/lctkit/polyhedron"
 )
 
-// checkTruncation certifies that the terms a series truncated at total degree
-// D left out cannot change the answer, and records reasons when it cannot.
+// TruncationReport is the check that the terms a truncated series left out
+// cannot change the answer.
+type TruncationReport struct {
+	// Order is the degree at which the series was cut.
+	Order int `json:"order"`
+	// Principal is true when the omitted terms cannot change t_τ, θ or the
+	// principal face, so the value is that of the full K and its status
+	// is at least UpperBound; false means the value is Uncertified.
+	Principal bool `json:"principal"`
+	// Faces is true when, in addition, the omitted terms cannot change any
+	// compact face or face polynomial, so the face verdicts carry over to
+	// the full K.
+	Faces bool `json:"faces"`
+	// BoundOrder is the smallest order at which the Principal condition
+	// holds for the terms known now, or -1 when no order can (a supporting
+	// hyperplane at the principal face gives some variable no weight).
+	BoundOrder int `json:"bound_order"`
+	// NeededOrder is the smallest order at which both conditions hold for
+	// the terms known now, or -1 when no order can. Terms that appear only
+	// at a higher order can change it, so it is a first order to try.
+	NeededOrder int `json:"needed_order"`
+}
+
+// checkTruncation certifies that the terms a series truncated at total
+// degree D left out cannot change the answer, and records reasons when it
+// cannot. It works in the coordinates of the polyhedron that was built
+// (P(K), or P(I) in sum-of-squares form, where the generators were cut).
 //
-// Every omitted term has total degree at least D+1, so for a weight vector
-// y ≥ 0 its value y·x is at least (D+1)·min_i y_i. The work happens in the
-// coordinates of the polyhedron that was built (P(K), or P(I) in
-// sum-of-squares form, where the generators were truncated).
+// The true function differs from the computed one by a series R all of
+// whose terms have total degree at least D+1 (monomial.Expansion), that is
+// exponents in Q = {x ≥ 0 : Σ x_i ≥ D+1} = conv{(D+1)·e_i} + R^d_{≥0}. For a
+// weight y ≥ 0, min over Q of y·x is (D+1)·min_i y_i.
 //
 //   - Principal face. The optimal supporting hyperplanes at t_τ·τ are the
-//     normals of the facets that contain the principal face (they generate its
-//     normal cone). If (D+1)·min_i a_i > b for each such facet a·x ≥ b, every
-//     omitted term lies strictly above all of them, so t_τ, the principal face
-//     and θ are those of the full K.
-//   - All compact faces. If moreover every omitted point lies in P ((D+1)·min a
-//     ≥ b for every facet) and strictly above every compact face ((D+1)·min a >
-//     b for its strictly positive normal), the full K has the same polyhedron,
-//     compact faces and face polynomials, so the nondegeneracy verdicts hold
-//     for it too.
-func (an *analysis) checkTruncation(order int, principal *polyhedron.Face, facets []polyhedron.Facet, lat *polyhedron.Lattice, ferr error) *TruncationReport {
+//     y ≥ 0 with y·τ = 1 and y·v ≥ t_τ for every vertex v: the normal cone
+//     of the principal face. If (D+1)·m > t_τ with m the least entry of
+//     any such y (m = min_i min_y y_i, one exact LP per coordinate), every
+//     point of Q lies strictly above all of them, so adding or cancelling
+//     terms there changes neither t_τ nor the principal face nor θ.
+//   - All compact faces. If moreover every (D+1)·e_i lies in P and on no
+//     compact face, then Q lies in P and strictly above every compact face
+//     (a compact face has a strictly positive normal a, and a·x ≥ (D+1)·min_i
+//     a_i > b on Q), so P, its compact faces and the face polynomials are
+//     those of the full K. With c_i the least exponent of a pure power
+//     w_i^{c_i} in the support, (D+1)·e_i lies in P exactly when c_i ≤ D+1
+//     and on no compact face exactly when c_i < D+1 (c_i·e_i is a vertex,
+//     and every point beyond it on the axis lies above all compact faces);
+//     without a pure power in w_i no order can rule out new faces.
+func (an *analysis) checkTruncation(ctx context.Context, order int, hit *polyhedron.Hit) (*TruncationReport, error) {
 	res := an.res
-	tr := &TruncationReport{Order: order, NeededOrder: -1}
-	if ferr != nil {
-		res.Reasons = append(res.Reasons, fmt.Sprintf(
-			"K is a series truncated at degree %d and the facets needed to check that the omitted terms cannot lower the value could not be enumerated (%v): the value is certified only for the truncated K, not as a bound for the full K", order, ferr))
-		return tr
-	}
-	verts := res.newton.Vertices()
-	noOrder := false
-	needPrincipal := 0 // smallest D with the principal condition
-	var zeroVar string
-	for _, f := range facets {
-		if !facetContains(f, principal, verts) {
-			continue
+	d := len(an.vars)
+	tr := &TruncationReport{Order: order, BoundOrder: -1, NeededOrder: -1}
+	newton := res.newton
+
+	// Principal condition.
+	m, at := (*big.Rat)(nil), -1
+	c := make([]*big.Rat, d)
+	for i := range d {
+		for k := range c {
+			c[k] = new(big.Rat)
 		}
-		m, at := minEntry(f.Normal)
-		if m.Sign() == 0 {
-			noOrder = true
-			zeroVar = an.vars[at]
-			continue
+		c[i].SetInt64(1)
+		v, _, err := newton.NormalConeMin(ctx, hit.Face, res.Weights, c)
+		if err != nil {
+			return nil, err
 		}
-		// (D+1)·m > b  ⟺  D ≥ floor(b/m).
-		needPrincipal = max(needPrincipal, int(new(big.Int).Quo(f.RHS, m).Int64()))
+		if m == nil || v.Cmp(m) < 0 {
+			m, at = v, i
+		}
 	}
+	principalOK := m.Sign() > 0
+	if principalOK {
+		// (D+1)·m > t  ⟺  D ≥ floor(t/m).
+		q := new(big.Rat).Quo(hit.T, m)
+		tr.BoundOrder = int(new(big.Int).Quo(q.Num(), q.Denom()).Int64())
+	}
+
+	// Faces condition: a pure power in every variable.
+	purest := make([]int, d)
+	for i := range purest {
+		purest[i] = -1
+	}
+	for _, v := range newton.Minimal() {
+		if j, ok := purePower(v); ok && (purest[j] < 0 || v[j] < purest[j]) {
+			purest[j] = v[j]
+		}
+	}
+	facesOK := true
 	needFaces := 0
-	facesNoOrder := false
-	for _, f := range facets {
-		m, _ := minEntry(f.Normal)
-		if m.Sign() == 0 {
-			if f.RHS.Sign() > 0 {
-				facesNoOrder = true
+	missing := ""
+	for i, c := range purest {
+		if c < 0 {
+			facesOK = false
+			if missing == "" {
+				missing = an.vars[i]
 			}
 			continue
 		}
-		// (D+1)·m ≥ b  ⟺  D ≥ ceil(b/m) − 1.
-		q, r := new(big.Int).QuoRem(f.RHS, m, new(big.Int))
-		need := int(q.Int64()) - 1
-		if r.Sign() > 0 {
-			need++
-		}
-		needFaces = max(needFaces, need)
+		needFaces = max(needFaces, c)
 	}
-	for _, f := range lat.Faces {
-		m, _ := minEntry(f.Normal)
-		if m.Sign() == 0 {
-			facesNoOrder = true // cannot happen for a compact face
-			continue
-		}
-		needFaces = max(needFaces, int(new(big.Int).Quo(f.RHS, m).Int64()))
+	tr.Principal = principalOK && order >= tr.BoundOrder
+	tr.Faces = tr.Principal && facesOK && order >= needFaces
+	if principalOK && facesOK {
+		tr.NeededOrder = max(tr.BoundOrder, needFaces)
 	}
-	needFaces = max(needFaces, needPrincipal)
-	tr.Principal = !noOrder && order >= needPrincipal
-	tr.Faces = tr.Principal && !facesNoOrder && order >= needFaces
-	if !noOrder && !facesNoOrder {
-		tr.NeededOrder = needFaces
-	}
+
+	notBound := "so the value is not a bound: omitted terms could raise the Newton value or change θ, and it may lie below the true learning coefficient"
 	switch {
-	case noOrder:
+	case !principalOK:
 		res.Reasons = append(res.Reasons, fmt.Sprintf(
-			"K is a series truncated at degree %d and no truncation order can certify it: a supporting hyperplane at the principal face gives no weight to %s, so omitted terms in the other variables could lower the value; the value is certified only for the truncated K, not as a bound for the full K", order, zeroVar))
+			"K is a series truncated at degree %d and no truncation order can certify it: a supporting hyperplane at the principal face gives no weight to %s, so omitted terms in the other variables can always reach the principal face; %s", order, an.vars[at], notBound))
 	case !tr.Principal:
 		res.Reasons = append(res.Reasons, fmt.Sprintf(
-			"K is a series truncated at degree %d, too low to certify that the omitted terms cannot lower the value (order %d would suffice); the value is certified only for the truncated K, not as a bound for the full K", order, needPrincipal))
-	case !tr.Faces && facesNoOrder:
+			"K is a series truncated at degree %d, too low to certify the value (order %d would, judging by the terms known now); %s", order, tr.BoundOrder, notBound))
+	case !tr.Faces && !facesOK:
 		res.Reasons = append(res.Reasons, fmt.Sprintf(
-			"K is a series truncated at degree %d: the value is a valid bound for the full K, but omitted terms could add compact faces whose nondegeneracy is unknown, and no truncation order can rule that out", order))
+			"K is a series truncated at degree %d: the value is a certified upper bound for the full K, but omitted terms could add compact faces whose nondegeneracy is unknown, and no truncation order can rule that out (K has no pure power of %s)", order, missing))
 	case !tr.Faces:
 		res.Reasons = append(res.Reasons, fmt.Sprintf(
-			"K is a series truncated at degree %d: the value is a valid bound for the full K, but omitted terms could add compact faces whose nondegeneracy is unknown (order %d would rule that out)", order, needFaces))
+			"K is a series truncated at degree %d: the value is a certified upper bound for the full K, but omitted terms could add compact faces whose nondegeneracy is unknown (order %d would rule that out)", order, tr.NeededOrder))
 	}
-	return tr
+	return tr, nil
 }
 
-// facetContains reports whether facet f contains face g: every vertex of g
-// lies on f and f gives no weight to the rays of g.
-func facetContains(f polyhedron.Facet, g *polyhedron.Face, verts [][]int) bool {
-	dot := new(big.Int)
-	t := new(big.Int)
-	for _, j := range g.Vertices {
-		dot.SetInt64(0)
-		for i, a := range f.Normal {
-			dot.Add(dot, t.Mul(a, big.NewInt(int64(verts[j][i]))))
+// purePower reports whether v = c·e_j for some j and c > 0, and returns j.
+func purePower(v []int) (int, bool) {
+	j := -1
+	for i, x := range v {
+		if x == 0 {
+			continue
 		}
-		if dot.Cmp(f.RHS) != 0 {
-			return false
+		if j >= 0 {
+			return -1, false
 		}
+		j = i
 	}
-	for _, i := range g.Rays {
-		if f.Normal[i].Sign() != 0 {
-			return false
-		}
-	}
-	return true
-}
-
-// minEntry returns the smallest entry of a and its index.
-func minEntry(a []*big.Int) (*big.Int, int) {
-	m, at := a[0], 0
-	for i, x := range a {
-		if x.Cmp(m) < 0 {
-			m, at = x, i
-		}
-	}
-	return m, at
+	return j, j >= 0
 }

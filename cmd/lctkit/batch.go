@@ -36,7 +36,8 @@ type batchCmd struct {
 	Shard    string        `help:"Answer only the lines L with (L−1) mod n = i, for 0 ≤ i < n (the first line belongs to shard 0/n); other lines give no output." placeholder:"i/n"`
 	Timeout  time.Duration `help:"Give up on a record after this long (0: never), e.g. 10s or 1m." placeholder:"10s"`
 	MaxTerms int           `help:"Most terms an expansion may have (0: the library default, 2,000,000)." placeholder:"N"`
-	Brief    bool          `help:"Leave out the per-face verdicts (\"nondegeneracy\"), by far the largest part of a record; λ, θ, status, reasons and the principal face stay."`
+	MaxFaces int           `name:"max-faces" help:"Most compact faces the certificate of one record examines before it stops with an upper bound (default 20000)." placeholder:"N"`
+	Brief    bool          `help:"Leave out the faces (the principal face and the faces that decided the status); λ, θ, status, summary, reasons and the certificate's counts stay."`
 
 	shardIndex, shardCount int
 }
@@ -65,8 +66,12 @@ with the id when it could be read, and the run goes on. A blank line (only
 white space) gives {"line": N, "error": "blank line"}. A line longer than
 64 MiB gives an error record and reading resumes after it.
 
---brief leaves out the list of compact faces with their verdicts, which is most
-of the output for problems with many faces.
+"status" is "exact", "upper-bound" or "uncertified" (a value from a truncated
+series that is not known to bound the truth: it may lie below it), and
+"summary" says in words what it claims. Only the faces that could be degenerate
+are examined, and the search stops at the first degenerate face, so a record
+stays small whatever the size of K. --brief also leaves out the principal face
+and the faces that decided the status.
 
 Records are computed on --workers goroutines and written in input order as
 each one is ready (at most 16 records per worker are held in memory), so the
@@ -75,11 +80,12 @@ every record written. --shard i/n splits one input among n runs (on n machines, 
 outputs of shards 0/n, 1/n, …, (n−1)/n together hold every line exactly once,
 and sorting their concatenation by "line" gives the unsharded output.
 
---timeout limits each record, from reading it to its answer; a record over it
-gives the error "timed out after 10s" (for --timeout 10s). Building the Newton
-polyhedron, enumerating its faces and checking them stop at the deadline;
-parsing and expanding K are not interrupted (--max-terms bounds them), so a
-record stuck there ends late, and is still reported as timed out.
+--timeout limits each record, from reading it to its answer. When it passes
+while faces are being examined, the record gets its value with status
+"upper-bound" and the reason "budget reached"; when it passes earlier (building
+the Newton polyhedron), the record gives the error "timed out after 10s" (for
+--timeout 10s). Parsing and expanding K are not interrupted (--max-terms bounds
+them), so a record stuck there ends late, and is still reported as timed out.
 
 A progress line is drawn on standard error when it is a terminal, and a summary
 line is always printed there at the end.
@@ -103,6 +109,9 @@ func (c *batchCmd) Validate() error {
 	}
 	if c.MaxTerms < 0 {
 		return errors.New("--max-terms must not be negative")
+	}
+	if c.MaxFaces < 0 {
+		return errors.New("--max-faces must not be negative")
 	}
 	c.shardIndex, c.shardCount = 0, 1
 	if c.Shard != "" {
@@ -311,9 +320,9 @@ func (c *batchCmd) solve(it batchItem, id *json.RawMessage) *rlct.Report {
 	p, points, err := rec.Spec.Problem()
 	var r *rlct.Result
 	if err == nil {
-		r, err = rlct.BoundAt(p, points, &rlct.Options{Context: ctx})
+		r, err = rlct.BoundAt(ctx, p, points, &rlct.Options{MaxFaces: c.MaxFaces})
 	}
-	if ctx.Err() != nil { // over time, whatever came back
+	if err != nil && ctx.Err() != nil {
 		return &rlct.Report{Error: "timed out after " + c.Timeout.String()}
 	}
 	if err != nil {
@@ -326,9 +335,13 @@ func (c *batchCmd) solve(it batchItem, id *json.RawMessage) *rlct.Report {
 	return rep
 }
 
-// dropFaces removes the per-face verdicts from rep and its local reports.
+// dropFaces removes the faces from rep and its local reports.
 func dropFaces(rep *rlct.Report) {
 	rep.Nondegeneracy = nil
+	rep.PrincipalFace = nil
+	if rep.Certificate != nil {
+		rep.Certificate.Deciding = nil
+	}
 	for _, l := range rep.Locals {
 		dropFaces(l)
 	}

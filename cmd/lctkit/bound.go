@@ -1,6 +1,7 @@
 package main
 
 import (
+	"context"
 	"encoding/json"
 	"errors"
 	"fmt"
@@ -26,6 +27,13 @@ type problemFlags struct {
 	SOS   string   `help:"Give K as a sum of squares instead of EXPR: generators separated by ';' stand for K = g1^2 + g2^2 + …; - reads them from standard input." placeholder:"g1; g2"`
 	Order int      `help:"Truncate power series at this total degree; needed for exp, log, sin, … and division by non-constants." placeholder:"D"`
 	Vars  string   `help:"Variables that come first, in this order; names K does not use still count as dimensions." placeholder:"x,y,z"`
+
+	MaxFaces int `name:"max-faces" help:"Most compact faces the certificate examines before it stops with an upper bound (default 20000)." placeholder:"N"`
+}
+
+// options returns the library options the flags ask for.
+func (f *problemFlags) options() *rlct.Options {
+	return &rlct.Options{MaxFaces: f.MaxFaces}
 }
 
 // spec turns the flags and the expression argument into a library spec. It
@@ -60,12 +68,12 @@ func (f *problemFlags) spec(expr string, e *env) (*rlct.Spec, string, error) {
 }
 
 // solve parses the spec and bounds it, printing positioned errors.
-func solve(s *rlct.Spec, e *env) (*rlct.Result, error) {
+func solve(s *rlct.Spec, opt *rlct.Options, e *env) (*rlct.Result, error) {
 	p, points, err := s.Problem()
 	if err != nil {
 		return nil, showSpecError(e, err)
 	}
-	r, err := rlct.BoundAt(p, points, nil)
+	r, err := rlct.BoundAt(context.Background(), p, points, opt)
 	if err != nil {
 		return nil, err
 	}
@@ -91,15 +99,29 @@ func showSpecError(e *env, err error) error {
 type boundCmd struct {
 	Expr string `arg:"" optional:"" help:"K(w), an expression vanishing at the point; - reads it from standard input. Without it the bundled example is evaluated."`
 	problemFlags
-	N    string `help:"Also print the penalty λ·log n − (θ−1)·log log n at these sample sizes (comma separated)." placeholder:"1000,10000"`
-	JSON bool   `help:"Print one JSON object."`
+	N        string `help:"Also print the penalty λ·log n − (θ−1)·log log n at these sample sizes (comma separated)." placeholder:"1000,10000"`
+	AllFaces bool   `name:"all-faces" help:"Decide and list every compact face of the Newton polyhedron (the full per-face report, which can be very large); the status is the same without it."`
+	JSON     bool   `help:"Print one JSON object."`
 }
 
 // Help is shown under the command's usage.
 func (c *boundCmd) Help() string {
 	return `Prints λ (the learning coefficient) and θ (its multiplicity) from the Newton
-polyhedron of K, marked "exact" only when every compact face is certified
-nondegenerate, and "upper bound" with the reasons otherwise.
+polyhedron of K with one of three statuses:
+
+  exact        certified: every compact face that could be degenerate was
+               decided nondegenerate (and a truncated series is long enough)
+  upper bound  certified only to bound the truth: the true λ is at most this
+               λ, and at equal λ the true θ is at least this θ; the reasons
+               say why nothing more is claimed
+  not a bound  ("uncertified" in JSON) the value of a truncated series whose
+               omitted terms could change it: it may lie below the true λ;
+               the output says which --order would certify it, or why none can
+
+Only the faces that hold a negative or odd term (in --sos form: two terms of
+one generator) can be degenerate, so only those are examined, and the search
+stops at the first degenerate face; --all-faces decides and lists every
+compact face instead.
 
 Examples:
   lctkit bound 'x^4 + y^6'
@@ -122,7 +144,9 @@ func (c *boundCmd) Run(e *env) error {
 	if note != "" && !c.JSON {
 		fmt.Fprintln(e.stdout, note)
 	}
-	r, err := solve(s, e)
+	opt := c.options()
+	opt.AllFaces = c.AllFaces
+	r, err := solve(s, opt, e)
 	if err != nil {
 		if c.JSON {
 			writeJSONError(e, err)
@@ -131,7 +155,7 @@ func (c *boundCmd) Run(e *env) error {
 	}
 	rep := r.Report()
 	if ns != nil {
-		rep.Penalty = rlct.NewPenaltyReport(r.Lambda, r.Theta, len(r.Vars), ns)
+		rep.Penalty = rlct.NewPenaltyReport(r.Lambda, r.Theta, r.Status, len(r.Vars), ns)
 	}
 	if c.JSON {
 		return writeJSON(e.stdout, rep)
@@ -175,21 +199,31 @@ func writeJSON(w io.Writer, v any) error {
 	return enc.Encode(v)
 }
 
+// statusWord is the status as the text output names it.
+func statusWord(s rlct.Status) string {
+	switch s {
+	case rlct.Exact:
+		return "exact"
+	case rlct.UpperBound:
+		return "upper bound"
+	}
+	return "NOT A BOUND"
+}
+
 // writeBound prints the plain-text answer.
 func writeBound(w io.Writer, r *rlct.Result, pen *rlct.PenaltyReport) {
-	status := "exact"
-	if r.Status != rlct.Exact {
-		status = "upper bound"
+	fmt.Fprintf(w, "λ = %s   θ = %d   (%s)\n", r.Lambda.RatString(), r.Theta, statusWord(r.Status))
+	switch r.Status {
+	case rlct.UpperBound:
+		fmt.Fprintf(w, "  the true λ is at most %s, and if it equals %s the true θ is at least %d (θ is ordered together with λ)\n",
+			r.Lambda.RatString(), r.Lambda.RatString(), r.Theta)
+	case rlct.Uncertified:
+		fmt.Fprintf(w, "  %s\n", r.Headline())
 	}
-	fmt.Fprintf(w, "λ = %s   θ = %d   (%s)\n", r.Lambda.RatString(), r.Theta, status)
 	if len(r.Locals) > 0 {
 		fmt.Fprintf(w, "  minimum over %d points; each point:\n", len(r.Locals))
 		for i, l := range r.Locals {
-			st := "exact"
-			if l.Status != rlct.Exact {
-				st = "upper bound"
-			}
-			fmt.Fprintf(w, "    %d. at %s: λ = %s, θ = %d (%s)\n", i+1, pointString(l.Vars, l.Point), l.Lambda.RatString(), l.Theta, st)
+			fmt.Fprintf(w, "    %d. at %s: λ = %s, θ = %d (%s)\n", i+1, pointString(l.Vars, l.Point), l.Lambda.RatString(), l.Theta, statusWord(l.Status))
 		}
 	} else if !allZero(r.Point) {
 		fmt.Fprintf(w, "  at the point %s (polynomials below are in the offsets w − w*)\n", pointString(r.Vars, r.Point))
@@ -202,45 +236,92 @@ func writeBound(w io.Writer, r *rlct.Result, pen *rlct.PenaltyReport) {
 	}
 	fmt.Fprintf(w, "  principal face: dimension %d, codimension %d (%s), vertices %s\n", pf.Dim, pf.Codim, kind, vertexList(pf.Vertices))
 	fmt.Fprintf(w, "  face polynomial: %s\n", pf.Polynomial)
-	if r.Status == rlct.Exact {
-		fmt.Fprintf(w, "  certificate: %s\n", certificateSummary(r.Faces))
+	switch r.Status {
+	case rlct.Exact:
+		fmt.Fprintf(w, "  certificate: %s\n", certificateSummary(r.Certificate, r.Form))
 		if r.Truncation != nil {
 			fmt.Fprintf(w, "  truncation at degree %d: the omitted terms cannot change the answer\n", r.Truncation.Order)
 		}
-	} else {
+	case rlct.UpperBound:
 		fmt.Fprintln(w, "  This is an upper bound, not necessarily the learning coefficient, because:")
-		for _, reason := range r.Reasons {
-			fmt.Fprintf(w, "  - %s\n", reason)
+	default:
+		fmt.Fprintln(w, "  This is not a bound: it may lie below the true learning coefficient, because:")
+	}
+	for _, reason := range r.Reasons {
+		fmt.Fprintf(w, "  - %s\n", reason)
+	}
+	if r.Status != rlct.Exact && r.Certificate != nil {
+		fmt.Fprintf(w, "  faces: %s\n", certificateSummary(r.Certificate, r.Form))
+	}
+	if len(r.Faces) > 0 {
+		fmt.Fprintf(w, "  compact faces (%d; * marks the principal face):\n", len(r.Faces))
+		for _, f := range r.Faces {
+			mark := " "
+			if f.Principal {
+				mark = "*"
+			}
+			fmt.Fprintf(w, "   %s %s  %s  %s\n", mark, vertexList(f.Vertices), f.Polynomial, verdictText(f))
 		}
 	}
 	if pen != nil {
-		fmt.Fprintln(w, "  penalty (asymptotic, in nats):")
-		for i, n := range pen.N {
-			if pen.Regular != nil {
-				fmt.Fprintf(w, "    n = %-10g λ·log n − (θ−1)·log log n = %.4f   regular (d/2)·log n = %.4f\n", n, pen.Singular[i], pen.Regular[i])
-			} else {
-				fmt.Fprintf(w, "    n = %-10g λ·log n − (θ−1)·log log n = %.4f\n", n, pen.Singular[i])
-			}
+		writePenaltyLines(w, pen, "    ")
+	}
+}
+
+// writePenaltyLines prints the penalties, each marked when the pair is not
+// exact, with a note that says what such a penalty is not.
+func writePenaltyLines(w io.Writer, pen *rlct.PenaltyReport, indent string) {
+	fmt.Fprintf(w, "%spenalty (asymptotic, in nats):\n", indent[2:])
+	mark := ""
+	if pen.Status != rlct.Exact {
+		mark = "   [" + statusWord(pen.Status) + " pair]"
+		fmt.Fprintf(w, "%snote: %s\n", indent, pen.Note)
+	}
+	for i, n := range pen.N {
+		if pen.Regular != nil {
+			fmt.Fprintf(w, "%sn = %-10g λ·log n − (θ−1)·log log n = %.4f   regular (d/2)·log n = %.4f%s\n", indent, n, pen.Singular[i], pen.Regular[i], mark)
+		} else {
+			fmt.Fprintf(w, "%sn = %-10g λ·log n − (θ−1)·log log n = %.4f%s\n", indent, n, pen.Singular[i], mark)
 		}
 	}
 }
 
-// certificateSummary counts the faces by the rule that certified them.
-func certificateSummary(faces []rlct.FaceReport) string {
-	count := map[string]int{}
-	for _, f := range faces {
-		count[f.Rule]++
+// certificateSummary says how the faces were decided.
+func certificateSummary(c *rlct.Certificate, form string) string {
+	if c == nil {
+		return "no face was decided"
+	}
+	unsafe := "a negative or odd term"
+	if form == "sum-of-squares" {
+		unsafe = "two terms of one generator"
+	}
+	if c.Examined == 0 && c.Unsafe == 0 {
+		if form == "sum-of-squares" {
+			return "no generator has two terms on a compact face, so on every compact face some generator is a single term and the face is nondegenerate"
+		}
+		return "every term has a positive coefficient and even exponents, so every compact face polynomial is positive on the torus (nondegenerate)"
 	}
 	var rules []string
-	for rule := range count {
+	for rule := range c.ByRule {
 		rules = append(rules, rule)
 	}
 	sort.Strings(rules)
 	parts := make([]string, len(rules))
 	for i, rule := range rules {
-		parts[i] = fmt.Sprintf("%d by %s", count[rule], rule)
+		parts[i] = fmt.Sprintf("%d by %s", c.ByRule[rule], rule)
 	}
-	return fmt.Sprintf("all %d compact faces are nondegenerate (%s)", len(faces), strings.Join(parts, ", "))
+	s := fmt.Sprintf("%d compact faces examined (%s); %d degenerate, %d undetermined", c.Examined, strings.Join(parts, ", "), c.Degenerate, c.Undetermined)
+	switch c.Stop {
+	case rlct.StopSettled:
+		s += "; the search stopped at the first degenerate face"
+	case rlct.StopBudget:
+		s += "; the search stopped at its budget (--max-faces, or the time allowed)"
+	default:
+		if c.Degenerate == 0 && c.Undetermined == 0 {
+			s = fmt.Sprintf("every compact face that holds %s was decided nondegenerate: %s; all other compact faces are nondegenerate by their terms alone", unsafe, s)
+		}
+	}
+	return s
 }
 
 func pointString(vars []string, x []*big.Rat) string {

@@ -1,6 +1,7 @@
 package main
 
 import (
+	"context"
 	"fmt"
 	"math/big"
 	"os"
@@ -62,7 +63,7 @@ func (c *drawCmd) Run(e *env) error {
 	if len(points) == 1 {
 		p.Point = points[0]
 	}
-	d, err := rlct.Describe(p, nil)
+	d, err := rlct.Describe(context.Background(), p, c.options())
 	if err != nil {
 		return err
 	}
@@ -250,10 +251,7 @@ type captionText struct {
 // captionLines states λ, θ, the status and where they come from, and warns
 // when the axes are drawn to different scales.
 func captionLines(d *rlct.Description, stretched bool) []captionText {
-	status := "exact"
-	if d.Status != rlct.Exact {
-		status = "upper bound"
-	}
+	status := statusWord(d.Status)
 	lines := []captionText{{
 		`class="caption-result" font-size="18" font-weight="bold"`,
 		esc(fmt.Sprintf("λ = %s\u2003\u2003θ = %d\u2003\u2003%s", d.Lambda.RatString(), d.Theta, status)),
@@ -264,10 +262,13 @@ func captionLines(d *rlct.Description, stretched bool) []captionText {
 		captionText{plain, esc("so ") + sub("t", "τ", " = "+d.Distance.RatString()+" and λ = 1/") + sub("t", "τ", " = "+d.Lambda.RatString()+"; θ is the codimension of the principal face.")},
 	)
 	var why string
-	if d.Status == rlct.Exact {
+	switch d.Status {
+	case rlct.Exact:
 		why = "Exact: every compact face is nondegenerate (face polynomial without zeros in the real torus)."
-	} else {
-		why = "Upper bound only: " + upperBoundWhy(d) + "; see lctkit faces for the details."
+	case rlct.UpperBound:
+		why = "Upper bound only (the true λ is at most this; at equal λ the true θ is at least this): " + upperBoundWhy(d) + "; see lctkit faces for the details."
+	default:
+		why = "Not a bound: this value of a truncated series may lie below the true λ; " + upperBoundWhy(d) + "; see lctkit bound for the order that would certify it."
 	}
 	if stretched {
 		why += " The axes are drawn to different scales."
@@ -298,6 +299,9 @@ func upperBoundWhy(d *rlct.Description) string {
 	}
 	if d.Truncation != nil && !d.Truncation.Faces {
 		parts = append(parts, "the truncated series is not certified long enough")
+	}
+	if d.Certificate != nil && d.Certificate.Stop == rlct.StopBudget {
+		parts = append(parts, "the face budget was reached")
 	}
 	if len(parts) == 0 && len(d.Reasons) > 0 {
 		parts = append(parts, shorten(d.Reasons[0], 120))

@@ -2,6 +2,7 @@ package main
 
 import (
 	"bytes"
+	"context"
 	"encoding/xml"
 	"fmt"
 	"io"
@@ -485,7 +486,7 @@ func FuzzDraw(f *testing.F) {
 		if err != nil || p.K.NumVars() < 2 || p.K.NumVars() > 3 || p.K.Degree() > 24 {
 			return
 		}
-		d, err := rlct.Describe(p, nil)
+		d, err := rlct.Describe(context.Background(), p, nil)
 		if err != nil {
 			return
 		}
@@ -517,7 +518,7 @@ func TestFacetPolygons(t *testing.T) {
 			}
 			k = k.Add(monomial.Monomial(vars, e, big.NewRat(int64(1+rng.IntN(3)), 1)))
 		}
-		d, err := rlct.Describe(&rlct.Problem{K: k}, nil)
+		d, err := rlct.Describe(context.Background(), &rlct.Problem{K: k}, nil)
 		if err != nil {
 			t.Fatalf("K = %s: %v", k, err)
 		}

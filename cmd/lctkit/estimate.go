@@ -103,7 +103,7 @@ func (c *estimateCmd) run(e *env) error {
 
 	// The bound first: it is quick, and it refuses a K that has no learning
 	// coefficient at the point.
-	bound, berr := rlct.Bound(p, nil)
+	bound, berr := rlct.Bound(context.Background(), p, nil)
 	if berr != nil && boundRefuses(berr) {
 		return berr
 	}

@@ -35,10 +35,7 @@ const estimateCaution = "The error bars are statistical only. The asymptotic reg
 
 // boundStatus names the status of the bound in words.
 func boundStatus(r *rlct.Result) string {
-	if r.Status == rlct.Exact {
-		return "exact"
-	}
-	return "upper bound"
+	return statusWord(r.Status)
 }
 
 // verdictText is the plain verdict: the library's wording, or why there is

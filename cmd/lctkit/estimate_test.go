@@ -2,6 +2,7 @@ package main
 
 import (
 	"bytes"
+	"context"
 	"encoding/json"
 	"errors"
 	"fmt"
@@ -318,7 +319,7 @@ func TestEstimateNotes(t *testing.T) {
 	if !strings.Contains(out, "power series cut at degree 6") || !strings.Contains(out, "proxy") {
 		t.Errorf("no note on the truncated series:\n%s", out)
 	}
-	bound, err := rlct.Bound(mustProblem(t, "x^2"), nil)
+	bound, err := rlct.Bound(context.Background(), mustProblem(t, "x^2"), nil)
 	if err != nil {
 		t.Fatal(err)
 	}

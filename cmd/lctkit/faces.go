@@ -2,6 +2,7 @@ package main
 
 import (
 	"bytes"
+	"context"
 	"fmt"
 	"io"
 	"math/big"
@@ -42,7 +43,7 @@ func (c *facesCmd) Run(e *env) error {
 	if note != "" && !c.JSON {
 		fmt.Fprintln(e.stdout, note)
 	}
-	descs, err := describe(s, e)
+	descs, err := describe(s, c.options(), e)
 	if err != nil {
 		if c.JSON {
 			writeJSONError(e, err)
@@ -75,7 +76,7 @@ func (c *facesCmd) Run(e *env) error {
 
 // describe parses the spec and describes the polyhedron at each of its
 // points (the origin when none is given), printing positioned errors.
-func describe(s *rlct.Spec, e *env) ([]*rlct.Description, error) {
+func describe(s *rlct.Spec, opt *rlct.Options, e *env) ([]*rlct.Description, error) {
 	p, points, err := s.Problem()
 	if err != nil {
 		return nil, showSpecError(e, err)
@@ -87,7 +88,7 @@ func describe(s *rlct.Spec, e *env) ([]*rlct.Description, error) {
 	for i, w := range points {
 		q := *p
 		q.Point = w
-		d, err := rlct.Describe(&q, nil)
+		d, err := rlct.Describe(context.Background(), &q, opt)
 		if err != nil {
 			if len(points) > 1 {
 				return nil, fmt.Errorf("point %d: %w", i+1, err)
@@ -110,10 +111,7 @@ func writeFaces(out io.Writer, d *rlct.Description) {
 }
 
 func writeFacesTo(w io.Writer, d *rlct.Description) {
-	status := "exact"
-	if d.Status != rlct.Exact {
-		status = "upper bound"
-	}
+	status := statusWord(d.Status)
 	where := "at the origin"
 	if !allZero(d.Point) {
 		where = "at " + pointString(d.Vars, d.Point)
@@ -159,7 +157,7 @@ func writeFacesTo(w io.Writer, d *rlct.Description) {
 	tw.Flush()
 
 	if d.Faces == nil {
-		fmt.Fprintln(w, "\ncompact faces: not enumerated")
+		fmt.Fprintln(w, "\ncompact faces: not enumerated (see the reasons)")
 	} else {
 		fmt.Fprintf(w, "\ncompact faces (%d; * marks the principal face):\n", len(d.Faces))
 		tw = tabwriter.NewWriter(w, 0, 0, 3, ' ', 0)
@@ -188,8 +186,13 @@ func writeFacesTo(w io.Writer, d *rlct.Description) {
 	if !pf.Compact {
 		fmt.Fprintf(w, "  face polynomial: %s\n", pf.Polynomial)
 	}
+	switch d.Status {
+	case rlct.UpperBound:
+		fmt.Fprintln(w, "\nThis is an upper bound, not necessarily the learning coefficient (the true λ is at most this λ, and at equal λ the true θ is at least this θ), because:")
+	case rlct.Uncertified:
+		fmt.Fprintln(w, "\nThis is not a bound: it may lie below the true learning coefficient, because:")
+	}
 	if d.Status != rlct.Exact {
-		fmt.Fprintln(w, "\nThis is an upper bound, not necessarily the learning coefficient, because:")
 		for _, r := range d.Reasons {
 			fmt.Fprintf(w, "  - %s\n", r)
 		}

@@ -41,7 +41,7 @@ func TestFacesText(t *testing.T) {
 				"λ = 3/4 θ = 1 (upper bound)",
 				"x + 2*y >= 4 compact vertices (0,2) (4,0)",
 				"* (0,2) (4,0) x^4 - 2*x^2*y + y^2 degenerate (edge-sturm): vanishes at x=1, y=1, where x^2*y^-1 = 1",
-				"This is an upper bound, not necessarily the learning coefficient, because:",
+				"This is an upper bound, not necessarily the learning coefficient (the true λ is at most this λ, and at equal λ the true θ is at least this θ), because:",
 			},
 		},
 		{

@@ -38,13 +38,87 @@ func TestBoundJSON(t *testing.T) {
 	if err := json.Unmarshal([]byte(out), &rep); err != nil {
 		t.Fatal(err)
 	}
-	for _, key := range []string{"lambda", "theta", "status", "distance", "variables", "prior", "principal_face", "nondegeneracy"} {
+	for _, key := range []string{"lambda", "theta", "status", "distance", "variables", "prior", "principal_face", "certificate", "summary"} {
 		if _, ok := rep[key]; !ok {
 			t.Errorf("JSON lacks %q: %s", key, out)
 		}
 	}
 	if rep["lambda"] != "5/12" || rep["theta"] != float64(1) || rep["status"] != "exact" {
 		t.Errorf("got %v %v %v", rep["lambda"], rep["theta"], rep["status"])
+	}
+	if _, ok := rep["nondegeneracy"]; ok {
+		t.Errorf("the per-face list is printed without --all-faces: %s", out)
+	}
+	out, _, code = runCLI(t, "", "bound", "x^4+y^6", "--json", "--all-faces")
+	if code != exitOK || !strings.Contains(out, `"nondegeneracy"`) {
+		t.Errorf("--all-faces: exit %d, no per-face list: %s", code, out)
+	}
+}
+
+// The three statuses, as the text and JSON outputs name them, on the cases
+// of the issue that asked for them. True values: x² + y¹⁰ is 1/2 + 1/10 = 3/5
+// (sum of squared monomials in separate variables, worked by hand); the
+// truncations of z² + x²·sin(y)² at degree 3 and of (x − tanh(x))² + y² at
+// degree 4 drop x²y² and x⁶/9, so their computed value 1/2 lies below the true
+// 1 and 2/3 (worked by hand from sin y = y − …, x − tanh x = x³/3 − …).
+func TestStatusWords(t *testing.T) {
+	tests := []struct {
+		args   []string
+		status string
+		text   []string
+	}{
+		{[]string{"x^2 + y^10", "--order", "8"}, "exact", []string{"λ = 3/5", "(exact)"}},
+		{[]string{"(x-y)^2"}, "upper-bound", []string{"(upper bound)", "θ is ordered together with λ"}},
+		{[]string{"z^2 + x^2*sin(y)^2", "--order", "3"}, "uncertified", []string{"(NOT A BOUND)", "not a bound", "may lie below"}},
+		{[]string{"(x - tanh(x))^2 + y^2", "--order", "4"}, "uncertified", []string{"(NOT A BOUND)", "may lie below"}},
+		{[]string{"y^4 + x^4*y^2*exp(x)", "--order", "6"}, "uncertified", []string{"(NOT A BOUND)", "degree 8 or more would certify"}},
+	}
+	for _, tt := range tests {
+		out, _, code := runCLI(t, "", append([]string{"bound"}, tt.args...)...)
+		if code != exitOK {
+			t.Fatalf("%v: exit %d", tt.args, code)
+		}
+		for _, want := range tt.text {
+			if !strings.Contains(out, want) {
+				t.Errorf("%v: text lacks %q:\n%s", tt.args, want, out)
+			}
+		}
+		if tt.status != "exact" && strings.Contains(out, "(exact)") {
+			t.Errorf("%v: text says exact:\n%s", tt.args, out)
+		}
+		if tt.status == "uncertified" && strings.Contains(out, "(upper bound)") {
+			t.Errorf("%v: text calls a value that is not a bound an upper bound:\n%s", tt.args, out)
+		}
+		js, _, _ := runCLI(t, "", append([]string{"bound", "--json", "--n", "1000"}, tt.args...)...)
+		var rep struct {
+			Status  string `json:"status"`
+			Summary string `json:"summary"`
+			Penalty struct {
+				Status string `json:"status"`
+				Note   string `json:"note"`
+			} `json:"penalty"`
+		}
+		if err := json.Unmarshal([]byte(js), &rep); err != nil {
+			t.Fatal(err)
+		}
+		if rep.Status != tt.status || rep.Penalty.Status != tt.status || (tt.status != "exact") != (rep.Penalty.Note != "") {
+			t.Errorf("%v: JSON status %q, penalty %+v; want %q", tt.args, rep.Status, rep.Penalty, tt.status)
+		}
+		if tt.status == "uncertified" && !strings.HasPrefix(rep.Summary, "not a bound") {
+			t.Errorf("%v: summary %q", tt.args, rep.Summary)
+		}
+	}
+}
+
+// A penalty from a pair that is not exact is marked on every line.
+func TestPenaltyMarksBoundPairs(t *testing.T) {
+	out, _, _ := runCLI(t, "", "bound", "(x-y)^2", "--n", "1000,10000")
+	if strings.Count(out, "[upper bound pair]") != 2 || !strings.Contains(out, "note: from an upper bound") {
+		t.Errorf("penalties not marked:\n%s", out)
+	}
+	out, _, _ = runCLI(t, "", "penalty", "--lambda", "1/2", "--n", "1000", "--status", "uncertified")
+	if !strings.Contains(out, "not a bound") {
+		t.Errorf("penalty --status uncertified not marked:\n%s", out)
 	}
 }
 

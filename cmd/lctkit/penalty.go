@@ -14,6 +14,7 @@ type penaltyCmd struct {
 	Theta  int    `default:"1" help:"The multiplicity θ (a positive integer)."`
 	N      string `required:"" help:"Sample sizes, comma separated; each must exceed 3." placeholder:"1000,10000"`
 	D      int    `help:"Number of parameters: also print the regular model's penalty (d/2)·log n." placeholder:"d"`
+	Status string `default:"exact" enum:"exact,upper-bound,uncertified" help:"The status of the pair, as bound reports it (exact, upper-bound, uncertified); a pair that is not exact marks every penalty."`
 	JSON   bool   `help:"Print one JSON object."`
 }
 
@@ -52,11 +53,14 @@ func (c *penaltyCmd) Run(e *env) error {
 	if err != nil {
 		return fmt.Errorf("--n: %w", err)
 	}
-	rep := rlct.NewPenaltyReport(lambda, c.Theta, c.D, ns)
+	rep := rlct.NewPenaltyReport(lambda, c.Theta, rlct.Status(c.Status), c.D, ns)
 	if c.JSON {
 		return writeJSON(e.stdout, rep)
 	}
 	fmt.Fprintf(e.stdout, "λ = %s, θ = %d (asymptotic penalties, in nats)\n", lambda.RatString(), c.Theta)
+	if rep.Note != "" {
+		fmt.Fprintf(e.stdout, "%s pair: %s\n", statusWord(rep.Status), rep.Note)
+	}
 	if c.D > 0 {
 		fmt.Fprintf(e.stdout, "%12s  %22s  %22s\n", "n", "λ·log n − (θ−1)·log log n", fmt.Sprintf("regular, d = %d", c.D))
 	} else {
