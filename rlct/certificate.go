@@ -88,7 +88,8 @@ type search struct {
 	ctx       context.Context
 	cert      *Certificate
 	principal *polyhedron.Face
-	seen      map[string]bool
+	seen      map[string]bool // faces examined
+	queued    map[string]bool // faces whose covers are (to be) examined
 	queue     faceQueue
 	undecided []string // reasons for undetermined faces, in the order found
 	done      bool     // the search must stop (settled or budget)
@@ -100,7 +101,7 @@ type search struct {
 func (an *analysis) certify(ctx context.Context, principal *polyhedron.Face) error {
 	cert := &Certificate{ByRule: map[string]int{}}
 	an.res.Certificate = cert
-	s := &search{an: an, ctx: ctx, cert: cert, principal: principal, seen: map[string]bool{}}
+	s := &search{an: an, ctx: ctx, cert: cert, principal: principal, seen: map[string]bool{}, queued: map[string]bool{}}
 	if !an.sos {
 		if err := an.checkVertexSigns(); err != nil {
 			return err
@@ -124,13 +125,16 @@ func (an *analysis) certify(ctx context.Context, principal *polyhedron.Face) err
 // dimension first.
 func (s *search) run() error {
 	an := s.an
+	unsafe, ok := an.unsafePoints()
+	s.cert.Unsafe = len(unsafe)
+	// The principal face is examined first (one face, and it often
+	// settles the status); the faces above it are climbed only when it
+	// holds an unsafe point, like every other face.
 	if s.principal.Compact() {
-		if err := s.visit(s.principal); err != nil || s.done {
+		if err := s.visit(s.principal, false); err != nil || s.done {
 			return err
 		}
 	}
-	unsafe, ok := an.unsafePoints()
-	s.cert.Unsafe = len(unsafe)
 	if !ok {
 		s.stop(StopBudget)
 		return nil
@@ -146,7 +150,7 @@ func (s *search) run() error {
 		if f == nil {
 			continue
 		}
-		if err := s.visit(f); err != nil || s.done {
+		if err := s.visit(f, true); err != nil || s.done {
 			return err
 		}
 	}
@@ -160,7 +164,7 @@ func (s *search) run() error {
 			return s.interrupted(err)
 		}
 		for _, f := range covers {
-			if err := s.visit(f); err != nil || s.done {
+			if err := s.visit(f, true); err != nil || s.done {
 				return err
 			}
 		}
@@ -192,7 +196,7 @@ func (s *search) allFaces() error {
 		if s.done {
 			return nil
 		}
-		if err := s.visit(f); err != nil {
+		if err := s.visit(f, false); err != nil {
 			return err
 		}
 	}
@@ -233,9 +237,14 @@ func (s *search) stop(why string) {
 	}
 }
 
-// visit examines face f once and queues it for the faces above it.
-func (s *search) visit(f *polyhedron.Face) error {
+// visit examines face f once and, when climb is set, queues it once so
+// that the faces above it are examined too.
+func (s *search) visit(f *polyhedron.Face, climb bool) error {
 	key := faceKey(f)
+	if climb && !s.queued[key] {
+		s.queued[key] = true
+		heap.Push(&s.queue, f)
+	}
 	if s.seen[key] {
 		return nil
 	}
@@ -269,7 +278,6 @@ func (s *search) visit(f *polyhedron.Face) error {
 		cert.Undetermined++
 		s.keep(fr)
 	}
-	heap.Push(&s.queue, f)
 	return nil
 }
 

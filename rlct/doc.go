@@ -14,14 +14,28 @@
 //
 // # The Newton value
 //
-// For a prior that is locally Π |w_i − w*_i|^{h_i}, let τ_i = h_i + 1 where
-// w*_i = 0 after translation (τ_i = 1 elsewhere, where the prior factor is
-// smooth and positive). Let t_τ be the least t with t·τ in the Newton
-// polyhedron P(K) = conv(supp K) + R^d_{≥0} of K translated to the point.
-// The Newton value is λ = 1/t_τ, with θ the codimension of the face of P(K)
-// that holds t_τ·τ in its relative interior. It bounds the true pair from
-// above in the order where a smaller λ, or an equal λ with a larger θ, is
-// smaller (see Less).
+// The prior is a density proportional to Π |w_i|^{h_i} times a smooth
+// positive function, written in the coordinates of K (Problem.Prior). At a
+// point w*, translated to the origin, let τ_i = h_i + 1 where w*_i = 0 and
+// τ_i = 1 elsewhere (there |w_i|^{h_i} is smooth and positive). Let t_τ be
+// the least t with t·τ in the Newton polyhedron P(K) = conv(supp K) +
+// R^d_{≥0} of K translated to the point. The Newton value is λ = 1/t_τ,
+// with θ the codimension of the face of P(K) that holds t_τ·τ in its
+// relative interior (the principal face).
+//
+// # Statuses
+//
+// A Result has one of three statuses, and claims exactly what it says:
+//
+//   - Exact: (λ, θ) is the learning coefficient and its multiplicity.
+//   - UpperBound: the Newton value bounds the true pair from above in the
+//     order where a smaller λ, or an equal λ with a larger θ, is smaller
+//     (see Less): the true λ is at most λ, and at equal λ the true θ is at
+//     least θ. A degenerate face does not make the bound strict, and
+//     nothing here claims that it does.
+//   - Uncertified: the value of a truncated series whose omitted terms
+//     could change it. It is not known to bound anything and may lie below
+//     the true λ; TruncationReport says which order would certify it.
 //
 // # The certificate
 //
@@ -30,29 +44,30 @@
 // zero in the real torus (R∖{0})^d (Varchenko 1976, Newton polyhedra and
 // estimation of oscillating integrals, Funct. Anal. Appl. 10; in the form
 // with a monomial prior, Arnold, Gusein-Zade & Varchenko 1988, Singularities
-// of Differentiable Maps Vol. II). Bound decides every compact face with
-// sound tests only, and records which one applied:
+// of Differentiable Maps Vol. II).
 //
-//   - a vertex is a single term and never vanishes on the torus (K ≥ 0 is
-//     checked first: a vertex term with a negative coefficient or an odd
-//     exponent, or an edge polynomial with a real root of odd multiplicity,
-//     makes K negative near the point, which is an error);
-//   - a face polynomial whose terms all have positive coefficients and even
-//     exponents is positive on the torus;
-//   - on an edge the face polynomial is w^v·p(w^u) with p univariate and
-//     p(0) ≠ 0; as w^u takes every non-zero real value on the torus, the
-//     edge is degenerate exactly when p has a real root, which Sturm
-//     sequences decide in exact arithmetic (the witness names the root and
-//     a torus point);
-//   - in sum-of-squares form, a face on which some generator's part is
-//     c·w^v·p(w^u) with p free of real roots (a single monomial included)
-//     has no common zero.
+// Most faces need no work: a face polynomial whose terms all have positive
+// coefficients and even exponents is positive on the torus. So only the
+// faces holding an unsafe point (a negative or odd term; in sum-of-squares
+// form the midpoint of two terms of one generator) are decided, found from
+// the unsafe points upwards: the smallest face holding each (an exact LP),
+// then the faces above it (see Certificate). A sum of squared monomials,
+// however large, is Exact without examining any face but the principal one.
+// Each examined face is decided by the first rule of an ordered table that
+// applies (vertex, even positive terms, a generator without torus zeros,
+// edges by exact Sturm sequences; see the rule_*.go files for each rule's
+// soundness argument); a face no rule decides is Undetermined. The search
+// stops at the first degenerate face (with a witness, the status is settled
+// as UpperBound) and at a budget of faces examined or the context's deadline
+// (UpperBound, with the reason "budget reached"). Options.AllFaces decides
+// and lists every compact face instead; the status is the same.
 //
-// Any other face is undetermined. The status is Exact only when every
-// compact face is certified nondegenerate; otherwise it is UpperBound and
-// Result.Reasons says which face failed or could not be decided. A
-// degenerate face does not make the bound strict, and nothing here claims
-// that it does.
+// Before the rules, every examined face in polynomial form gets a sign
+// check: a torus point where K_σ < 0 makes K negative near the point
+// (ErrNegative, with the point). On vertices and edges the check is exact
+// and complete; on larger faces it is a seeded search whose candidates are
+// confirmed in exact arithmetic, and a face where it finds nothing keeps its
+// verdict.
 //
 // # Sum-of-squares form
 //
@@ -62,11 +77,13 @@
 //
 // # Truncated series
 //
-// Dropping terms can only shrink P(K), so the value of a truncated series
-// need not bound the full K. When Problem.Truncated is set, Bound checks
-// that every omitted term (total degree above Problem.Order) lies strictly
-// above every optimal supporting hyperplane at t_τ·τ, and, for Exact, above
-// every compact face; see TruncationReport.
+// A truncated series differs from the true K by terms of total degree above
+// Problem.Order, which can only raise the Newton value when they are added.
+// Bound certifies that they lie strictly above every optimal supporting
+// hyperplane at t_τ·τ (then the value is that of the full K: UpperBound or
+// better) and, for Exact, above every compact face (then the face verdicts
+// carry over); otherwise the value is Uncertified. Both checks are exact and
+// need no facet enumeration; see TruncationReport.
 //
 // # Numerical estimates
 //
