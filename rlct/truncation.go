@@ -114,14 +114,14 @@ func (an *analysis) checkTruncation(ctx context.Context, order int, hit *polyhed
 		tr.NeededOrder = max(tr.BoundOrder, needFaces)
 	}
 
-	notBound := "so the value is not a bound: omitted terms could raise the Newton value or change θ, and it may lie below the true learning coefficient"
+	notBound := "the value is not a bound: omitted terms could raise the Newton value or change θ, so it may lie below the true learning coefficient"
 	switch {
 	case !principalOK:
 		res.Reasons = append(res.Reasons, fmt.Sprintf(
-			"K is a series truncated at degree %d and no truncation order can certify it: a supporting hyperplane at the principal face gives no weight to %s, so omitted terms in the other variables can always reach the principal face; %s", order, an.vars[at], notBound))
+			"K is a series truncated at degree %d and no truncation order can certify it: a supporting hyperplane at the principal face gives no weight to %s, so omitted terms of any degree in %s can reach the principal face, and %s", order, an.vars[at], an.vars[at], notBound))
 	case !tr.Principal:
 		res.Reasons = append(res.Reasons, fmt.Sprintf(
-			"K is a series truncated at degree %d, too low to certify the value (order %d would, judging by the terms known now); %s", order, tr.BoundOrder, notBound))
+			"K is a series truncated at degree %d, too low to certify the value (order %d would, judging by the terms known now), and %s", order, tr.BoundOrder, notBound))
 	case !tr.Faces && !facesOK:
 		res.Reasons = append(res.Reasons, fmt.Sprintf(
 			"K is a series truncated at degree %d: the value is a certified upper bound for the full K, but omitted terms could add compact faces whose nondegeneracy is unknown, and no truncation order can rule that out (K has no pure power of %s)", order, missing))

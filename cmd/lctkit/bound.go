@@ -295,7 +295,7 @@ func certificateSummary(c *rlct.Certificate, form string) string {
 	if form == "sum-of-squares" {
 		unsafe = "two terms of one generator"
 	}
-	if c.Examined == 0 && c.Unsafe == 0 {
+	if c.Unsafe == 0 {
 		if form == "sum-of-squares" {
 			return "no generator has two terms on a compact face, so on every compact face some generator is a single term and the face is nondegenerate"
 		}
@@ -310,7 +310,7 @@ func certificateSummary(c *rlct.Certificate, form string) string {
 	for i, rule := range rules {
 		parts[i] = fmt.Sprintf("%d by %s", c.ByRule[rule], rule)
 	}
-	s := fmt.Sprintf("%d compact faces examined (%s); %d degenerate, %d undetermined", c.Examined, strings.Join(parts, ", "), c.Degenerate, c.Undetermined)
+	s := fmt.Sprintf("%s examined (%s); %d degenerate, %d undetermined", plural(c.Examined, "compact face", "compact faces"), strings.Join(parts, ", "), c.Degenerate, c.Undetermined)
 	switch c.Stop {
 	case rlct.StopSettled:
 		s += "; the search stopped at the first degenerate face"
