@@ -6,6 +6,7 @@ import (
 	"errors"
 	"fmt"
 	"math/big"
+	"slices"
 	"strconv"
 	"strings"
 
@@ -65,9 +66,9 @@ const (
 const maxDeciding = 3
 
 // maxUnsafe bounds the unsafe points collected before the search gives up
-// with StopBudget; it keeps memory bounded for generators with very many
-// terms (the midpoints grow quadratically).
-const maxUnsafe = 1 << 20
+// with StopBudget; it keeps memory bounded (a few megabytes) for generators
+// with very many terms, whose midpoints grow quadratically.
+const maxUnsafe = 100_000
 
 // analysis holds what the face checks share.
 type analysis struct {
@@ -139,11 +140,11 @@ func (s *search) run() error {
 		s.stop(StopBudget)
 		return nil
 	}
-	for _, x := range unsafe {
+	for _, u := range unsafe {
 		if err := s.check(); err != nil || s.done {
 			return err
 		}
-		f, err := an.res.newton.CompactFaceAt(s.ctx, x)
+		f, err := an.res.newton.CompactFaceAt(s.ctx, u.point())
 		if err != nil {
 			return s.interrupted(err)
 		}
@@ -364,10 +365,19 @@ func (an *analysis) checkVertexSigns() error {
 	return nil
 }
 
+// unsafePoint is an unsafe point sum/den: a term (den 1) or the midpoint of
+// two terms (den 2).
+type unsafePoint struct {
+	sum []int
+	den int64
+}
+
+func (u unsafePoint) point() []*big.Rat { return ratVector(u.sum, u.den) }
+
 // unsafePoints returns the points that can make a face polynomial vanish
 // on the torus (see Certificate), restricted to those that could lie on a
 // compact face; ok is false when there are more than maxUnsafe.
-func (an *analysis) unsafePoints() (pts [][]*big.Rat, ok bool) {
+func (an *analysis) unsafePoints() (pts []unsafePoint, ok bool) {
 	minimal := map[string]bool{}
 	for _, m := range an.res.newton.Minimal() {
 		minimal[intsKey(m)] = true
@@ -382,7 +392,7 @@ func (an *analysis) unsafePoints() (pts [][]*big.Rat, ok bool) {
 			if len(pts) >= maxUnsafe {
 				return pts, false
 			}
-			pts = append(pts, ratVector(e, 1))
+			pts = append(pts, unsafePoint{[]int(e), 1})
 		}
 		return pts, true
 	}
@@ -408,7 +418,7 @@ func (an *analysis) unsafePoints() (pts [][]*big.Rat, ok bool) {
 					return pts, false
 				}
 				seen[key] = true
-				pts = append(pts, ratVector(sum, 2))
+				pts = append(pts, unsafePoint{slices.Clone(sum), 2})
 			}
 		}
 	}
