@@ -11,8 +11,10 @@ var fuzzLimits = Limits{MaxTerms: 5000, MaxExponent: 60, MaxOrder: 8, MaxBits: 5
 
 // FuzzParse checks that no input makes the parser panic, that errors carry
 // sane positions, that whatever parses prints and re-parses to the same
-// polynomial, and that a series expansion agrees with the one of the next
-// order up to its own order (exactly, when it is not truncated).
+// polynomial, that a series expansion agrees with the one of the next
+// order up to its own order (exactly, when it is not truncated), that the
+// lexer agrees with the reference lexer, and that the fast path for sums of
+// monomials gives the same result or error as the general path.
 func FuzzParse(f *testing.F) {
 	for _, tc := range validCases {
 		f.Add(tc.src, uint8(tc.order))
@@ -23,8 +25,15 @@ func FuzzParse(f *testing.F) {
 	for _, s := range []string{"tanh(x*y+z)", "atan(x)^3/(1+y)", "exp(sin(x))", "(1+x+y)^(-1/2)", "x;y\nz", "((x)", "1/(1+x", "2**-1**2", "-(-(-x))^2", "(x^3)^4611686018427387904", "x^123456*y", "(-1)^99999999999"} {
 		f.Add(s, uint8(4))
 	}
+	// Shapes of the fast path for sums of monomials, and where it declines.
+	for _, s := range []string{"x1^4*x3^10*x7^2 + x2^12*x5^6", "(a*b)^2 + (c*d^2)^2", "2*x1^2*x2 - 3/4*x3^4 + 0.5*x", "x/2/3 - -y*--z", "(2*x)^10*(y^0)^3", "x*x^1099511627775", "x^2^3 + (x*y)^2^2", "x/0 + y", "x^1.5 + x/y", "(((((((((x)))))))))^2", "0*x^4611686018427387904 + 1"} {
+		f.Add(s, uint8(0))
+		f.Add(s, uint8(3))
+	}
 	f.Fuzz(func(t *testing.T, src string, order uint8) {
+		compareLexers(t, src)
 		cfg := Config{Order: int(order % 9), Limits: fuzzLimits}
+		sameResult(t, src, cfg)
 		e, err := Parse(src, cfg)
 		if err != nil {
 			checkErrorPosition(t, src, err)

@@ -49,33 +49,24 @@ type lexer struct {
 	depth      int
 	canEnd     bool
 	newlineSep bool
+	nident     int // identifier tokens scanned so far
 }
 
 func newLexer(src string, newlineSep bool) *lexer {
 	return &lexer{src: src, line: 1, col: 1, newlineSep: newlineSep}
 }
 
-func (l *lexer) peek() rune {
-	if l.off >= len(l.src) {
-		return -1
-	}
-	r, _ := utf8.DecodeRuneInString(l.src[l.off:])
-	return r
-}
-
-func (l *lexer) advance() {
-	r, w := utf8.DecodeRuneInString(l.src[l.off:])
-	l.off += w
-	if r == '\n' {
-		l.line++
-		l.col = 1
-	} else {
-		l.col++
-	}
-}
-
 func isLetter(r rune) bool { return r >= 'a' && r <= 'z' || r >= 'A' && r <= 'Z' || r == '_' }
 func isDigit(r rune) bool  { return r >= '0' && r <= '9' }
+
+// identByte tells the bytes that continue an identifier: ASCII letters,
+// digits and '_'.
+var identByte = func() (t [256]bool) {
+	for c := range 256 {
+		t[c] = isLetter(rune(c)) || isDigit(rune(c))
+	}
+	return t
+}()
 
 // tokens returns all tokens of the source, ending with tEOF.
 func (l *lexer) tokens() []token {
@@ -89,53 +80,90 @@ func (l *lexer) tokens() []token {
 	}
 }
 
+// next returns the next token.
 func (l *lexer) next() token {
-	for {
-		r := l.peek()
-		switch {
-		case r == ' ' || r == '\t' || r == '\r':
-			l.advance()
-			continue
-		case r == '#':
-			for l.off < len(l.src) && l.peek() != '\n' {
-				l.advance()
+	var t token
+	l.scan(&t)
+	return t
+}
+
+// scan reads the next token into *t. It scans bytes: everything but
+// comments and unexpected characters is ASCII, so columns advance by one
+// per byte there.
+func (l *lexer) scan(t *token) {
+	src := l.src
+skip:
+	for l.off < len(src) {
+		switch src[l.off] {
+		case ' ', '\t', '\r':
+			l.off++
+			l.col++
+		case '#':
+			end := strings.IndexByte(src[l.off:], '\n')
+			if end < 0 {
+				end = len(src) - l.off
 			}
-			continue
-		case r == '\n':
+			l.col += utf8.RuneCountInString(src[l.off : l.off+end])
+			l.off += end
+		case '\n':
 			if l.newlineSep && l.depth == 0 && l.canEnd {
-				t := token{kind: tSemi, off: l.off, end: l.off + 1, line: l.line, col: l.col}
-				l.advance()
+				*t = token{kind: tSemi, off: l.off, end: l.off + 1, line: l.line, col: l.col}
+				l.off++
+				l.line++
+				l.col = 1
 				l.canEnd = false
-				return t
+				return
 			}
-			l.advance()
-			continue
+			l.off++
+			l.line++
+			l.col = 1
+		default:
+			break skip
 		}
-		break
 	}
-	t := token{off: l.off, line: l.line, col: l.col}
-	r := l.peek()
-	switch {
-	case r < 0:
+	*t = token{off: l.off, line: l.line, col: l.col}
+	if l.off >= len(src) {
 		t.kind = tEOF
-	case isDigit(r) || r == '.':
-		l.number(&t)
-	case isLetter(r):
-		for r := l.peek(); isLetter(r) || isDigit(r); r = l.peek() {
-			l.advance()
+		t.end = l.off
+		l.canEnd = false
+		return
+	}
+	c := src[l.off]
+	switch {
+	case isDigitByte(c) || c == '.':
+		l.number(t)
+	case isLetterByte(c):
+		i := l.off + 1
+		for i < len(src) && identByte[src[i]] {
+			i++
 		}
+		l.col += i - l.off
+		l.off = i
 		t.kind = tIdent
+		l.nident++
+	case c >= utf8.RuneSelf:
+		r, w := utf8.DecodeRuneInString(src[l.off:])
+		l.off += w
+		l.col++
+		t.kind = tIllegal
+		if r == utf8.RuneError {
+			t.msg = "invalid UTF-8 encoding"
+		} else {
+			t.msg = fmt.Sprintf("unexpected character %q", r)
+		}
 	default:
-		l.advance()
-		switch r {
+		l.off++
+		l.col++
+		switch c {
 		case '+':
 			t.kind = tPlus
 		case '-':
 			t.kind = tMinus
 		case '*':
 			t.kind = tStar
-			if l.peek() == '*' {
-				l.advance()
+			if l.off < len(src) && src[l.off] == '*' {
+				l.off++
+				l.col++
 				t.kind = tPow
 			}
 		case '/':
@@ -159,31 +187,36 @@ func (l *lexer) next() token {
 			t.kind = tAssign
 		default:
 			t.kind = tIllegal
-			if r == utf8.RuneError {
-				t.msg = "invalid UTF-8 encoding"
-			} else {
-				t.msg = fmt.Sprintf("unexpected character %q", r)
-			}
+			t.msg = fmt.Sprintf("unexpected character %q", rune(c))
 		}
 	}
 	t.end = l.off
 	l.canEnd = t.kind == tNumber || t.kind == tIdent || t.kind == tRParen
-	return t
 }
 
+func isLetterByte(c byte) bool { return c >= 'a' && c <= 'z' || c >= 'A' && c <= 'Z' || c == '_' }
+func isDigitByte(c byte) bool  { return c >= '0' && c <= '9' }
+
 // number scans digits ["." digits] [("e"|"E") ["+"|"-"] digits], with at
-// least one digit in the mantissa.
+// least one digit in the mantissa. Only a number with a decimal exponent
+// can be too large, so only those are evaluated here.
 func (l *lexer) number(t *token) {
+	src := l.src
+	i := l.off
+	defer func() {
+		l.col += i - l.off // numbers are ASCII
+		l.off = i
+	}()
 	t.kind = tNumber
 	digits := 0
-	for isDigit(l.peek()) {
-		l.advance()
+	for i < len(src) && isDigitByte(src[i]) {
+		i++
 		digits++
 	}
-	if l.peek() == '.' {
-		l.advance()
-		for isDigit(l.peek()) {
-			l.advance()
+	if i < len(src) && src[i] == '.' {
+		i++
+		for i < len(src) && isDigitByte(src[i]) {
+			i++
 			digits++
 		}
 	}
@@ -192,34 +225,38 @@ func (l *lexer) number(t *token) {
 		t.msg = "malformed number: '.' must be followed or preceded by digits"
 		return
 	}
-	if r := l.peek(); r == 'e' || r == 'E' {
-		l.advance()
-		if r := l.peek(); r == '+' || r == '-' {
-			l.advance()
+	hasExp := false
+	if i < len(src) && (src[i] == 'e' || src[i] == 'E') {
+		i++
+		if i < len(src) && (src[i] == '+' || src[i] == '-') {
+			i++
 		}
 		n := 0
-		for isDigit(l.peek()) {
-			l.advance()
+		for i < len(src) && isDigitByte(src[i]) {
+			i++
 			n++
 		}
 		if n == 0 {
 			t.kind = tIllegal
-			t.msg = fmt.Sprintf("malformed number %s: exponent has no digits", l.src[t.off:l.off])
+			t.msg = fmt.Sprintf("malformed number %s: exponent has no digits", src[t.off:i])
 			return
 		}
+		hasExp = true
 	}
-	if r := l.peek(); isLetter(r) || r == '.' {
+	if i < len(src) && (isLetterByte(src[i]) || src[i] == '.') {
 		// "2x" or "1.2.3": keep the error on the number.
-		for r := l.peek(); isLetter(r) || isDigit(r) || r == '.'; r = l.peek() {
-			l.advance()
+		for i < len(src) && (isLetterByte(src[i]) || isDigitByte(src[i]) || src[i] == '.') {
+			i++
 		}
 		t.kind = tIllegal
-		t.msg = fmt.Sprintf("malformed number %s (write products with '*')", l.src[t.off:l.off])
+		t.msg = fmt.Sprintf("malformed number %s (write products with '*')", src[t.off:i])
 		return
 	}
-	if _, err := numberValue(l.src[t.off:l.off]); err != "" {
-		t.kind = tIllegal
-		t.msg = err
+	if hasExp {
+		if _, err := numberValue(src[t.off:i]); err != "" {
+			t.kind = tIllegal
+			t.msg = err
+		}
 	}
 }
 

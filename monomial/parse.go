@@ -95,21 +95,25 @@ func (l ErrorList) Unwrap() []error {
 // the stack.
 const maxDepth = 1000
 
-// functions are the names reserved for functions; they cannot be variables.
-var functions = map[string]bool{
-	"exp": true, "log": true, "sin": true, "cos": true, "tanh": true,
-	"sinh": true, "cosh": true, "atan": true, "sqrt": true,
+// isFunction reports whether name is reserved for a function; such names
+// cannot be variables.
+func isFunction(name string) bool {
+	switch name {
+	case "exp", "log", "sin", "cos", "tanh", "sinh", "cosh", "atan", "sqrt":
+		return true
+	}
+	return false
 }
 
 // IsFunctionName reports whether name is reserved for a function of the
 // expression language (and so cannot name a variable).
-func IsFunctionName(name string) bool { return functions[name] }
+func IsFunctionName(name string) bool { return isFunction(name) }
 
 // IsIdentifier reports whether name is a valid variable name: an ASCII
 // letter or underscore followed by letters, digits and underscores, and
 // not a function name.
 func IsIdentifier(name string) bool {
-	if name == "" || functions[name] {
+	if name == "" || isFunction(name) {
 		return false
 	}
 	for i, r := range name {
@@ -191,9 +195,13 @@ type session struct {
 	list  bool
 	vars  []string
 	index map[string]int
-	order int
-	lim   Limits
-	guard *guard // shared by all expressions of the source
+	// idents holds the variable index of each identifier token of src in
+	// order (-1 for a function name), so that the parser need not look
+	// names up.
+	idents []int32
+	order  int
+	lim    Limits
+	guard  *guard // shared by all expressions of the source
 }
 
 func newSession(src string, cfg Config, list bool) (*session, error) {
@@ -218,28 +226,53 @@ func newSession(src string, cfg Config, list bool) (*session, error) {
 		s.index[v] = len(s.vars)
 		s.vars = append(s.vars, v)
 	}
+	// Find the other variables. Each identifier token gets a provisional
+	// index: its index in cfg.Vars, or len(cfg.Vars)+k for rest[k].
 	var rest []string
-	seen := map[string]bool{}
+	seen := make(map[string]int32, len(s.index))
+	for v, i := range s.index {
+		seen[v] = int32(i)
+	}
+	ids := make([]int32, 0, len(src)/8)
 	lx := newLexer(src, false)
-	for t := lx.next(); t.kind != tEOF; t = lx.next() {
+	var t token
+	for lx.scan(&t); t.kind != tEOF; lx.scan(&t) {
 		if t.kind != tIdent {
 			continue
 		}
 		name := src[t.off:t.end]
-		if _, ok := s.index[name]; ok || seen[name] || functions[name] {
-			continue
+		id, ok := seen[name]
+		if !ok {
+			id = -1
+			if !isFunction(name) {
+				id = int32(len(s.vars) + len(rest))
+				rest = append(rest, name)
+				if len(s.vars)+len(rest) > lim.MaxVars {
+					return nil, errAtTok(t, "more than %d variables (Limits.MaxVars)", lim.MaxVars)
+				}
+			}
+			seen[name] = id
 		}
-		seen[name] = true
-		rest = append(rest, name)
-		if len(s.vars)+len(rest) > lim.MaxVars {
-			return nil, errAtTok(t, "more than %d variables (Limits.MaxVars)", lim.MaxVars)
+		ids = append(ids, id)
+	}
+	final := make([]int32, len(rest)) // final index of rest[k]
+	order := make([]int, len(rest))
+	for k := range order {
+		order[k] = k
+	}
+	slices.SortFunc(order, func(a, b int) int { return NaturalCompare(rest[a], rest[b]) })
+	for _, k := range order {
+		final[k] = int32(len(s.vars))
+		s.index[rest[k]] = len(s.vars)
+		s.vars = append(s.vars, rest[k])
+	}
+	nv := int32(len(cfg.Vars))
+	for i, id := range ids {
+		if id >= nv {
+			ids[i] = final[id-nv]
 		}
 	}
-	slices.SortFunc(rest, NaturalCompare)
-	for _, v := range rest {
-		s.index[v] = len(s.vars)
-		s.vars = append(s.vars, v)
-	}
+	s.idents = ids
 	return s, nil
 }
 
@@ -329,6 +362,10 @@ type parser struct {
 	lx    *lexer
 	cur   token
 	depth int
+	// For the fast path (fast.go): the factors of the current term and
+	// the end of the last token it consumed.
+	fac     []varPower
+	lastEnd int
 }
 
 // value is the value of a subexpression: its polynomial, whether that is
@@ -347,7 +384,7 @@ func (p *parser) tok() token { return p.cur }
 
 func (p *parser) advance() {
 	if p.cur.kind != tEOF {
-		p.cur = p.lx.next()
+		p.lx.scan(&p.cur)
 	}
 }
 
@@ -375,26 +412,46 @@ func (p *parser) leave() { p.depth-- }
 
 // expr = term { ("+" | "-") term } .
 func (p *parser) expr() (value, *Error) {
-	v, err := p.term()
-	if err != nil {
-		return v, err
-	}
-	// Collect the summands and add them pairwise, like a merge sort, so
-	// that a long sum costs O(T log k) rather than O(T k) for k summands
-	// with T terms in all.
-	sum := []*Poly{v.p}
-	for k := p.tok().kind; k == tPlus || k == tMinus; k = p.tok().kind {
-		p.advance()
+	// Terms that are monomials are read by the fast path into one flat
+	// buffer, sorted and merged once at the end. The other summands are
+	// collected and added pairwise, like a merge sort, so that a long sum
+	// costs O(T log k) rather than O(T k) for k summands with T terms in all.
+	var buf termBuf
+	var sum []*Poly
+	v := value{exact: true}
+	for i := 0; ; i++ {
+		neg := false
+		if i > 0 {
+			k := p.tok().kind
+			if k != tPlus && k != tMinus {
+				break
+			}
+			neg = k == tMinus
+			p.advance()
+		}
+		if off, end, ok := p.fastTerm(&buf, neg); ok {
+			if i == 0 {
+				v.off = off
+			}
+			v.end = end
+			continue
+		}
 		w, err := p.term()
 		if err != nil {
 			return w, err
 		}
-		if k == tMinus {
+		if neg {
 			w.p = w.p.Neg()
+		}
+		if i == 0 {
+			v.off = w.off
 		}
 		v.exact = v.exact && w.exact
 		v.end = w.end
 		sum = append(sum, w.p)
+	}
+	if len(buf.coefs) > 0 {
+		sum = append(sum, buf.poly(p.vars))
 	}
 	for len(sum) > 1 {
 		half := sum[:0]
@@ -492,14 +549,16 @@ func (p *parser) primary() (value, *Error) {
 		return value{p: constPoly(p.vars, coefFromRat(r)), exact: true, off: t.off, end: t.end}, nil
 	case tIdent:
 		name := p.src[t.off:t.end]
-		p.advance()
-		if functions[name] {
+		if isFunction(name) {
+			p.advance()
 			return p.call(name, t)
 		}
+		v := p.varIndex(name)
+		p.advance()
 		if p.tok().kind == tLParen {
 			return value{}, p.errAt(t, "unknown function %s", name)
 		}
-		return value{p: p.variable(name), exact: true, off: t.off, end: t.end}, nil
+		return value{p: p.variable(v), exact: true, off: t.off, end: t.end}, nil
 	case tLParen:
 		if err := p.enter(); err != nil {
 			return value{}, err
@@ -520,9 +579,20 @@ func (p *parser) primary() (value, *Error) {
 	return value{}, p.expected("operand")
 }
 
-func (p *parser) variable(name string) *Poly {
+// varIndex returns the index of the variable name, which is the current
+// token.
+func (p *parser) varIndex(name string) int {
+	if k := p.lx.nident - 1; k >= 0 && k < len(p.idents) {
+		if id := p.idents[k]; id >= 0 && p.vars[id] == name {
+			return int(id)
+		}
+	}
+	return p.index[name] // not reached: both lexers see the same identifiers
+}
+
+func (p *parser) variable(v int) *Poly {
 	e := make([]int, len(p.vars))
-	e[p.index[name]] = 1
+	e[v] = 1
 	return &Poly{vars: p.vars, exps: e, coefs: []coef{coefOne}}
 }
 
@@ -883,7 +953,7 @@ func ParseBindings(s string) (names []string, values []*big.Rat, err error) {
 			return nil, nil, errAtTok(t, "expected name, found %s", describe(s, t))
 		}
 		name := s[t.off:t.end]
-		if functions[name] {
+		if isFunction(name) {
 			return nil, nil, errAtTok(t, "%s is a function name, not a variable", name)
 		}
 		if first, dup := seen[name]; dup {
