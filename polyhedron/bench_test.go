@@ -1,6 +1,7 @@
 package polyhedron
 
 import (
+	"context"
 	"math/big"
 	"os"
 	"path/filepath"
@@ -12,7 +13,7 @@ import (
 
 // loadInstance reads testdata/polyhedron/NAME.txt, or generates a random
 // instance that is not stored (see instances.StoredMaxN).
-func loadInstance(b *testing.B, name string) instances.Instance {
+func loadInstance(b testing.TB, name string) instances.Instance {
 	b.Helper()
 	f, err := os.Open(filepath.Join("..", "testdata", "polyhedron", name+".txt"))
 	if err == nil {
@@ -143,6 +144,47 @@ func BenchmarkCompactFaces(b *testing.B) {
 				}
 			}
 			b.ReportMetric(float64(len(lat.Faces)), "faces/op")
+		})
+	}
+}
+
+// BenchmarkCovers measures Covers on every vertex of an instance (one op =
+// the covers of all vertices, given with their normals from FaceAt), and
+// reports the number of (vertex, edge) incidences found.
+func BenchmarkCovers(b *testing.B) {
+	for _, name := range []string{"lowrank_2_2_2", "lowrank_3_3_2", "lowrank_3_3_3", "lowrank_4_4_3", "random_d6_n1000", "dense_d6_n1000", "random_d10_n1000"} {
+		in := loadInstance(b, name)
+		n, err := New(in.D, in.Points)
+		if err != nil {
+			b.Fatal(err)
+		}
+		var vf []*Face
+		for _, v := range n.Vertices() {
+			x := make([]*big.Rat, in.D)
+			for i := range x {
+				x[i] = big.NewRat(int64(v[i]), 1)
+			}
+			f, err := n.FaceAt(x)
+			if err != nil {
+				b.Fatal(err)
+			}
+			vf = append(vf, f)
+		}
+		b.Run(name, func(b *testing.B) {
+			b.ReportAllocs()
+			covers := 0
+			for b.Loop() {
+				covers = 0
+				for _, f := range vf {
+					cs, err := n.Covers(context.Background(), f)
+					if err != nil {
+						b.Fatal(err)
+					}
+					covers += len(cs)
+				}
+			}
+			b.ReportMetric(float64(len(n.Vertices())), "vertices")
+			b.ReportMetric(float64(covers), "edges")
 		})
 	}
 }

@@ -30,8 +30,8 @@ func ExampleNewton_Covers() {
 	}
 	// Output:
 	// vertices: [[0 0 2] [0 2 0] [2 0 0]]
-	// dim 1 vertices [0 2] normal [1 2 1] >= 2
-	// dim 1 vertices [1 2] normal [1 1 2] >= 2
+	// dim 1 vertices [0 2] normal [2 3 2] >= 4
+	// dim 1 vertices [1 2] normal [2 2 3] >= 4
 	// dim 2 vertices [0 1 2] normal [1 1 1] >= 2
 }
 

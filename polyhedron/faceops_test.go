@@ -694,3 +694,99 @@ func TestNormalConeMinHandWorked(t *testing.T) {
 		}
 	}
 }
+
+func TestInConeRoutes(t *testing.T) {
+	tests := []struct {
+		name string
+		cols [][]int64
+		y    []int64
+		want bool
+	}{
+		{"unit vectors", [][]int64{{1, 0}, {0, 1}}, []int64{2, 3}, true},
+		{"negative weight", [][]int64{{1, 0}, {0, 1}}, []int64{2, -3}, false},
+		{"inconsistent", [][]int64{{1, 1, 0}}, []int64{1, 1, 1}, false},
+		{"consistent overdetermined", [][]int64{{1, 1, 0}}, []int64{3, 3, 0}, true},
+		// (1,1) = ½(2,0) + ½(0,2); the dependent third column gets weight 0.
+		{"dependent column", [][]int64{{2, 0}, {0, 2}, {4, 0}}, []int64{1, 1}, true},
+		// (3,1) = 1·(1,1) + 1·(2,0) with the first column dependent on them.
+		{"order", [][]int64{{1, 1}, {2, 0}}, []int64{3, 1}, true},
+		{"needs negative", [][]int64{{1, 1}, {2, 0}}, []int64{0, 1}, false},
+		{"zero column", [][]int64{{0, 0}, {1, 2}}, []int64{2, 4}, true},
+		{"large", [][]int64{{1 << 40, 1}, {1, 1 << 40}}, []int64{1<<40 + 1, 1<<40 + 1}, true},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			cs := &coverSearch{}
+			var basic []int
+			for k, c := range tc.cols {
+				cs.groups = append(cs.groups, coverGroup{y: c})
+				basic = append(basic, k)
+			}
+			if got := cs.inConeRat(tc.y, basic); got != tc.want {
+				t.Errorf("inConeRat = %v, want %v", got, tc.want)
+			}
+			ok, decided := cs.inCone64(tc.y, basic)
+			if decided && ok != tc.want {
+				t.Errorf("inCone64 = %v, want %v", ok, tc.want)
+			}
+			if !decided && tc.name != "large" {
+				t.Errorf("inCone64 undecided")
+			}
+		})
+	}
+}
+
+// TestCoversHuge scales instances by K = 2^40 and 2^57, which makes the
+// certificate arithmetic leave int64 and, for the larger K, the integer
+// points of the quotient overflow so that Covers takes its exact fallback;
+// the faces (as vertex index sets) do not change under scaling (common
+// practice: P(K·A) = K·P(A)). Exponents are at most 6, so 6·2^57 fits.
+func TestCoversHuge(t *testing.T) {
+	for _, K := range []int{1 << 40, 1 << 57} {
+		testCoversScaled(t, K)
+	}
+}
+
+func testCoversScaled(t *testing.T, K int) {
+	for _, in := range randomInstances(61, 25) {
+		n0, err := New(in.D, in.Points)
+		if err != nil {
+			t.Fatal(err)
+		}
+		scaled := make([][]int, len(in.Points))
+		for k, p := range in.Points {
+			scaled[k] = make([]int, in.D)
+			for i, x := range p {
+				scaled[k][i] = x * K
+			}
+		}
+		n, err := New(in.D, scaled)
+		if err != nil {
+			t.Fatal(err)
+		}
+		lat, err := n0.CompactFaces()
+		if err != nil {
+			t.Fatal(err)
+		}
+		up := coversFromLattice(lat)
+		for g, f := range lat.Faces {
+			got, err := n.Covers(context.Background(), &Face{Vertices: f.Vertices, Dim: f.Dim})
+			if err != nil {
+				t.Fatal(err)
+			}
+			var want [][]int
+			for _, h := range up[g] {
+				want = append(want, lat.Faces[h].Vertices)
+			}
+			slices.SortFunc(want, slices.Compare)
+			var gotV [][]int
+			for _, c := range got {
+				gotV = append(gotV, c.Vertices)
+				checkCompleteCompact(t, n, c)
+			}
+			if !slices.EqualFunc(gotV, want, slices.Equal) {
+				t.Errorf("%s ×%d: Covers(%v) = %v, want %v", in.Name, K, f.Vertices, gotV, want)
+			}
+		}
+	}
+}
