@@ -287,3 +287,25 @@ func TestFastPathDifferential(t *testing.T) {
 		t.Fatalf("ParseList: fast path %v, %v; general path %v, %v", a, ea, b, eb)
 	}
 }
+
+// TestNameTable: the pre-pass's name table returns what was put, reports
+// absent names, and survives growth (values chosen here).
+func TestNameTable(t *testing.T) {
+	var tab nameTable
+	if _, ok := tab.get("x"); ok {
+		t.Fatal("empty table has x")
+	}
+	for i := range 1000 {
+		tab.put("v"+strconv.Itoa(i), int32(3*i))
+	}
+	for i := range 1000 {
+		if v, ok := tab.get("v" + strconv.Itoa(i)); !ok || v != int32(3*i) {
+			t.Fatalf("get(v%d) = %d, %v; want %d, true", i, v, ok, 3*i)
+		}
+	}
+	for _, name := range []string{"v1000", "v", "", "w1", "v01"} {
+		if v, ok := tab.get(name); ok {
+			t.Errorf("get(%q) = %d, want absent", name, v)
+		}
+	}
+}

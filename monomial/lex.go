@@ -201,12 +201,16 @@ func isDigitByte(c byte) bool  { return c >= '0' && c <= '9' }
 // least one digit in the mantissa. Only a number with a decimal exponent
 // can be too large, so only those are evaluated here.
 func (l *lexer) number(t *token) {
+	i := l.numberEnd(t)
+	l.col += i - l.off // numbers are ASCII
+	l.off = i
+}
+
+// numberEnd scans the number starting at l.off, sets t's kind (and message
+// for a malformed number) and returns the offset where it ends.
+func (l *lexer) numberEnd(t *token) int {
 	src := l.src
 	i := l.off
-	defer func() {
-		l.col += i - l.off // numbers are ASCII
-		l.off = i
-	}()
 	t.kind = tNumber
 	digits := 0
 	for i < len(src) && isDigitByte(src[i]) {
@@ -223,7 +227,7 @@ func (l *lexer) number(t *token) {
 	if digits == 0 {
 		t.kind = tIllegal
 		t.msg = "malformed number: '.' must be followed or preceded by digits"
-		return
+		return i
 	}
 	hasExp := false
 	if i < len(src) && (src[i] == 'e' || src[i] == 'E') {
@@ -239,7 +243,7 @@ func (l *lexer) number(t *token) {
 		if n == 0 {
 			t.kind = tIllegal
 			t.msg = fmt.Sprintf("malformed number %s: exponent has no digits", src[t.off:i])
-			return
+			return i
 		}
 		hasExp = true
 	}
@@ -250,7 +254,7 @@ func (l *lexer) number(t *token) {
 		}
 		t.kind = tIllegal
 		t.msg = fmt.Sprintf("malformed number %s (write products with '*')", src[t.off:i])
-		return
+		return i
 	}
 	if hasExp {
 		if _, err := numberValue(src[t.off:i]); err != "" {
@@ -258,6 +262,7 @@ func (l *lexer) number(t *token) {
 			t.msg = err
 		}
 	}
+	return i
 }
 
 // numberValue returns the exact value of a number token's text, or an error

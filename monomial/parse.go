@@ -229,11 +229,11 @@ func newSession(src string, cfg Config, list bool) (*session, error) {
 	// Find the other variables. Each identifier token gets a provisional
 	// index: its index in cfg.Vars, or len(cfg.Vars)+k for rest[k].
 	var rest []string
-	seen := make(map[string]int32, len(s.index))
-	for v, i := range s.index {
-		seen[v] = int32(i)
+	var seen nameTable
+	for i, v := range s.vars {
+		seen.put(v, int32(i))
 	}
-	ids := make([]int32, 0, len(src)/8)
+	ids := make([]int32, 0, len(src)/4+1) // a guess that avoids regrowing for typical text
 	lx := newLexer(src, false)
 	var t token
 	for lx.scan(&t); t.kind != tEOF; lx.scan(&t) {
@@ -241,7 +241,7 @@ func newSession(src string, cfg Config, list bool) (*session, error) {
 			continue
 		}
 		name := src[t.off:t.end]
-		id, ok := seen[name]
+		id, ok := seen.get(name)
 		if !ok {
 			id = -1
 			if !isFunction(name) {
@@ -251,7 +251,7 @@ func newSession(src string, cfg Config, list bool) (*session, error) {
 					return nil, errAtTok(t, "more than %d variables (Limits.MaxVars)", lim.MaxVars)
 				}
 			}
-			seen[name] = id
+			seen.put(name, id)
 		}
 		ids = append(ids, id)
 	}
@@ -274,6 +274,68 @@ func newSession(src string, cfg Config, list bool) (*session, error) {
 	}
 	s.idents = ids
 	return s, nil
+}
+
+// nameTable maps identifier names to int32 values, for the variable
+// pre-pass that looks up every identifier of the text: open addressing with
+// linear probing and FNV-1a hashes, which for short names costs less than
+// a Go map.
+type nameTable struct {
+	slots []nameSlot // a power of two, at most half full
+	n     int
+}
+
+type nameSlot struct {
+	name string
+	val  int32
+	used bool
+}
+
+func fnv1a(s string) uint64 {
+	h := uint64(14695981039346656037)
+	for i := 0; i < len(s); i++ {
+		h ^= uint64(s[i])
+		h *= 1099511628211
+	}
+	return h
+}
+
+// get returns the value of name and whether it is present.
+func (t *nameTable) get(name string) (int32, bool) {
+	if len(t.slots) == 0 {
+		return 0, false
+	}
+	mask := uint64(len(t.slots) - 1)
+	for h := fnv1a(name) & mask; ; h = (h + 1) & mask {
+		s := &t.slots[h]
+		if !s.used {
+			return 0, false
+		}
+		if s.name == name {
+			return s.val, true
+		}
+	}
+}
+
+// put sets the value of name, which must not be present.
+func (t *nameTable) put(name string, val int32) {
+	if 2*(t.n+1) > len(t.slots) {
+		old := t.slots
+		t.slots = make([]nameSlot, max(16, 2*len(old)))
+		t.n = 0
+		for _, s := range old {
+			if s.used {
+				t.put(s.name, s.val)
+			}
+		}
+	}
+	mask := uint64(len(t.slots) - 1)
+	h := fnv1a(name) & mask
+	for t.slots[h].used {
+		h = (h + 1) & mask
+	}
+	t.slots[h] = nameSlot{name, val, true}
+	t.n++
 }
 
 // NaturalCompare compares two names in natural order: runs of digits are
