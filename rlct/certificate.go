@@ -343,15 +343,25 @@ func (an *analysis) examine(f *polyhedron.Face) (*FaceReport, error) {
 // close to the point. Only unsafe terms are looked up, so this costs
 // nothing for a K whose terms are all even-positive.
 func (an *analysis) checkVertexSigns() error {
+	var unsafe []monomial.Exponent
+	for e, c := range an.polys[0].All() {
+		if c.Sign() < 0 || !allEven(e) {
+			unsafe = append(unsafe, e)
+		}
+	}
+	if len(unsafe) == 0 {
+		return nil
+	}
 	verts := an.res.newton.Vertices()
 	isVertex := make(map[string]bool, len(verts))
 	for _, v := range verts {
 		isVertex[intsKey(v)] = true
 	}
-	for e, c := range an.polys[0].All() {
-		if c.Sign() > 0 && allEven(e) || !isVertex[intsKey(e)] {
+	for _, e := range unsafe {
+		if !isVertex[intsKey(e)] {
 			continue
 		}
+		c := an.polys[0].Coefficient(e)
 		term := monomial.Monomial(an.vars, e, c).String()
 		if c.Sign() < 0 {
 			return fmt.Errorf("%w: the term %s at a vertex of the Newton polyhedron has a negative coefficient", ErrNegative, term)
@@ -378,15 +388,22 @@ func (u unsafePoint) point() []*big.Rat { return ratVector(u.sum, u.den) }
 // on the torus (see Certificate), restricted to those that could lie on a
 // compact face; ok is false when there are more than maxUnsafe.
 func (an *analysis) unsafePoints() (pts []unsafePoint, ok bool) {
-	minimal := map[string]bool{}
-	for _, m := range an.res.newton.Minimal() {
-		minimal[intsKey(m)] = true
-	}
 	// A point of a compact face dominates no other point of P, so an unsafe
-	// term must be Pareto-minimal, and so must both ends of a midpoint.
+	// term must be Pareto-minimal, and so must both ends of a midpoint. The
+	// minimal points are looked up only when there is a candidate.
+	var minimal map[string]bool
+	isMinimal := func(e []int) bool {
+		if minimal == nil {
+			minimal = map[string]bool{}
+			for _, m := range an.res.newton.Minimal() {
+				minimal[intsKey(m)] = true
+			}
+		}
+		return minimal[intsKey(e)]
+	}
 	if !an.sos {
 		for e, c := range an.polys[0].All() {
-			if c.Sign() > 0 && allEven(e) || !minimal[intsKey(e)] {
+			if c.Sign() > 0 && allEven(e) || !isMinimal(e) {
 				continue
 			}
 			if len(pts) >= maxUnsafe {
@@ -399,9 +416,12 @@ func (an *analysis) unsafePoints() (pts []unsafePoint, ok bool) {
 	seen := map[string]bool{}
 	sum := make([]int, len(an.vars))
 	for _, g := range an.polys {
+		if g.Len() < 2 {
+			continue
+		}
 		var ends []monomial.Exponent
 		for e := range g.All() {
-			if minimal[intsKey(e)] {
+			if isMinimal(e) {
 				ends = append(ends, e)
 			}
 		}

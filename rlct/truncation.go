@@ -90,9 +90,11 @@ func (an *analysis) checkTruncation(ctx context.Context, order int, hit *polyhed
 	for i := range purest {
 		purest[i] = -1
 	}
-	for _, v := range newton.Minimal() {
-		if j, ok := purePower(v); ok && (purest[j] < 0 || v[j] < purest[j]) {
-			purest[j] = v[j]
+	for _, q := range an.polys {
+		for v := range q.All() {
+			if j, ok := purePower(v); ok && (purest[j] < 0 || v[j] < purest[j]) {
+				purest[j] = v[j]
+			}
 		}
 	}
 	facesOK := true
