@@ -24,6 +24,9 @@ func loadInstance(b testing.TB, name string) instances.Instance {
 		}
 		return in
 	}
+	if in, ok := generatedInstance(name); ok {
+		return in
+	}
 	for _, s := range instances.RandomSizes {
 		in := instances.Random(s[0], s[1], instances.Seed)
 		if in.Name == name {
@@ -188,3 +191,49 @@ func BenchmarkCovers(b *testing.B) {
 		})
 	}
 }
+
+// generatedInstance returns the instances too large to store under
+// testdata: degree_d10_D10 (92,378 points).
+func generatedInstance(name string) (instances.Instance, bool) {
+	if name == "degree_d10_D10" {
+		return instances.Degree(10, 10), true
+	}
+	return instances.Instance{}, false
+}
+
+// BenchmarkNew measures New (Pareto filter and vertex filter) alone and
+// reports the vertex filter's LPs per op (float LPs over known vertices plus
+// points decided by the exact fallback), the exact fallbacks alone, and the
+// exact pricing passes over all minimal points.
+func BenchmarkNew(b *testing.B) {
+	for _, name := range []string{"degree_d8_D5", "degree_d10_D10", "dense_d6_n10000", "dense_d10_n10000",
+		"random_d10_n10000", "random_d20_n100000", "lowrank_5_5_4"} {
+		in := loadInstance(b, name)
+		b.Run(name, func(b *testing.B) {
+			b.ReportAllocs()
+			var n *Newton
+			var st vertexCounts
+			for b.Loop() {
+				var err error
+				if n, st, err = newWithStats(in.D, in.Points); err != nil {
+					b.Fatal(err)
+				}
+			}
+			b.ReportMetric(float64(len(n.Vertices())), "vertices")
+			b.ReportMetric(float64(len(n.Minimal())), "minimal")
+			b.ReportMetric(float64(st.floatLPs+st.exactLPs), "LPs/op")
+			b.ReportMetric(float64(st.exactLPs), "exactLPs/op")
+			b.ReportMetric(float64(st.pricings), "pricings/op")
+		})
+	}
+}
+
+// newWithStats is New with the vertex filter's work counters.
+func newWithStats(d int, points [][]int) (*Newton, vertexCounts, error) {
+	var st vertexStats
+	n, err := build(d, points, Limits{}, &st)
+	return n, vertexCounts{floatLPs: st.floatLPs.Load(), exactLPs: st.exactLPs.Load(), pricings: st.pricings.Load()}, err
+}
+
+// vertexCounts is a copy of vertexStats.
+type vertexCounts struct{ floatLPs, exactLPs, pricings int64 }

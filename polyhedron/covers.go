@@ -592,10 +592,8 @@ func (cs *coverSearch) classify(gi int) (*Face, coverVerdict) {
 }
 
 // inCone reports whether y = Σ λ_h y_h with λ >= 0 over the groups basic,
-// solved exactly (unknowns of dependent columns set to 0): fraction-free
-// (Bareiss) forward elimination in int64 with overflow and exact-division
-// checks, then back substitution in rationals; math/big rationals
-// throughout when int64 does not suffice.
+// solved exactly (unknowns of dependent columns set to 0): in int64 by
+// solveInt64, or in math/big rationals when int64 does not suffice.
 func (cs *coverSearch) inCone(y []int64, basic []int) bool {
 	if ok, decided := cs.inCone64(y, basic); decided {
 		return ok
@@ -605,73 +603,19 @@ func (cs *coverSearch) inCone(y []int64, basic []int) bool {
 
 // inCone64 is the int64 route of inCone; decided is false on overflow.
 func (cs *coverSearch) inCone64(y []int64, basic []int) (ok, decided bool) {
-	m, nc := len(y), len(basic)
-	w := nc + 1
-	a := make([]int64, m*w)
-	for i := 0; i < m; i++ {
-		for c, h := range basic {
-			a[i*w+c] = cs.groups[h].y[i]
-		}
-		a[i*w+nc] = y[i]
+	cols := make([][]int64, len(basic))
+	for c, h := range basic {
+		cols[c] = cs.groups[h].y
 	}
-	prev := int64(1)
-	var pivCols []int
-	r := 0
-	for c := 0; c < nc && r < m; c++ {
-		p := -1
-		for i := r; i < m; i++ {
-			if a[i*w+c] != 0 {
-				p = i
-				break
-			}
-		}
-		if p < 0 {
-			continue
-		}
-		if p != r {
-			for j := 0; j < w; j++ {
-				a[r*w+j], a[p*w+j] = a[p*w+j], a[r*w+j]
-			}
-		}
-		piv := a[r*w+c]
-		for i := r + 1; i < m; i++ {
-			f := a[i*w+c]
-			for j := c + 1; j < w; j++ {
-				x, ok1 := mul64(a[i*w+j], piv)
-				z, ok2 := mul64(a[r*w+j], f)
-				if !ok1 || !ok2 {
-					return false, false
-				}
-				diff := x - z
-				if (z < 0 && diff < x) || (z > 0 && diff > x) || diff%prev != 0 {
-					return false, false
-				}
-				a[i*w+j] = diff / prev
-			}
-			a[i*w+c] = 0
-		}
-		prev = piv
-		pivCols = append(pivCols, c)
-		r++
+	num, den, st := solveInt64(cols, y)
+	switch st {
+	case inconsistent:
+		return false, true
+	case overflowed:
+		return false, false
 	}
-	for i := r; i < m; i++ {
-		if a[i*w+nc] != 0 {
-			return false, true // inconsistent
-		}
-	}
-	// Back substitution over the pivot columns.
-	lam := make([]*big.Rat, r)
-	var t big.Rat
-	for i := r - 1; i >= 0; i-- {
-		v := new(big.Rat).SetInt64(a[i*w+nc])
-		for q := i + 1; q < r; q++ {
-			if e := a[i*w+pivCols[q]]; e != 0 {
-				t.Mul(lam[q], t.SetInt64(e))
-				v.Sub(v, &t)
-			}
-		}
-		lam[i] = v.Quo(v, t.SetInt64(a[i*w+pivCols[i]]))
-		if lam[i].Sign() < 0 {
+	for _, x := range num {
+		if (x < 0) != (den < 0) && x != 0 {
 			return false, true
 		}
 	}

@@ -212,6 +212,8 @@ type fshot struct {
 	b       float64
 	weights map[int]float64 // point index -> λ (basic points)
 	cols    []int           // all point columns used by the final master
+	slacks  []int           // coordinates whose slack column is basic
+	tBasic  bool            // t⁺ or t⁻ is basic
 }
 
 // shootFloat solves the ray-shooting LP in float64 by column generation.
@@ -313,8 +315,12 @@ func shootFloat(pts [][]int, x0, tau []float64) (fs fshot, ok bool) {
 		switch {
 		case c == tPlus:
 			fs.t += t.rhs[r]
+			fs.tBasic = true
 		case c == tMinus:
 			fs.t -= t.rhs[r]
+			fs.tBasic = true
+		case c >= m && c < m+d:
+			fs.slacks = append(fs.slacks, c-m)
 		case c >= first:
 			fs.weights[colPoint[c-first]] = t.rhs[r]
 		}
