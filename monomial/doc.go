@@ -49,6 +49,14 @@
 // The exponent of a power must be a constant expression. [ParseList] reads
 // several expressions separated by ";" or newlines.
 //
+// Large inputs are usually long sums of monomials such as
+// 2*x1^4*x3^10 - 3/4*(a*b^2)^2 + …. Such terms (products of numbers,
+// variables and parenthesized products, with literal non-negative integer
+// powers and divisions by numbers) are read straight into exponent vectors
+// and coefficients and merged once at the end of the sum, in time and
+// memory roughly proportional to the text; every other term is expanded
+// by the general rules, with the same results, errors and [Limits].
+//
 // # Polynomial mode and series mode
 //
 // With [Config].Order = 0 the expression must be a polynomial: exponents
