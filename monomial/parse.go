@@ -753,6 +753,16 @@ func (p *parser) multiply(v, w value, op token) (value, *Error) {
 			return r, p.limitErr(merr, op, r)
 		}
 	}
+	// A constant factor scales every term, the exact ones above the order
+	// included, and cannot make them incomplete.
+	if w.exact && w.p.IsConstant() {
+		r.p, r.exact = v.p.scale(w.p.constCoef()), v.exact
+		return r, nil
+	}
+	if v.exact && v.p.IsConstant() {
+		r.p, r.exact = w.p.scale(v.p.constCoef()), w.exact
+		return r, nil
+	}
 	prod, merr := p.mulTruncated(v.p, w.p)
 	if merr != nil {
 		return r, p.limitErr(merr, op, r)
@@ -777,10 +787,8 @@ func (p *parser) divide(v, w value, op token) (value, *Error) {
 		if c.isZero() {
 			return r, p.errAt(op, "division by zero")
 		}
+		// Scaling keeps the exact terms above the order exact.
 		r.p, r.exact = v.p.scale(c.inv()), v.exact
-		if !v.exact {
-			r.p = r.p.Truncate(p.order)
-		}
 		return r, nil
 	}
 	if p.order == 0 {

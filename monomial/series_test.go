@@ -388,11 +388,14 @@ func TestExactTermsKept(t *testing.T) {
 		// exp(x) = 1 + x + x^2/2 + x^3/6 + O(x^4) (A&S 4.2.1); times 1 + y^9,
 		// every y^9 term has degree >= 9 > 3.
 		{"exp(x)*(1+y^9)", 3, "1/6*x^3 + 1/2*x^2 + x + 1", true},
-		// A sum keeps the exact terms of its summands, also under a sign.
+		// A sum keeps the exact terms of its summands, also under a sign
+		// or a constant factor, which scales them without making them
+		// incomplete.
 		{"-(tanh(x) + y^10)", 4, "-y^10 + 1/3*x^3 - x", true},
+		{"2*(tanh(x) + y^10)", 4, "2*y^10 - 2/3*x^3 + 2*x", true},
+		{"(tanh(x) + y^10)*3", 4, "3*y^10 - x^3 + 3*x", true},
+		{"(tanh(x) + y^10)/2", 4, "1/2*y^10 - 1/6*x^3 + 1/2*x", true},
 		// Any other operation with an inexact operand truncates at the order.
-		{"2*(tanh(x) + y^10)", 4, "-2/3*x^3 + 2*x", true},
-		{"(tanh(x) + y^10)/2", 4, "-1/6*x^3 + 1/2*x", true},
 		{"(tanh(x) + y^10)^2", 4, "-2/3*x^4 + x^2", true},
 		{"exp(y^10)", 4, "1", true},
 		// Exact powers whose expansion would exceed the default limits are
