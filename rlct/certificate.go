@@ -92,7 +92,6 @@ type search struct {
 	seen      map[string]bool // faces examined
 	queued    map[string]bool // faces whose covers are (to be) examined
 	queue     faceQueue
-	undecided []string // reasons for undetermined faces, in the order found
 	done      bool     // the search must stop (settled or budget)
 }
 
