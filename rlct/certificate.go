@@ -92,7 +92,7 @@ type search struct {
 	seen      map[string]bool // faces examined
 	queued    map[string]bool // faces whose covers are (to be) examined
 	queue     faceQueue
-	done      bool     // the search must stop (settled or budget)
+	done      bool // the search must stop (settled or budget)
 }
 
 // certify decides the compact faces that could be degenerate and records
