@@ -237,3 +237,46 @@ func newWithStats(d int, points [][]int) (*Newton, vertexCounts, error) {
 
 // vertexCounts is a copy of vertexStats.
 type vertexCounts struct{ floatLPs, exactLPs, pricings int64 }
+
+// BenchmarkNormalConeMin measures NormalConeMin with c = e_i for every
+// coordinate i (the caller's use) on the faces holding the centroids of up
+// to 20 vertex pairs (one op = all of them), τ = (1,…,1).
+func BenchmarkNormalConeMin(b *testing.B) {
+	for _, name := range []string{"lowrank_3_3_3", "lowrank_5_5_4", "random_d10_n1000", "dense_d10_n10000"} {
+		in := loadInstance(b, name)
+		n, err := New(in.D, in.Points)
+		if err != nil {
+			b.Fatal(err)
+		}
+		var faces []*Face
+		nv := len(n.Vertices())
+		for k := 0; k < 20 && k+1 < nv; k++ {
+			x := n.centroid([]int{k, (7*k + 3) % nv})
+			if f, err := n.FaceAt(x); err == nil && len(f.Rays) < in.D {
+				faces = append(faces, f)
+			}
+		}
+		tau := ones(in.D)
+		b.Run(name, func(b *testing.B) {
+			b.ReportAllocs()
+			calls := 0
+			for b.Loop() {
+				calls = 0
+				for _, f := range faces {
+					for i := 0; i < in.D; i++ {
+						c := make([]*big.Rat, in.D)
+						for q := range c {
+							c[q] = new(big.Rat)
+						}
+						c[i].SetInt64(1)
+						if _, _, err := n.NormalConeMin(context.Background(), f, tau, c); err != nil {
+							b.Fatal(err)
+						}
+						calls++
+					}
+				}
+			}
+			b.ReportMetric(float64(calls), "calls/op")
+		})
+	}
+}

@@ -790,3 +790,55 @@ func testCoversScaled(t *testing.T, K int) {
 		}
 	}
 }
+
+// TestNormalConeMinHuge scales instances by K = 2^40: faces and normal
+// cones do not change (common practice: P(K·A) = K·P(A)), so the optimum
+// must equal the unscaled one; the integer check overflows int64 and the
+// exact simplex fallback decides.
+func TestNormalConeMinHuge(t *testing.T) {
+	const K = 1 << 40
+	rng := rand.New(rand.NewPCG(81, 82))
+	ctx := context.Background()
+	for _, in := range randomInstances(83, 30) {
+		n0, err := New(in.D, in.Points)
+		if err != nil {
+			t.Fatal(err)
+		}
+		scaled := make([][]int, len(in.Points))
+		for k, p := range in.Points {
+			scaled[k] = make([]int, in.D)
+			for i, x := range p {
+				scaled[k][i] = x * K
+			}
+		}
+		n, err := New(in.D, scaled)
+		if err != nil {
+			t.Fatal(err)
+		}
+		lat, err := n0.CompactFaces()
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, f := range lat.Faces {
+			tau := make([]*big.Rat, in.D)
+			c := make([]*big.Rat, in.D)
+			for i := range tau {
+				tau[i] = big.NewRat(int64(1+rng.IntN(4)), int64(1+rng.IntN(3)))
+				c[i] = big.NewRat(int64(rng.IntN(7)-2), int64(1+rng.IntN(2)))
+			}
+			want, _, err := n0.NormalConeMin(ctx, f, tau, c)
+			if err != nil {
+				t.Fatal(err)
+			}
+			g := &Face{Vertices: f.Vertices, Dim: f.Dim}
+			got, y, err := n.NormalConeMin(ctx, g, tau, c)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if got.Cmp(want) != 0 {
+				t.Errorf("%s ×2^40 face %v: min %v, unscaled %v", in.Name, f.Vertices, got, want)
+			}
+			checkNormalConeY(t, n, g, tau, y)
+		}
+	}
+}
