@@ -39,47 +39,50 @@ else
 		dense_d6_n1000 dense_d6_n10000 dense_d10_n100 dense_d10_n10000
 		random_d3_n100000 random_d6_n1000 random_d6_n10000 random_d10_n10000 random_d10_n100000
 		random_d15_n100000 random_d20_n1000 random_d20_n10000 random_d20_n100000
-		degree_d3_D20 degree_d5_D8 degree_d8_D5)
+		degree_d3_D20 degree_d5_D8 degree_d8_D5 degree_d10_D10)
 fi
 
 have() { command -v "$1" >/dev/null 2>&1; }
 
 # timed CMD...: runs CMD under timeout REPEAT times (once if it times out,
 # fails or takes over 5 s) and sets ELAPSED to the least wall time and CPU to
-# the least user+system CPU time, in seconds, and RC. Stdout goes to TIMED_OUT.
+# the least user+system CPU time, in seconds, MEM to the largest peak
+# resident set size in MB (the "Maximum resident set size" of time -v), and
+# RC. Stdout goes to TIMED_OUT.
 timed() {
-	local e c best="" bestc="" k
+	local e c m best="" bestc="" mem=0 k
 	for ((k = 0; k < REPEAT; k++)); do
 		set +e
-		/usr/bin/time -f "%e %U %S" -o "$OUT/work/.time" timeout "$TIMEOUT" "$@" >"$TIMED_OUT"
+		/usr/bin/time -f "%e %U %S %M" -o "$OUT/work/.time" timeout "$TIMEOUT" "$@" >"$TIMED_OUT"
 		RC=$?
 		set -e
 		if [ "$RC" = 124 ]; then
-			ELAPSED=">$TIMEOUT" CPU="-"
+			ELAPSED=">$TIMEOUT" CPU="-" MEM="-"
 			return
 		fi
-		read -r e c < <(awk 'END { printf "%.3f %.3f\n", $1, $2 + $3 }' "$OUT/work/.time")
+		read -r e c m < <(awk 'END { printf "%.3f %.3f %.0f\n", $1, $2 + $3, $4 / 1024 }' "$OUT/work/.time")
 		if [ -z "$best" ] || awk -v a="$e" -v b="$best" 'BEGIN { exit !(a < b) }'; then best=$e; fi
 		if [ -z "$bestc" ] || awk -v a="$c" -v b="$bestc" 'BEGIN { exit !(a < b) }'; then bestc=$c; fi
+		[ "$m" -gt "$mem" ] && mem=$m
 		[ "$RC" = 0 ] || break
 		awk -v a="$e" 'BEGIN { exit !(a > 5) }' && break # long runs: once is enough
 	done
-	ELAPSED=$best CPU=$bestc
+	ELAPSED=$best CPU=$bestc MEM=$mem
 }
 
 field() { sed -n "s/.*\b$1=\([^ ]*\).*/\1/p" "$2" | head -1; }
 ratio() { awk -v a="$1" -v b="$2" 'BEGIN { if (a ~ /^>/ || b ~ /^>/ || a == "n/a" || b == "n/a" || b == 0) print "-"; else printf "%.1f", a / b }'; }
 
 # Times are "wall/cpu" seconds (least of REPEAT runs each).
-printf '%-20s %3s %7s %6s | %13s %-18s %13s %6s | %13s %-13s %5s | %13s %13s %-20s %5s\n' \
-	instance d N minimal lctkit t lct-facets facets glpsol "glpsol t" ratio lrs cdd "t (lrs;cdd)" ratio
+printf '%-20s %3s %7s %6s | %13s %6s %-18s %13s %6s | %13s %6s %-13s %5s | %13s %13s %-20s %5s\n' \
+	instance d N minimal lctkit MB t lct-facets facets glpsol MB "glpsol t" ratio lrs cdd "t (lrs;cdd)" ratio
 for name in "${INSTANCES[@]}"; do
 	f="$OUT/inst/$name.txt"
 	w="$OUT/work/$name"
 	read -r d npts < <(grep -v '^#' "$f" | head -1)
 	# lctkit: distance + face
 	TIMED_OUT="$w.lct" timed "$ND" "$f"
-	lct=$ELAPSED lctc=$CPU
+	lct=$ELAPSED lctc=$CPU lctm=$MEM
 	lt=$(field t "$w.lct")
 	minimal=$(field minimal "$w.lct")
 	# lctkit: facets, on the same Pareto-minimal points that lrs and cdd get
@@ -90,11 +93,11 @@ for name in "${INSTANCES[@]}"; do
 	lft=$(field t "$w.lctf")
 	[ -n "$lft" ] && [ "$lft" != "$lt" ] && lt="$lt!=$lft"
 	# glpsol --exact on the same LP
-	glp=n/a gt=n/a glpc=-
+	glp=n/a gt=n/a glpc=- glpm=-
 	if have glpsol; then
 		"$ND" -lp "$f" >"$w.lp"
 		TIMED_OUT=/dev/null timed glpsol --exact --lp "$w.lp" -o "$w.glp"
-		glp=$ELAPSED glpc=$CPU
+		glp=$ELAPSED glpc=$CPU glpm=$MEM
 		gt=$(sed -n 's/^Objective: *obj = *\([^ ]*\).*/\1/p' "$w.glp" 2>/dev/null || true)
 	fi
 	"$ND" -ext "$f" >"$w.ext"
@@ -113,9 +116,9 @@ for name in "${INSTANCES[@]}"; do
 	fi
 	best=$lrs
 	if [ "$lrs" = n/a ] || [[ "$lrs" == \>* ]] || { [ "$cdd" != n/a ] && [[ "$cdd" != \>* ]] && awk -v a="$cdd" -v b="$lrs" 'BEGIN{exit !(a<b)}'; }; then best=$cdd; fi
-	printf '%-20s %3s %7s %6s | %13s %-18s %13s %6s | %13s %-13s %5s | %13s %13s %-20s %5s\n' \
-		"$name" "$d" "$npts" "$minimal" "$lct/$lctc" "$lt" "$lctf/$lctfc" "${nfac:--}" "$glp/$glpc" "$gt" "$(ratio "$glp" "$lct")" \
+	printf '%-20s %3s %7s %6s | %13s %6s %-18s %13s %6s | %13s %6s %-13s %5s | %13s %13s %-20s %5s\n' \
+		"$name" "$d" "$npts" "$minimal" "$lct/$lctc" "$lctm" "$lt" "$lctf/$lctfc" "${nfac:--}" "$glp/$glpc" "$glpm" "$gt" "$(ratio "$glp" "$lct")" \
 		"$lrs/$lrsc" "$cdd/$cddc" "$lrst;$cddt" "$(ratio "$best" "$lctf")"
 done
-echo "times: wall/cpu seconds (cpu = user+system); ratios use wall times: glpsol / lctkit distance,"
+echo "times: wall/cpu seconds (cpu = user+system); MB: peak resident set size; ratios use wall times: glpsol / lctkit distance,"
 echo "faster of lrs and cdd / lctkit facets. Load average at the end: $(cut -d' ' -f1-3 /proc/loadavg)"

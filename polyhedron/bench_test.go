@@ -11,7 +11,7 @@ import (
 	"github.com/lctkit/lctkit/polyhedron/internal/instances"
 )
 
-// loadInstance reads testdata/polyhedron/NAME.txt, or generates a random
+// loadInstance reads testdata/polyhedron/NAME.txt, or generates an
 // instance that is not stored (see instances.StoredMaxN).
 func loadInstance(b testing.TB, name string) instances.Instance {
 	b.Helper()
@@ -24,8 +24,10 @@ func loadInstance(b testing.TB, name string) instances.Instance {
 		}
 		return in
 	}
-	if in, ok := generatedInstance(name); ok {
-		return in
+	for _, s := range instances.DegreeSizes {
+		if in := instances.Degree(s[0], s[1]); in.Name == name {
+			return in
+		}
 	}
 	for _, s := range instances.RandomSizes {
 		in := instances.Random(s[0], s[1], instances.Seed)
@@ -48,7 +50,7 @@ func ones(d int) []*big.Rat {
 var distanceInstances = []string{
 	"lowrank_2_2_2", "lowrank_3_3_3", "lowrank_4_4_3", "lowrank_5_5_4",
 	"random_d6_n10000", "random_d10_n10000", "random_d20_n10000", "random_d20_n100000",
-	"dense_d6_n10000", "dense_d10_n10000", "degree_d8_D5",
+	"dense_d6_n10000", "dense_d10_n10000", "degree_d8_D5", "degree_d10_D10",
 }
 
 // BenchmarkNewDistance measures the whole pipeline on an instance: New
@@ -190,15 +192,6 @@ func BenchmarkCovers(b *testing.B) {
 			b.ReportMetric(float64(covers), "edges")
 		})
 	}
-}
-
-// generatedInstance returns the instances too large to store under
-// testdata: degree_d10_D10 (92,378 points).
-func generatedInstance(name string) (instances.Instance, bool) {
-	if name == "degree_d10_D10" {
-		return instances.Degree(10, 10), true
-	}
-	return instances.Instance{}, false
 }
 
 // BenchmarkNew measures New (Pareto filter and vertex filter) alone and

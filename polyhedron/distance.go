@@ -31,8 +31,9 @@ type Face struct {
 	// face = P ∩ {a·x = b}. Normal is strictly positive in every coordinate
 	// iff the face is compact. Any such a lies in the relative interior of
 	// the face's normal cone; it is unique (up to scale) only for facets.
-	// CompactFaces uses the sum of the facet normals, Distance and FaceAt a
-	// normal built from LP duals, so compare faces by Vertices and Rays.
+	// CompactFaces uses the sum of the facet normals, Distance, FaceAt and
+	// CompactFaceAt a normal built from LP duals, Covers one built from a
+	// separating vector, so compare faces by Vertices and Rays (Equal).
 	Normal []*big.Int
 	RHS    *big.Int
 	// Facets holds the indices into Facets() of the facets containing the

@@ -30,6 +30,17 @@
 // vertices, where more than codim facets meet. Cost: a few exact LPs with d+1
 // rows and O(N·d) integer work per pricing round for N vertices.
 //
+// # Face operations without facets
+//
+// For computations that visit only some faces, the faces can be reached
+// without the facet enumeration: Face.Side and Face.Contains evaluate a
+// face's exposing normal on a point, Newton.Exposes checks such a normal,
+// CompactFaceAt finds the compact face holding a point, Covers lists the
+// compact faces one dimension up from a compact face (about one small float
+// LP with an exact certificate per vertex), and NormalConeMin minimises a
+// linear function over the normal cone of a face. Their cost grows with the
+// number of vertices, not with the number of faces or facets.
+//
 // # Facets and compact faces
 //
 // Facets enumerates all facets by the double description method in integer
@@ -48,5 +59,6 @@
 //
 // A *Newton is immutable after New, except for the facet enumeration and the
 // compact faces, which are computed once on first use under sync.Once; all
-// methods may be called concurrently.
+// methods may be called concurrently. A *Face is not modified by the
+// package after it is returned.
 package polyhedron

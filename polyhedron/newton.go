@@ -61,7 +61,7 @@ type Limits struct {
 	// (default 1,000,000).
 	MaxFaces int
 	// Context, if non-nil, lets the caller stop long work: NewWithLimits
-	// checks it before each vertex test (an exact LP), Facets before each
+	// checks it before each vertex test (an LP), Facets before each
 	// vertex constraint it adds, and CompactFaces before extending each
 	// face of the level it is on. Once the context is done they return an
 	// error wrapping ctx.Err() (test with errors.Is(err,

@@ -1,6 +1,6 @@
 // Command gen writes the benchmark instances of the polyhedron package (see
 // package instances for the families and the file format) into a directory,
-// by default testdata/polyhedron. Random instances with more than
+// by default testdata/polyhedron. Instances with more than
 // instances.StoredMaxN points are skipped unless -all is given (benchmarks
 // generate them from the same seed). Run from the module root:
 //
@@ -12,21 +12,20 @@ import (
 	"fmt"
 	"os"
 	"path/filepath"
-	"strings"
 
 	"github.com/lctkit/lctkit/polyhedron/internal/instances"
 )
 
 func main() {
 	dir := flag.String("dir", "testdata/polyhedron", "output directory")
-	all := flag.Bool("all", false, "also write the random instances with more than instances.StoredMaxN points")
+	all := flag.Bool("all", false, "also write the instances with more than instances.StoredMaxN points")
 	flag.Parse()
 	if err := os.MkdirAll(*dir, 0o755); err != nil {
 		fmt.Fprintln(os.Stderr, err)
 		os.Exit(1)
 	}
 	for _, in := range instances.All() {
-		if strings.HasPrefix(in.Name, "random") && len(in.Points) > instances.StoredMaxN && !*all {
+		if len(in.Points) > instances.StoredMaxN && !*all {
 			continue
 		}
 		f, err := os.Create(filepath.Join(*dir, in.Name+".txt"))

@@ -198,7 +198,8 @@ var RandomSizes = func() [][2]int {
 	return out
 }()
 
-// StoredMaxN is the largest N of a random instance stored as a file.
+// StoredMaxN is the largest N of an instance stored as a file (larger
+// ones, random or of one degree, are generated on demand).
 const StoredMaxN = 10000
 
 // LowRankSizes lists the (M, N, H) triples of the low-rank family.
@@ -208,7 +209,8 @@ var LowRankSizes = [][3]int{{2, 2, 2}, {3, 3, 2}, {3, 3, 3}, {4, 4, 3}, {5, 5, 4
 var DenseSizes = [][2]int{{6, 1000}, {6, 10000}, {10, 100}, {10, 10000}}
 
 // DegreeSizes lists the (d, D) pairs of the one-degree family.
-var DegreeSizes = [][2]int{{3, 20}, {5, 8}, {8, 5}}
+// degree_d10_D10 has 92,378 points and is generated on demand.
+var DegreeSizes = [][2]int{{3, 20}, {5, 8}, {8, 5}, {10, 10}}
 
 // All returns every instance of the four families (random ones of all
 // sizes, including the generated-only ones).

@@ -21,6 +21,7 @@ func TestSizes(t *testing.T) {
 		// monomials of degree D in d variables: C(D+d−1, d−1)
 		{Degree(3, 20), 3, 231},
 		{Degree(8, 5), 8, 792},
+		{Degree(10, 10), 10, 92378}, // C(19, 9)
 		{Random(6, 1000, Seed), 6, 1000},
 		{Dense(10, 100, Seed), 10, 100},
 	}
