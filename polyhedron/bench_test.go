@@ -5,6 +5,7 @@ import (
 	"math/big"
 	"os"
 	"path/filepath"
+	"slices"
 	"strings"
 	"testing"
 
@@ -270,6 +271,46 @@ func BenchmarkNormalConeMin(b *testing.B) {
 				}
 			}
 			b.ReportMetric(float64(calls), "calls/op")
+		})
+	}
+}
+
+// BenchmarkCompactFaceAt measures CompactFaceAt at the centroids of up to
+// 20 vertex pairs plus each of those centroids moved off P's compact faces
+// by a unit step (caught by the dominance prefilter); one op = all points.
+func BenchmarkCompactFaceAt(b *testing.B) {
+	for _, name := range []string{"lowrank_3_3_3", "lowrank_5_5_4", "random_d10_n1000", "degree_d10_D10"} {
+		in := loadInstance(b, name)
+		n, err := New(in.D, in.Points)
+		if err != nil {
+			b.Fatal(err)
+		}
+		var xs [][]*big.Rat
+		nv := len(n.Vertices())
+		for k := 0; k < 20 && k+1 < nv; k++ {
+			x := n.centroid([]int{k, (7*k + 3) % nv})
+			xs = append(xs, x)
+			y := slices.Clone(x)
+			y[k%in.D] = new(big.Rat).Add(y[k%in.D], big.NewRat(1, 1))
+			xs = append(xs, y)
+		}
+		b.Run(name, func(b *testing.B) {
+			b.ReportAllocs()
+			compact := 0
+			for b.Loop() {
+				compact = 0
+				for _, x := range xs {
+					f, err := n.CompactFaceAt(context.Background(), x)
+					if err != nil {
+						b.Fatal(err)
+					}
+					if f != nil {
+						compact++
+					}
+				}
+			}
+			b.ReportMetric(float64(len(xs)), "points/op")
+			b.ReportMetric(float64(compact), "compact/op")
 		})
 	}
 }

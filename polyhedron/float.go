@@ -330,34 +330,33 @@ func shootFloat(pts [][]int, x0, tau []float64) (fs fshot, ok bool) {
 }
 
 // initialPoints picks the k points that alone need the smallest t (the
-// initial columns of the column generation).
+// initial columns of the column generation), by bounded insertion.
 func initialPoints(pts [][]int, x0, tau []float64, k int) []int {
 	type cand struct {
 		j int
 		v float64
 	}
-	var best []cand
 	k = min(k, len(pts))
+	best := make([]cand, 0, k)
 	for j, p := range pts {
 		need := math.Inf(-1)
 		for i := range x0 {
 			need = max(need, (float64(p[i])-x0[i])/tau[i])
 		}
-		if len(best) < k || need < best[len(best)-1].v {
-			best = append(best, cand{j, need})
-			slices.SortFunc(best, func(x, y cand) int {
-				switch {
-				case x.v < y.v:
-					return -1
-				case x.v > y.v:
-					return 1
-				}
-				return x.j - y.j
-			})
-			if len(best) > k {
-				best = best[:k]
-			}
+		if len(best) == k && need >= best[k-1].v {
+			continue
 		}
+		pos := len(best)
+		if pos < k {
+			best = append(best, cand{})
+		} else {
+			pos = k - 1
+		}
+		for pos > 0 && best[pos-1].v > need {
+			best[pos] = best[pos-1]
+			pos--
+		}
+		best[pos] = cand{j, need}
 	}
 	out := make([]int, len(best))
 	for i, c := range best {

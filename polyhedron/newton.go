@@ -309,6 +309,14 @@ func paretoMinimal(d int, points [][]int) [][]int {
 		keptSupp = append(keptSupp, sp)
 	}
 	slices.SortFunc(kept, slices.Compare)
+	// One contiguous block in the final order: later passes scan the
+	// points in this order.
+	flat := make([]int, len(kept)*d)
+	for k, p := range kept {
+		row := flat[k*d : (k+1)*d : (k+1)*d]
+		copy(row, p)
+		kept[k] = row
+	}
 	return kept
 }
 

@@ -299,8 +299,9 @@ func (vf *vfilter) test(k int, sc *vfScratch) bool {
 	for round := 0; round < maxVertexRounds; round++ {
 		// C_p: certified vertices with support in supp(p).
 		sc.cp = sc.cp[:0]
+		full := ns == vf.d
 		for _, j := range vf.snapshot() {
-			if j != k && subset(vf.supp[j], vf.supp[k]) {
+			if j != k && (full || subset(vf.supp[j], vf.supp[k])) {
 				sc.cp = append(sc.cp, j)
 			}
 		}
@@ -325,6 +326,9 @@ func (vf *vfilter) test(k int, sc *vfScratch) bool {
 			if !ok {
 				break
 			}
+			if fs.t < -1e-7 && certifyInside(fs.weights, pr, sub) {
+				return false
+			}
 			if fs.t <= 1e-7 {
 				b := basisCache{slacks: fs.slacks, tBasic: fs.tBasic}
 				for j := range fs.weights {
@@ -339,9 +343,6 @@ func (vf *vfilter) test(k int, sc *vfScratch) bool {
 						sc.cache = map[string]basisCache{}
 					}
 					sc.cache[key] = b
-					return false
-				}
-				if fs.t < -1e-7 && certifyInside(fs.weights, pr, sub) {
 					return false
 				}
 				break
