@@ -226,10 +226,16 @@ func (n *Newton) faceHolding(x []*big.Rat) (*Face, int) {
 // strictly positive normal would be larger on it), so x is first compared
 // coordinatewise with the Pareto-minimal points (integer comparisons of
 // ⌊x_i⌋, O(M·d) for M minimal points); if x >= m for a minimal m != x, the
-// answer is nil without any LP. Otherwise the face is found as by FaceAt
-// (ray-shooting LP from x along (1,…,1), then the face of the hit point),
-// stopping early when the representation of x already uses a ray. Cost: that
-// scan plus, when it does not decide, the cost of FaceAt.
+// answer is nil without any LP. Otherwise float64 LPs propose the answer
+// and exact certificates confirm it (see compactFaceFast: an exactly solved
+// basis for an interior point or for a representation using a ray; for a
+// compact face, an exact strictly positive representation of x over its
+// vertices and an exposing normal checked by Exposes). When a certificate
+// fails, the face is found by exact LPs as by FaceAt (ray-shooting LP from
+// x along (1,…,1), then the face of the hit point), stopping early when the
+// representation of x already uses a ray. Cost: that scan, a float LP over
+// the V vertices with O(V·d) pricing rounds and O(V·d) exact checks; the
+// cost of FaceAt in the fallback.
 func (n *Newton) CompactFaceAt(ctx context.Context, x []*big.Rat) (*Face, error) {
 	if len(x) != n.d {
 		return nil, fmt.Errorf("%w: point has %d coordinates, want %d", ErrDimension, len(x), n.d)
@@ -261,6 +267,9 @@ func (n *Newton) CompactFaceAt(ctx context.Context, x []*big.Rat) (*Face, error)
 	}
 	if err := contextErr(ctx); err != nil {
 		return nil, err
+	}
+	if f, decided := n.compactFaceFast(x); decided {
+		return f, nil
 	}
 	s := shoot(n.vertices, x, ratOnes(n.d))
 	switch s.t.Sign() {

@@ -842,3 +842,49 @@ func TestNormalConeMinHuge(t *testing.T) {
 		}
 	}
 }
+
+// TestCompactFaceAtHuge scales instances by K = 2^40 (faces keep their
+// vertex indices; common practice: P(K·A) = K·P(A)), so that the integer
+// certificates overflow int64 and CompactFaceAt takes its exact LPs.
+func TestCompactFaceAtHuge(t *testing.T) {
+	const K = 1 << 40
+	ctx := context.Background()
+	for _, in := range randomInstances(91, 30) {
+		n0, err := New(in.D, in.Points)
+		if err != nil {
+			t.Fatal(err)
+		}
+		scaled := make([][]int, len(in.Points))
+		for k, p := range in.Points {
+			scaled[k] = make([]int, in.D)
+			for i, x := range p {
+				scaled[k][i] = x * K
+			}
+		}
+		n, err := New(in.D, scaled)
+		if err != nil {
+			t.Fatal(err)
+		}
+		lat, err := n0.CompactFaces()
+		if err != nil {
+			t.Fatal(err)
+		}
+		for _, f := range lat.Faces {
+			x := n.centroid(f.Vertices)
+			got, err := n.CompactFaceAt(ctx, x)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if !got.Equal(f) || got.Dim != f.Dim {
+				t.Errorf("%s ×2^40: CompactFaceAt(centroid of %v) = %v", in.Name, f.Vertices, got)
+				continue
+			}
+			checkCompleteCompact(t, n, got)
+			// A step along a coordinate leaves the compact faces.
+			x[0] = new(big.Rat).Add(x[0], big.NewRat(K, 3))
+			if got, err := n.CompactFaceAt(ctx, x); err != nil || got != nil {
+				t.Errorf("%s ×2^40: CompactFaceAt(centroid of %v + e_0·K/3) = %v, %v; want nil", in.Name, f.Vertices, got, err)
+			}
+		}
+	}
+}
