@@ -61,8 +61,10 @@ func vertexFilter(d int, pts [][]int, ctx context.Context, st *vertexStats) ([][
 		vf.supp[k] = support(p, vf.words)
 	}
 	vf.state = make([]atomic.Int32, len(pts))
-	for _, k := range vf.seeds() {
-		vf.markVertex(k)
+	if len(pts) > cheapTestsMax { // small inputs: the cheap tests decide most points
+		for _, k := range vf.seeds() {
+			vf.markVertex(k)
+		}
 	}
 	// Points with large coordinate sums (likely non-vertices) go first;
 	// the order does not change the answer.
