@@ -41,13 +41,13 @@ func (f *problemFlags) options() *rlct.Options {
 func (f *problemFlags) spec(expr string, e *env) (*rlct.Spec, string, error) {
 	vars, err := rlct.SplitNames(f.Vars)
 	if err != nil {
-		return nil, "", err
+		return nil, "", badFlag("--vars", err)
 	}
 	s := &rlct.Spec{Prior: f.Prior, At: f.At, Order: f.Order, Vars: vars}
 	note := ""
 	switch {
 	case expr != "" && f.SOS != "":
-		return nil, "", errors.New("give either EXPR or --sos, not both")
+		return nil, "", usageError{errors.New("give either EXPR or --sos, not both")}
 	case f.SOS != "":
 		src, err := readExpr(f.SOS, e)
 		if err != nil {
@@ -81,16 +81,20 @@ func solve(s *rlct.Spec, opt *rlct.Options, e *env) (*rlct.Result, error) {
 }
 
 // showSpecError prints a spec error with a caret when it has a position and
-// returns the exit error.
+// returns the exit error: a usage error for a flag's value (--prior, --at),
+// a failure for the expression.
 func showSpecError(e *env, err error) error {
 	var se *rlct.SpecError
 	if errors.As(err, &se) {
-		label := "--" + se.Field
-		if se.Field == "k" {
-			label = "K"
+		label, code := "--"+se.Field, exitUsage
+		switch se.Field {
+		case "k":
+			label, code = "K", exitFailed
+		case "sos":
+			code = exitFailed
 		}
 		printError(e.stderr, label, se.Src, se.Err)
-		return exitError{exitFailed, se.Err}
+		return exitError{code, se.Err}
 	}
 	return err
 }
@@ -139,7 +143,7 @@ func (c *boundCmd) Run(e *env) error {
 	}
 	ns, err := parseSizes(c.N)
 	if err != nil {
-		return fmt.Errorf("--n: %w", err)
+		return badFlag("--n", err)
 	}
 	if note != "" && !c.JSON {
 		fmt.Fprintln(e.stdout, note)

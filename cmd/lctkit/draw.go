@@ -40,7 +40,7 @@ func (c *drawCmd) Run(e *env) error {
 		return err
 	}
 	if len(s.At) > 1 {
-		return fmt.Errorf("draw pictures one point at a time; got %d --at points, so draw each separately (lctkit faces lists them all)", len(s.At))
+		return usageError{fmt.Errorf("draw pictures one point at a time; got %d --at points, so draw each separately (lctkit faces lists them all)", len(s.At))}
 	}
 	p, points, err := s.Problem()
 	if err != nil {

@@ -383,7 +383,7 @@ func TestDrawErrors(t *testing.T) {
 	}{
 		{[]string{"draw", "a^2 + b^2 + c^2 + d^2", "-o", out}, exitFailed, []string{"2 or 3 variables", "has 4", "lctkit faces"}},
 		{[]string{"draw", "x^2", "-o", out}, exitFailed, []string{"2 or 3 variables", "--vars"}},
-		{[]string{"draw", "x^2 + y^2", "--at", "x=0", "--at", "x=1", "-o", out}, exitFailed, []string{"one point at a time"}},
+		{[]string{"draw", "x^2 + y^2", "--at", "x=0", "--at", "x=1", "-o", out}, exitUsage, []string{"one point at a time"}},
 		{[]string{"draw", "x^2 + (y", "-o", out}, exitFailed, []string{"1:9:"}},
 		{[]string{"draw", "x^2 + y^2", "-o", filepath.Join(dir, "missing", "x.svg")}, exitFailed, []string{"writing the picture"}},
 		{[]string{"draw", "x^2 + y^2"}, exitUsage, []string{"-o"}},

@@ -35,3 +35,15 @@ func printError(w io.Writer, label, src string, err error) {
 	col := max(pe.Col, 1)
 	fmt.Fprintf(w, "%s%s^\n", strings.Repeat(" ", utf8.RuneCountInString(prefix)), strings.Repeat(" ", col-1))
 }
+
+// usageError is an error in the value of a flag; the command exits with
+// exitUsage, as for an unknown flag.
+type usageError struct{ err error }
+
+func (e usageError) Error() string { return e.err.Error() }
+func (e usageError) Unwrap() error { return e.err }
+
+// badFlag reports a bad value of the named flag ("--n").
+func badFlag(flag string, err error) error {
+	return usageError{fmt.Errorf("%s: %w", flag, err)}
+}

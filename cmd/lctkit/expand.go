@@ -42,7 +42,7 @@ func (c *expandCmd) Run(e *env) error {
 	}
 	vars, err := rlct.SplitNames(c.Vars)
 	if err != nil {
-		return err
+		return badFlag("--vars", err)
 	}
 	var names []string
 	var point []*big.Rat
@@ -50,7 +50,7 @@ func (c *expandCmd) Run(e *env) error {
 		names, point, err = monomial.ParseBindings(c.At)
 		if err != nil {
 			printError(e.stderr, "--at", c.At, err)
-			return exitError{exitFailed, err}
+			return exitError{exitUsage, err}
 		}
 	}
 	for _, n := range names {
@@ -75,7 +75,7 @@ func (c *expandCmd) Run(e *env) error {
 			}
 		}
 		if ex.Truncated {
-			return fmt.Errorf("--at: the expression is a power series truncated around 0, and its truncation cannot be moved to another point; write it in shifted variables instead")
+			return badFlag("--at", fmt.Errorf("the expression is a power series truncated around 0, and its truncation cannot be moved to another point; write it in shifted variables instead"))
 		}
 		p = p.Translate(full)
 	}

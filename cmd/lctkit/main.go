@@ -18,6 +18,8 @@ import (
 	"fmt"
 	"io"
 	"os"
+	"slices"
+	"strings"
 
 	"github.com/alecthomas/kong"
 )
@@ -99,7 +101,7 @@ func run(args []string, e *env) (code int) {
 			}
 		}
 	}()
-	ctx, err := parser.Parse(args)
+	ctx, err := parser.Parse(expressionsLast(parser, args))
 	if err != nil {
 		fmt.Fprintln(e.stderr, "lctkit:", err)
 		var pe *kong.ParseError
@@ -114,9 +116,71 @@ func run(args []string, e *env) (code int) {
 			return ee.code
 		}
 		fmt.Fprintln(e.stderr, "lctkit:", err)
+		var ue usageError
+		if errors.As(err, &ue) {
+			return exitUsage
+		}
 		return exitFailed
 	}
 	return exitOK
+}
+
+// expressionsLast lets arguments start with '-' where they are not flags.
+// An expression argument such as '-x^2 + y^4' is moved after a final "--",
+// where kong reads every argument as positional (the order of the
+// positional arguments is kept); a flag value such as --lambda -1 or
+// --sos '-a*b' is joined to its flag (--lambda=-1). A flag is "--name",
+// "--name=value" or a declared short flag ("-h", "-o"); a flag that takes a
+// value and is followed by another flag is left alone, so kong reports the
+// missing value.
+func expressionsLast(parser *kong.Kong, args []string) []string {
+	long := map[string]string{} // flags that take a value → their long form
+	short := map[string]bool{"-h": true}
+	var visit func(n *kong.Node)
+	visit = func(n *kong.Node) {
+		for _, f := range n.Flags {
+			if !f.IsBool() && !f.IsCounter() {
+				long["--"+f.Name] = "--" + f.Name
+				if f.Short != 0 {
+					long["-"+string(f.Short)] = "--" + f.Name
+				}
+			}
+			if f.Short != 0 {
+				short["-"+string(f.Short)] = true
+			}
+		}
+		for _, c := range n.Children {
+			visit(c)
+		}
+	}
+	visit(parser.Model.Node)
+	isFlag := func(a string) bool { return strings.HasPrefix(a, "--") || short[a] }
+	var out, moved []string
+	for i := 0; i < len(args); i++ {
+		a := args[i]
+		switch name, valued := long[a]; {
+		case a == "--":
+			out = append(out, args[i:]...)
+			i = len(args)
+		case valued && i+1 < len(args) && strings.HasPrefix(args[i+1], "-") && args[i+1] != "-" && !isFlag(args[i+1]):
+			out = append(out, name+"="+args[i+1])
+			i++
+		case valued && i+1 < len(args) && !isFlag(args[i+1]):
+			out = append(out, a, args[i+1])
+			i++
+		case isFlag(a) || a == "-" || !strings.HasPrefix(a, "-"):
+			out = append(out, a)
+		default:
+			moved = append(moved, a)
+		}
+	}
+	if len(moved) == 0 {
+		return out
+	}
+	if !slices.Contains(out, "--") {
+		out = append(out, "--")
+	}
+	return append(out, moved...)
 }
 
 // isTerminal reports whether f is a character device (a terminal).

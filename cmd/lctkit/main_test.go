@@ -146,7 +146,7 @@ func TestErrorsShowCaret(t *testing.T) {
 		lines []string
 	}{
 		{[]string{"bound", "x^2 + (y*"}, exitFailed, []string{"1:10:", "  K: x^2 + (y*", "              ^"}},
-		{[]string{"bound", "x^2", "--prior", "x=1,,y=2"}, exitFailed, []string{"--prior"}},
+		{[]string{"bound", "x^2", "--prior", "x=1,,y=2"}, exitUsage, []string{"--prior"}},
 		{[]string{"bound", "x^2+1"}, exitFailed, []string{"does not vanish"}},
 		{[]string{"bound", "x^2", "--nonsense"}, exitUsage, []string{"unknown flag"}},
 		{[]string{"frobnicate"}, exitUsage, []string{"unexpected argument"}},
@@ -230,5 +230,60 @@ func TestJSONErrorObjects(t *testing.T) {
 		if msg, _ := rep["error"].(string); msg == "" {
 			t.Errorf("%v: no error field in %s", args, out)
 		}
+	}
+}
+
+// The exit codes of the README: 0 success, 1 an input that cannot be
+// answered, 2 a usage error, including a bad flag value.
+func TestExitCodes(t *testing.T) {
+	tests := []struct {
+		args []string
+		code int
+		want string // part of stderr
+	}{
+		{[]string{"penalty", "--lambda", "1", "--n", "2"}, exitUsage, "--n"},
+		{[]string{"penalty", "--lambda", "abc", "--n", "1000"}, exitUsage, "--lambda"},
+		{[]string{"penalty", "--lambda", "-1", "--n", "1000"}, exitUsage, "λ must be positive, got -1"},
+		{[]string{"penalty", "--lambda", "1", "--theta", "-2", "--n", "1000"}, exitUsage, "--theta"},
+		{[]string{"bound", "x^2", "--prior", "x"}, exitUsage, "--prior"},
+		{[]string{"bound", "x^2", "--at", "x=="}, exitUsage, "--at"},
+		{[]string{"bound", "x^2", "--vars", "x,,y"}, exitUsage, "--vars"},
+		{[]string{"bound", "x^2", "--n", "ten"}, exitUsage, "--n"},
+		{[]string{"bound", "x^2", "--sos", "x"}, exitUsage, "not both"},
+		{[]string{"expand", "x", "--at", "x"}, exitUsage, "--at"},
+		{[]string{"bound", "x^2 + 1"}, exitFailed, "does not vanish"},
+		{[]string{"bound", "x^2 +"}, exitFailed, "1:6:"},
+		{[]string{"bound", "x^4 + y^6"}, exitOK, ""},
+	}
+	for _, tt := range tests {
+		_, errOut, code := runCLI(t, "", tt.args...)
+		if code != tt.code || !strings.Contains(errOut, tt.want) {
+			t.Errorf("%v: exit %d, stderr %q; want exit %d and %q", tt.args, code, errOut, tt.code, tt.want)
+		}
+	}
+}
+
+// An expression may start with a minus sign, as an argument or as a flag's
+// value, and flags may follow it. x² + y⁴ is 1/2 + 1/4 = 3/4 (sum of
+// monomials in separate variables, worked by hand).
+func TestLeadingMinus(t *testing.T) {
+	tests := [][]string{
+		{"bound", "-(-x^2) + y^4", "--json"},
+		{"bound", "--json", "-(-x^2) + y^4"},
+		{"bound", "-(-x^2 - y^4)", "--prior", "x=0", "--json"},
+		{"bound", "--sos", "-x; y^2", "--json"},
+		{"bound", "--sos=-x; y^2", "--json"},
+	}
+	for _, args := range tests {
+		out, errOut, code := runCLI(t, "", args...)
+		if code != exitOK || !strings.Contains(out, `"lambda":"3/4"`) {
+			t.Errorf("%v: exit %d, stdout %s, stderr %s", args, code, out, errOut)
+		}
+	}
+	// A flag that needs a value and is followed by another flag still
+	// reports the missing value.
+	_, errOut, code := runCLI(t, "", "bound", "x^2", "--prior", "--json")
+	if code != exitUsage || !strings.Contains(errOut, "--prior") {
+		t.Errorf("--prior without a value: exit %d, stderr %s", code, errOut)
 	}
 }

@@ -44,14 +44,14 @@ func (c *penaltyCmd) Validate() error {
 func (c *penaltyCmd) Run(e *env) error {
 	lambda, err := monomial.ParseRat(c.Lambda)
 	if err != nil {
-		return fmt.Errorf("--lambda: %w", err)
+		return badFlag("--lambda", err)
 	}
 	if lambda.Sign() <= 0 {
-		return fmt.Errorf("--lambda: λ must be positive, got %s", lambda.RatString())
+		return badFlag("--lambda", fmt.Errorf("λ must be positive, got %s", lambda.RatString()))
 	}
 	ns, err := parseSizes(c.N)
 	if err != nil {
-		return fmt.Errorf("--n: %w", err)
+		return badFlag("--n", err)
 	}
 	rep := rlct.NewPenaltyReport(lambda, c.Theta, rlct.Status(c.Status), c.D, ns)
 	if c.JSON {
