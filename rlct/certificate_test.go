@@ -170,12 +170,12 @@ func TestSumOfSquaresUnsafeMidpoints(t *testing.T) {
 // says how many terms it left out; the full report does not.
 func TestLongFacePolynomialAbbreviated(t *testing.T) {
 	var terms []string
-	for i := 0; i <= 40; i++ {
-		terms = append(terms, fmt.Sprintf("x^%d*y^%d", 2*i, 80-2*i))
+	for i := 0; i <= 1100; i++ {
+		terms = append(terms, fmt.Sprintf("x^%d*y^%d", 2*i, 2200-2*i))
 	}
 	r := solve(t, &Spec{K: strings.Join(terms, " + ")})
 	pf := r.Principal
-	if pf.Terms != 41 || !strings.Contains(pf.Polynomial, "… (29 more terms)") {
+	if pf.Terms != 1101 || !strings.Contains(pf.Polynomial, "… (101 more terms)") {
 		t.Errorf("principal face: %d terms, %q", pf.Terms, pf.Polynomial)
 	}
 	full := solveWith(t, &Spec{K: strings.Join(terms, " + ")}, &Options{AllFaces: true})

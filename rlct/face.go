@@ -67,8 +67,10 @@ type Witness struct {
 }
 
 // maxPrintedTerms is how many terms of a face polynomial the default
-// report prints before abbreviating it.
-const maxPrintedTerms = 12
+// report holds before abbreviating it: enough for any face a reader
+// studies, while a face of 10^5 terms does not make the report megabytes
+// long (the full report, Options.AllFaces, keeps every term).
+const maxPrintedTerms = 1000
 
 // faceCase is one compact face being decided: the face, its dimension and
 // the part of each analysed polynomial on it.

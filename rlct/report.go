@@ -118,7 +118,11 @@ func ratStrings(xs []*big.Rat) []string {
 // PenaltyReport holds the asymptotic penalty at one or more sample sizes.
 // The numbers are float64 evaluations of exact formulas, not exact values.
 type PenaltyReport struct {
-	// Status is the status of the (λ, θ) pair the penalty comes from.
+	// Lambda and Theta are the pair the penalty comes from (λ exact, as a
+	// string in lowest terms).
+	Lambda string `json:"lambda"`
+	Theta  int    `json:"theta"`
+	// Status is the status of the (λ, θ) pair.
 	Status Status `json:"status"`
 	// Note says, for a pair that is not Exact, what the penalty is not.
 	Note string    `json:"note,omitempty"`
@@ -150,7 +154,7 @@ func RegularPenalty(d int, n float64) float64 {
 // given status; d ≤ 0 leaves the regular one out. A pair that is not Exact
 // gets a Note (see PenaltyNote).
 func NewPenaltyReport(lambda *big.Rat, theta int, status Status, d int, ns []float64) *PenaltyReport {
-	pr := &PenaltyReport{Status: status, Note: PenaltyNote(status), N: ns, Dim: max(d, 0)}
+	pr := &PenaltyReport{Lambda: lambda.RatString(), Theta: theta, Status: status, Note: PenaltyNote(status), N: ns, Dim: max(d, 0)}
 	for _, n := range ns {
 		pr.Singular = append(pr.Singular, Penalty(lambda, theta, n))
 		if d > 0 {

@@ -8,6 +8,8 @@ import (
 	"fmt"
 	"io"
 	"math/rand/v2"
+	"os"
+	"path/filepath"
 	"slices"
 	"strings"
 	"sync"
@@ -486,5 +488,42 @@ func TestOrderedMapErrors(t *testing.T) {
 	})
 	if err == nil || err.Error() != "disk full" || count != 10 {
 		t.Errorf("error %v after %d emits", err, count)
+	}
+}
+
+// Shards merged by "lctkit merge" give the unsharded output byte for byte,
+// including an id of 30 digits that a float would round.
+func TestMergeShards(t *testing.T) {
+	const bigID = "123456789012345678901234567890"
+	var in strings.Builder
+	in.WriteString(`{"id": ` + bigID + `, "k": "x^4 + y^6"}` + "\n")
+	for i := 2; i <= 9; i++ {
+		fmt.Fprintf(&in, `{"id": {"line": %d}, "k": "x^%d + y^2"}`+"\n", 100-i, 2*i)
+	}
+	in.WriteString("{\"id\": \"bad\", \"k\": \"x^2 +\"}\n")
+	whole, _, _ := runCLI(t, in.String(), "batch")
+	dir := t.TempDir()
+	var parts []string
+	for i := range 3 {
+		out, _, _ := runCLI(t, in.String(), "batch", "--shard", fmt.Sprintf("%d/3", i))
+		name := filepath.Join(dir, fmt.Sprintf("part%d.jsonl", i))
+		if err := os.WriteFile(name, []byte(out), 0o644); err != nil {
+			t.Fatal(err)
+		}
+		parts = append(parts, name)
+	}
+	merged, errOut, code := runCLI(t, "", append([]string{"merge"}, parts[2], parts[0], parts[1])...)
+	if code != exitOK || merged != whole {
+		t.Fatalf("exit %d (%s); merged output differs from the unsharded one:\n%s\nwant:\n%s", code, errOut, merged, whole)
+	}
+	if !strings.Contains(merged, `"id":`+bigID+`,`) {
+		t.Errorf("the 30-digit id was not kept: %s", merged)
+	}
+	// Overlapping shards and foreign lines are refused.
+	if _, errOut, code := runCLI(t, "", "merge", parts[0], parts[0]); code != exitFailed || !strings.Contains(errOut, "two records answer line 1") {
+		t.Errorf("a file given twice: exit %d, %s", code, errOut)
+	}
+	if _, errOut, code := runCLI(t, `{"lambda": "1"}`+"\n", "merge", "-"); code != exitFailed || !strings.Contains(errOut, `-:1: no "line" field`) {
+		t.Errorf("a record without line: exit %d, %s", code, errOut)
 	}
 }

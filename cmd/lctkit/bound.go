@@ -10,6 +10,7 @@ import (
 	"sort"
 	"strconv"
 	"strings"
+	"unicode/utf8"
 
 	"github.com/lctkit/lctkit/rlct"
 )
@@ -214,62 +215,130 @@ func statusWord(s rlct.Status) string {
 	return "NOT A BOUND"
 }
 
-// writeBound prints the plain-text answer.
+// writeBound prints the plain-text answer. With several points it prints
+// the minimum, then each point's answer under its own label.
 func writeBound(w io.Writer, r *rlct.Result, pen *rlct.PenaltyReport) {
 	fmt.Fprintf(w, "λ = %s   θ = %d   (%s)\n", r.Lambda.RatString(), r.Theta, statusWord(r.Status))
-	switch r.Status {
-	case rlct.UpperBound:
-		fmt.Fprintf(w, "  the true λ is at most %s, and if it equals %s the true θ is at least %d (θ is ordered together with λ)\n",
-			r.Lambda.RatString(), r.Lambda.RatString(), r.Theta)
-	case rlct.Uncertified:
-		fmt.Fprintf(w, "  %s\n", r.Headline())
-	}
-	if len(r.Locals) > 0 {
-		fmt.Fprintf(w, "  minimum over %d points; each point:\n", len(r.Locals))
+	writeStatusLine(w, r, "  ")
+	if len(r.Locals) == 0 {
+		if !allZero(r.Point) {
+			fmt.Fprintf(w, "  at the point %s (polynomials below are in the offsets w − w*)\n", pointString(r.Vars, r.Point))
+		}
+		writeDetails(w, r, "  ")
+	} else {
+		fmt.Fprintf(w, "  the minimum over %d points (the true learning coefficient is the least of the local ones):\n", len(r.Locals))
 		for i, l := range r.Locals {
-			fmt.Fprintf(w, "    %d. at %s: λ = %s, θ = %d (%s)\n", i+1, pointString(l.Vars, l.Point), l.Lambda.RatString(), l.Theta, statusWord(l.Status))
-		}
-	} else if !allZero(r.Point) {
-		fmt.Fprintf(w, "  at the point %s (polynomials below are in the offsets w − w*)\n", pointString(r.Vars, r.Point))
-	}
-	fmt.Fprintf(w, "  Newton distance t = %s along τ = (%s) in (%s)\n", r.Distance.RatString(), ratList(r.Weights), strings.Join(r.Vars, ", "))
-	pf := r.Principal
-	kind := "compact"
-	if !pf.Compact {
-		kind = "non-compact, rays " + strings.Join(pf.Rays, ", ")
-	}
-	fmt.Fprintf(w, "  principal face: dimension %d, codimension %d (%s), vertices %s\n", pf.Dim, pf.Codim, kind, vertexList(pf.Vertices))
-	fmt.Fprintf(w, "  face polynomial: %s\n", pf.Polynomial)
-	switch r.Status {
-	case rlct.Exact:
-		fmt.Fprintf(w, "  certificate: %s\n", certificateSummary(r.Certificate, r.Form))
-		if r.Truncation != nil {
-			fmt.Fprintf(w, "  truncation at degree %d: the omitted terms cannot change the answer\n", r.Truncation.Order)
-		}
-	case rlct.UpperBound:
-		fmt.Fprintln(w, "  This is an upper bound, not necessarily the learning coefficient, because:")
-	default:
-		fmt.Fprintln(w, "  This is not a bound: it may lie below the true learning coefficient, because:")
-	}
-	for _, reason := range r.Reasons {
-		fmt.Fprintf(w, "  - %s\n", reason)
-	}
-	if r.Status != rlct.Exact && r.Certificate != nil {
-		fmt.Fprintf(w, "  faces: %s\n", certificateSummary(r.Certificate, r.Form))
-	}
-	if len(r.Faces) > 0 {
-		fmt.Fprintf(w, "  compact faces (%d; * marks the principal face):\n", len(r.Faces))
-		for _, f := range r.Faces {
-			mark := " "
-			if f.Principal {
-				mark = "*"
+			mark := ""
+			if l.Lambda.Cmp(r.Lambda) == 0 && l.Theta == r.Theta {
+				mark = "   ← the minimum"
 			}
-			fmt.Fprintf(w, "   %s %s  %s  %s\n", mark, vertexList(f.Vertices), f.Polynomial, verdictText(f))
+			fmt.Fprintf(w, "  point %d at %s: λ = %s, θ = %d (%s)%s\n", i+1, pointString(l.Vars, l.Point), l.Lambda.RatString(), l.Theta, statusWord(l.Status), mark)
+		}
+		for i, l := range r.Locals {
+			fmt.Fprintf(w, "  point %d at %s (polynomials in the offsets w − w*):\n", i+1, pointString(l.Vars, l.Point))
+			writeStatusLine(w, l, "    ")
+			writeDetails(w, l, "    ")
+		}
+		if r.Status != rlct.Exact {
+			fmt.Fprintln(w, "  The minimum is not exact, because:")
+			for _, reason := range r.Reasons {
+				fmt.Fprintf(w, "  - %s\n", reason)
+			}
 		}
 	}
 	if pen != nil {
 		writePenaltyLines(w, pen, "    ")
 	}
+}
+
+// writeStatusLine says, under the headline, what a status that is not
+// exact claims.
+func writeStatusLine(w io.Writer, r *rlct.Result, indent string) {
+	switch r.Status {
+	case rlct.UpperBound:
+		fmt.Fprintf(w, "%sthe true λ is at most %s, and if it equals %s the true θ is at least %d (θ is ordered together with λ)\n",
+			indent, r.Lambda.RatString(), r.Lambda.RatString(), r.Theta)
+	case rlct.Uncertified:
+		fmt.Fprintf(w, "%s%s\n", indent, r.Headline())
+	}
+}
+
+// writeDetails prints the polyhedron, the certificate and the reasons of
+// one point's answer.
+func writeDetails(w io.Writer, r *rlct.Result, indent string) {
+	fmt.Fprintf(w, "%sNewton distance t = %s along τ = (%s) in (%s)\n", indent, r.Distance.RatString(), ratList(r.Weights), strings.Join(r.Vars, ", "))
+	pf := r.Principal
+	kind := "compact"
+	if !pf.Compact {
+		kind = "non-compact, rays " + strings.Join(pf.Rays, ", ")
+	}
+	fmt.Fprintf(w, "%sprincipal face: dimension %d, codimension %d (%s), vertices %s\n", indent, pf.Dim, pf.Codim, kind, shortVertexList(pf.Vertices))
+	fmt.Fprintf(w, "%sface polynomial: %s\n", indent, shortPolynomial(pf.Polynomial, pf.Terms))
+	switch r.Status {
+	case rlct.Exact:
+		fmt.Fprintf(w, "%scertificate: %s\n", indent, certificateSummary(r.Certificate, r.Form))
+		if r.Truncation != nil {
+			fmt.Fprintf(w, "%struncation at degree %d: the omitted terms cannot change the answer\n", indent, r.Truncation.Order)
+		}
+	case rlct.UpperBound:
+		fmt.Fprintf(w, "%sThis is an upper bound, not necessarily the learning coefficient, because:\n", indent)
+	default:
+		fmt.Fprintf(w, "%sThis is not a bound: it may lie below the true learning coefficient, because:\n", indent)
+	}
+	for _, reason := range r.Reasons {
+		fmt.Fprintf(w, "%s- %s\n", indent, reason)
+	}
+	if r.Status != rlct.Exact && r.Certificate != nil {
+		fmt.Fprintf(w, "%sfaces: %s\n", indent, certificateSummary(r.Certificate, r.Form))
+	}
+	if len(r.Faces) > 0 {
+		fmt.Fprintf(w, "%scompact faces (%d; * marks the principal face):\n", indent, len(r.Faces))
+		for _, f := range r.Faces {
+			mark := " "
+			if f.Principal {
+				mark = "*"
+			}
+			fmt.Fprintf(w, "%s %s %s  %s  %s\n", indent, mark, shortVertexList(f.Vertices), shortPolynomial(f.Polynomial, f.Terms), verdictText(f))
+		}
+	}
+}
+
+// Text output keeps lines readable: at most maxTextVertices vertices and
+// about maxTextPolynomial characters of a polynomial are shown, with a
+// count of the rest (the JSON output has everything).
+const (
+	maxTextVertices   = 12
+	maxTextPolynomial = 300
+)
+
+// shortVertexList writes vs, abbreviated after maxTextVertices vertices.
+func shortVertexList(vs [][]int) string {
+	if len(vs) <= maxTextVertices {
+		return vertexList(vs)
+	}
+	return fmt.Sprintf("%s … (%d vertices in all)", vertexList(vs[:maxTextVertices]), len(vs))
+}
+
+// shortPolynomial cuts a long polynomial at a term boundary (" + " or
+// " - ") near maxTextPolynomial characters and says how many terms it has.
+func shortPolynomial(p string, terms int) string {
+	if len(p) <= maxTextPolynomial {
+		return p
+	}
+	cut := maxTextPolynomial
+	for cut > 0 && !(p[cut] == ' ' && cut+1 < len(p) && (p[cut+1] == '+' || p[cut+1] == '-')) {
+		cut--
+	}
+	if cut == 0 {
+		cut = maxTextPolynomial
+		for cut < len(p) && !utf8.RuneStart(p[cut]) {
+			cut++
+		}
+	}
+	if terms > 0 {
+		return fmt.Sprintf("%s … (%d terms in all)", p[:cut], terms)
+	}
+	return p[:cut] + " …"
 }
 
 // writePenaltyLines prints the penalties, each marked when the pair is not

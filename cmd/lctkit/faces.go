@@ -171,7 +171,7 @@ func writeFacesTo(w io.Writer, d *rlct.Description) {
 			if f.Principal {
 				mark = "*"
 			}
-			fmt.Fprintf(tw, "  %s %s\t%s\t%s\n", mark, vertexList(f.Vertices), f.Polynomial, verdictText(f))
+			fmt.Fprintf(tw, "  %s %s\t%s\t%s\n", mark, shortVertexList(f.Vertices), shortPolynomial(f.Polynomial, f.Terms), verdictText(f))
 		}
 		tw.Flush()
 	}
@@ -182,9 +182,9 @@ func writeFacesTo(w io.Writer, d *rlct.Description) {
 		kind = "unbounded along " + strings.Join(pf.Rays, ", ")
 	}
 	fmt.Fprintf(w, "\nprincipal face: dimension %d, codimension %d = θ, %s, vertices %s, on %s\n",
-		pf.Dim, pf.Codim, kind, vertexList(pf.Vertices), strings.Replace(rlct.FormatInequality(d.Vars, pf.Normal, pf.RHS), ">=", "=", 1))
+		pf.Dim, pf.Codim, kind, shortVertexList(pf.Vertices), strings.Replace(rlct.FormatInequality(d.Vars, pf.Normal, pf.RHS), ">=", "=", 1))
 	if !pf.Compact {
-		fmt.Fprintf(w, "  face polynomial: %s\n", pf.Polynomial)
+		fmt.Fprintf(w, "  face polynomial: %s\n", shortPolynomial(pf.Polynomial, pf.Terms))
 	}
 	switch d.Status {
 	case rlct.UpperBound:

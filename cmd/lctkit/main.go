@@ -45,6 +45,7 @@ type cli struct {
 	Faces   facesCmd   `cmd:"" help:"Print the Newton polyhedron: vertices, facets, compact faces with their verdicts, the principal face."`
 	Draw    drawCmd    `cmd:"" help:"Draw the Newton polyhedron of K in 2 or 3 variables as an SVG picture."`
 	Batch   batchCmd   `cmd:"" help:"Bound many problems given as JSON lines, on all cores, answers in input order; shardable."`
+	Merge   mergeCmd   `cmd:"" help:"Merge the outputs of batch shards into one, sorted by line, every record kept byte for byte."`
 
 	Estimate estimateCmd `cmd:"" help:"Estimate λ and θ numerically (nested sampling; an estimate, not a proof) beside the Newton bound."`
 }

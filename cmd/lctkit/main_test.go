@@ -3,6 +3,7 @@ package main
 import (
 	"bytes"
 	"encoding/json"
+	"fmt"
 	"math"
 	"strings"
 	"testing"
@@ -188,11 +189,18 @@ func TestPenalty(t *testing.T) {
 		t.Fatalf("exit %d", code)
 	}
 	var rep struct {
+		Lambda   string    `json:"lambda"`
+		Theta    int       `json:"theta"`
+		N        []float64 `json:"n"`
+		Status   string    `json:"status"`
 		Singular []float64 `json:"singular"`
 		Regular  []float64 `json:"regular"`
 	}
 	if err := json.Unmarshal([]byte(out), &rep); err != nil {
 		t.Fatal(err)
+	}
+	if rep.Lambda != "3/4" || rep.Theta != 2 || len(rep.N) != 1 || rep.N[0] != 1000 || rep.Status != "exact" {
+		t.Errorf("the JSON does not restate its input: %s", out)
 	}
 	// λ log n − (θ−1) log log n at n = 1000 with λ = 3/4, θ = 2, and the BIC
 	// penalty (3/2) log n (Watanabe 2009; Schwarz 1978): by hand,
@@ -285,5 +293,62 @@ func TestLeadingMinus(t *testing.T) {
 	_, errOut, code := runCLI(t, "", "bound", "x^2", "--prior", "--json")
 	if code != exitUsage || !strings.Contains(errOut, "--prior") {
 		t.Errorf("--prior without a value: exit %d, stderr %s", code, errOut)
+	}
+}
+
+// With several points, each point's details come under its own label, and
+// the minimum is marked. x²(x−1)⁴ + y² is x² + y² + … at x = 0 (λ = 1) and
+// u⁴ + y² + … at x = 1 (λ = 1/4 + 1/2 = 3/4); worked by hand.
+func TestBoundSeveralPointsLabelled(t *testing.T) {
+	out, _, code := runCLI(t, "", "bound", "x^2*(x-1)^4 + y^2", "--at", "x=0", "--at", "x=1")
+	if code != exitOK {
+		t.Fatalf("exit %d", code)
+	}
+	for _, want := range []string{
+		"λ = 3/4   θ = 1   (exact)",
+		"point 2 at x=1,y=0: λ = 3/4, θ = 1 (exact)   ← the minimum",
+		"  point 1 at x=0,y=0 (polynomials in the offsets w − w*):\n    Newton distance t = 1",
+		"  point 2 at x=1,y=0 (polynomials in the offsets w − w*):\n    Newton distance t = 4/3",
+	} {
+		if !strings.Contains(out, want) {
+			t.Errorf("output lacks %q:\n%s", want, out)
+		}
+	}
+}
+
+// Long face polynomials and vertex lists are abbreviated in text, with the
+// full count; the JSON keeps all of them (up to its own limit).
+func TestTextAbbreviates(t *testing.T) {
+	// All 496 monomials x^2a·y^2b·z^2c with a + b + c = 30: the principal
+	// face is the whole triangle, with every term on it.
+	var terms []string
+	for a := 0; a <= 30; a++ {
+		for b := 0; a+b <= 30; b++ {
+			terms = append(terms, fmt.Sprintf("x^%d*y^%d*z^%d", 2*a, 2*b, 2*(30-a-b)))
+		}
+	}
+	k := strings.Join(terms, " + ")
+	out, _, code := runCLI(t, "", "bound", k)
+	if code != exitOK {
+		t.Fatalf("exit %d", code)
+	}
+	for _, line := range strings.Split(out, "\n") {
+		if len(line) > 600 {
+			t.Errorf("a line of %d bytes: %.120s…", len(line), line)
+		}
+	}
+	if !strings.Contains(out, "(496 terms in all)") {
+		t.Errorf("the face polynomial is not abbreviated with its count:\n%s", out)
+	}
+	js, _, _ := runCLI(t, "", "bound", k, "--json")
+	if !strings.Contains(js, `"terms":496`) {
+		t.Errorf("JSON lacks the term count: %.300s", js)
+	}
+	vs := make([][]int, 20)
+	for i := range vs {
+		vs[i] = []int{i, 20 - i}
+	}
+	if got := shortVertexList(vs); !strings.HasSuffix(got, "(19,1) (20,0)") && !strings.Contains(got, "… (20 vertices in all)") {
+		t.Errorf("shortVertexList = %q", got)
 	}
 }
