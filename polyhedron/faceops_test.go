@@ -888,3 +888,71 @@ func TestCompactFaceAtHuge(t *testing.T) {
 		}
 	}
 }
+
+// TestFaceOpsHugeExponents runs the face operations on instances scaled by
+// 2^59 (coordinates near 2^61, so nearly every int64 path overflows) and
+// compares with the unscaled instance: faces keep their vertex indices and
+// normal cones (common practice: P(K·A) = K·P(A)).
+func TestFaceOpsHugeExponents(t *testing.T) {
+	const K = 1 << 59
+	ctx := context.Background()
+	rng := rand.New(rand.NewPCG(101, 102))
+	for trial := 0; trial < 15; trial++ {
+		d := 2 + rng.IntN(3)
+		pts := randomPoints(rng, d, 3+rng.IntN(6), 3)
+		n0, err := New(d, pts)
+		if err != nil {
+			t.Fatal(err)
+		}
+		scaled := make([][]int, len(pts))
+		for k, p := range pts {
+			scaled[k] = make([]int, d)
+			for i, x := range p {
+				scaled[k][i] = x * K
+			}
+		}
+		n, err := New(d, scaled)
+		if err != nil {
+			t.Fatal(err)
+		}
+		e0 := make([]*big.Rat, d)
+		for i := range e0 {
+			e0[i] = new(big.Rat)
+		}
+		e0[0].SetInt64(1)
+		for j, v := range n.Vertices() {
+			f := &Face{Vertices: []int{j}}
+			want, err := n0.Covers(ctx, f)
+			if err != nil {
+				t.Fatal(err)
+			}
+			got, err := n.Covers(ctx, f)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if len(got) != len(want) {
+				t.Fatalf("trial %d vertex %d: %d covers, unscaled %d", trial, j, len(got), len(want))
+			}
+			for k := range got {
+				if !got[k].Equal(want[k]) {
+					t.Errorf("trial %d vertex %d: cover %v, unscaled %v", trial, j, got[k].Vertices, want[k].Vertices)
+				}
+				checkCompleteCompact(t, n, got[k])
+			}
+			x := make([]*big.Rat, d)
+			for i := range x {
+				x[i] = new(big.Rat).SetInt64(int64(v[i]))
+			}
+			if g, err := n.CompactFaceAt(ctx, x); err != nil || g == nil || !g.Equal(f) {
+				t.Errorf("trial %d: CompactFaceAt(vertex %d) = %v, %v", trial, j, g, err)
+			}
+			w, _, err := n0.NormalConeMin(ctx, f, ones(d), e0)
+			if err != nil {
+				t.Fatal(err)
+			}
+			if g, _, err := n.NormalConeMin(ctx, f, ones(d), e0); err != nil || g.Cmp(w) != 0 {
+				t.Errorf("trial %d vertex %d: NormalConeMin = %v, %v; unscaled %v", trial, j, g, err, w)
+			}
+		}
+	}
+}
