@@ -9,11 +9,11 @@ import (
 	"slices"
 )
 
-// ErrFace is returned by the face operations (Covers, NormalConeMin,
-// FacetsContaining) for a *Face that does not describe a face of P: nil,
-// vertex or ray indices out of range or not strictly ascending, vertices and
-// rays that are not exactly those of one face of P, or a wrong Dim; and for a
-// face that is not compact where a compact one is required.
+// ErrFace is returned by Covers and NormalConeMin for a *Face that does not
+// describe a face of P: nil, vertex or ray indices out of range or not
+// strictly ascending, vertices and rays that are not exactly those of one
+// face of P, or a wrong Dim; for a face that is not compact where a compact
+// one is required; and by FacetsContaining, which checks only the indices.
 var ErrFace = errors.New("polyhedron: not a face of the polyhedron")
 
 // Side returns the sign of f.Normal·x − f.RHS: −1, 0 or +1. For a point x
