@@ -2,7 +2,6 @@ package rlct
 
 import (
 	"context"
-	"errors"
 	"fmt"
 	"math/big"
 
@@ -36,20 +35,6 @@ const (
 // IsBound reports whether s certifies the pair as a bound on the true one
 // (Exact or UpperBound).
 func (s Status) IsBound() bool { return s == Exact || s == UpperBound }
-
-// Errors for input that has no learning coefficient to bound.
-var (
-	ErrZero        = errors.New("rlct: K is identically zero")
-	ErrNotVanish   = errors.New("rlct: K does not vanish at the point")
-	ErrNegative    = errors.New("rlct: K takes negative values near the point")
-	ErrPrior       = errors.New("rlct: prior exponent must be greater than -1")
-	ErrNoFunction  = errors.New("rlct: no function given (set K or Generators)")
-	ErrTwoForms    = errors.New("rlct: give K or Generators, not both")
-	ErrVariables   = errors.New("rlct: generators must share one variable list")
-	ErrDimension   = errors.New("rlct: length does not match the number of variables")
-	ErrNoVariables = errors.New("rlct: K has no variables")
-	ErrShiftSeries = errors.New("rlct: K is a power series truncated around the origin; its truncation cannot be moved to another point (write K in variables shifted to the point)")
-)
 
 // Problem is one question: bound the learning coefficient of K at a point
 // under a locally monomial prior.

@@ -149,3 +149,27 @@ func TestDeadlineEndsSearch(t *testing.T) {
 		t.Errorf("returned after %v, long after the deadline %v", elapsed, deadline)
 	}
 }
+
+// Every error about the input matches ErrInput, and nothing else does.
+func TestErrInputParent(t *testing.T) {
+	for _, s := range []Spec{
+		{K: "0*x"}, {K: "x^2+1"}, {K: "x^2-y^2"}, {K: "x^2", Prior: "x=-1"}, {},
+		{K: "x^2 +"}, {K: "x^2", Prior: "x"}, {K: "exp(x)-1", Order: 4, At: []string{"x=1"}},
+	} {
+		p, points, err := s.Problem()
+		if err == nil {
+			_, err = BoundAt(context.Background(), p, points, nil)
+		}
+		if err == nil || !errors.Is(err, ErrInput) {
+			t.Errorf("%+v: error %v does not match ErrInput", s, err)
+		}
+	}
+	if _, err := DecodeRecord([]byte(`{"k": 1}`)); !errors.Is(err, ErrInput) {
+		t.Errorf("record error %v does not match ErrInput", err)
+	}
+	ctx, cancel := context.WithCancel(context.Background())
+	cancel()
+	if _, err := Bound(ctx, mustProblem(t, Spec{K: "x^2"}), nil); err == nil || errors.Is(err, ErrInput) {
+		t.Errorf("a cancelled context gives %v, which must not be an input error", err)
+	}
+}

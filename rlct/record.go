@@ -12,7 +12,8 @@ import (
 )
 
 // ErrRecord is wrapped by the errors of DecodeRecord.
-var ErrRecord = errors.New("rlct: bad record")
+// It matches ErrInput.
+var ErrRecord error = &inputError{"rlct: bad record"}
 
 // Record is one problem of a JSON lines file, one JSON object per line, as
 // the batch command of lctkit reads them:

@@ -44,6 +44,9 @@ func (e *SpecError) Error() string { return e.Field + ": " + e.Err.Error() }
 // Unwrap returns the underlying error.
 func (e *SpecError) Unwrap() error { return e.Err }
 
+// Is reports that a SpecError is an input error (see ErrInput).
+func (e *SpecError) Is(target error) bool { return target == ErrInput }
+
 // Problem parses the spec. It returns the problem and the points (nil for
 // the origin alone); pass both to BoundAt.
 func (s *Spec) Problem() (*Problem, [][]*big.Rat, error) {
