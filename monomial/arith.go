@@ -539,21 +539,28 @@ type LimitError struct {
 	What  string  // what was being computed
 }
 
-// Error describes the refused computation and the limit in force.
+// Error describes the refused computation and the limit in force, naming
+// the field of Limits.
 func (e *LimitError) Error() string {
+	return "monomial: " + e.describe(e.What) + " (Limits." + e.Limit + ")"
+}
+
+// describe says that what was refused and why, without naming the limit's
+// field.
+func (e *LimitError) describe(what string) string {
 	switch e.Limit {
 	case "MaxExponent":
-		return fmt.Sprintf("monomial: %s: exponent %.0f exceeds the limit %d (Limits.MaxExponent)", e.What, e.Value, e.Max)
+		return fmt.Sprintf("%s: exponent %.0f exceeds the limit %d", what, e.Value, e.Max)
 	case "MaxTerms":
-		return fmt.Sprintf("monomial: %s would have up to %.3g terms, more than the limit %d (Limits.MaxTerms)", e.What, e.Value, e.Max)
+		return fmt.Sprintf("%s would have up to %.3g terms, more than the limit %d", what, e.Value, e.Max)
 	case "MaxBits":
-		return fmt.Sprintf("monomial: %s would have coefficients of about %.3g bits, more than the limit %d (Limits.MaxBits)", e.What, e.Value, e.Max)
+		return fmt.Sprintf("%s would have coefficients of about %.3g bits, more than the limit %d", what, e.Value, e.Max)
 	case "MaxWork":
-		return fmt.Sprintf("monomial: %s would take about %.3g units of work, more than the limit %d (Limits.MaxWork)", e.What, e.Value, e.Max)
+		return fmt.Sprintf("%s would take about %.3g units of work, more than the limit %d", what, e.Value, e.Max)
 	case "MaxOrder":
-		return fmt.Sprintf("monomial: %s: order %.0f exceeds the limit %d (Limits.MaxOrder)", e.What, e.Value, e.Max)
+		return fmt.Sprintf("%s: order %.0f exceeds the limit %d", what, e.Value, e.Max)
 	}
-	return fmt.Sprintf("monomial: %s exceeds %s = %d", e.What, e.Limit, e.Max)
+	return fmt.Sprintf("%s exceeds the limit %d", what, e.Max)
 }
 
 // Pow returns p^n for n >= 0 (p^0 = 1, also for p = 0). Before expanding it

@@ -60,6 +60,13 @@ type Expansion struct {
 type Error struct {
 	Offset, Line, Col int
 	Msg               string
+	// Setting names what would let the input through, when something
+	// would: "Order" when the expression needs a truncation order
+	// (Config.Order > 0), or the field of Limits that was exceeded
+	// ("MaxTerms", "MaxExponent", "MaxBits", "MaxWork", "MaxVars"). It is
+	// empty for errors in the text itself. Msg does not name the setting,
+	// so that a program can say in its own terms what to change.
+	Setting string
 }
 
 // Error returns "line:col: message".
@@ -248,7 +255,9 @@ func newSession(src string, cfg Config, list bool) (*session, error) {
 				id = int32(len(s.vars) + len(rest))
 				rest = append(rest, name)
 				if len(s.vars)+len(rest) > lim.MaxVars {
-					return nil, errAtTok(t, "more than %d variables (Limits.MaxVars)", lim.MaxVars)
+					e := errAtTok(t, "more than %d variables, the limit", lim.MaxVars)
+					e.Setting = "MaxVars"
+					return nil, e
 				}
 			}
 			seen.put(name, id)
@@ -389,6 +398,14 @@ func (s *session) errAt(t token, format string, args ...any) *Error {
 	return &Error{Offset: t.off, Line: t.line, Col: t.col, Msg: fmt.Sprintf(format, args...)}
 }
 
+// errSetting is errAt for an error that the named setting would lift (see
+// Error.Setting).
+func (s *session) errSetting(t token, setting, format string, args ...any) *Error {
+	e := s.errAt(t, format, args...)
+	e.Setting = setting
+	return e
+}
+
 func (s *session) newParser() *parser {
 	p := &parser{session: s, lx: newLexer(s.src, s.list)}
 	p.cur = p.lx.next()
@@ -406,7 +423,7 @@ func (p *parser) item() (*Expansion, *Error) {
 	case tEOF:
 	case tSemi:
 		if !p.list {
-			return nil, p.errAt(t, "expected end of input, found %s (use ParseList to read several expressions)", describe(p.src, t))
+			return nil, p.errAt(t, "expected end of input, found %s (only one expression is read here)", describe(p.src, t))
 		}
 	case tIdent, tNumber, tLParen:
 		return nil, p.errAt(t, "expected operator, found %s (write products with '*')", describe(p.src, t))
@@ -678,7 +695,7 @@ func (p *parser) call(name string, nameTok token) (value, *Error) {
 	whole := value{off: nameTok.off, end: p.tok().end}
 	p.advance()
 	if p.order == 0 {
-		return whole, p.errAt(nameTok, "%s is not a polynomial; give an order (Config.Order > 0) to expand it as a truncated power series", p.snippet(whole))
+		return whole, p.errSetting(nameTok, "Order", "%s is not a polynomial; it can only be expanded as a truncated power series, which needs a truncation order", p.snippet(whole))
 	}
 	c := arg.p.constCoef()
 	switch name {
@@ -722,7 +739,7 @@ func (p *parser) call(name string, nameTok token) (value, *Error) {
 func (p *parser) limitErr(err error, t token, v value) *Error {
 	switch {
 	case errors.Is(err, errTooMuchWork):
-		return p.errAt(t, "%s needs more work than the limit %d allows (Limits.MaxWork)", p.snippet(v), p.lim.MaxWork)
+		return p.errSetting(t, "MaxWork", "%s needs more work than the limit %d allows", p.snippet(v), p.lim.MaxWork)
 	case errors.Is(err, errExponentOverflow):
 		return p.errAt(t, "%s: exponents of 2^62 or more are not supported", p.snippet(v))
 	}
@@ -730,7 +747,7 @@ func (p *parser) limitErr(err error, t token, v value) *Error {
 }
 
 func (p *parser) tooMany(t token, v value) *Error {
-	return p.errAt(t, "%s expands to more than %d terms (Limits.MaxTerms)", p.snippet(v), p.lim.MaxTerms)
+	return p.errSetting(t, "MaxTerms", "%s expands to more than %d terms, the limit", p.snippet(v), p.lim.MaxTerms)
 }
 
 // multiply returns v·w: the whole product when both are exact, else (in
@@ -792,7 +809,7 @@ func (p *parser) divide(v, w value, op token) (value, *Error) {
 		return r, nil
 	}
 	if p.order == 0 {
-		return r, p.errAt(op, "division by %s, which is not constant, is not a polynomial; give an order (Config.Order > 0) to expand it as a truncated power series", p.snippet(w))
+		return r, p.errSetting(op, "Order", "division by %s, which is not constant, is not a polynomial; it can only be expanded as a truncated power series, which needs a truncation order", p.snippet(w))
 	}
 	if w.p.vanishesAtZero() {
 		return r, p.errAt(op, "division by %s, which vanishes at 0: the quotient has no Taylor series at 0", p.snippet(w))
@@ -818,7 +835,7 @@ func (p *parser) raise(base, ex value, op token) (value, *Error) {
 	}
 	if base.p.Len() > 1 || !e.IsInt() {
 		if e.Num().CmpAbs(big.NewInt(int64(p.lim.MaxExponent))) > 0 || e.Denom().Cmp(big.NewInt(int64(p.lim.MaxExponent))) > 0 {
-			return r, p.errAt(op, "exponent %s exceeds the limit %d (Limits.MaxExponent)", shorten(e.RatString()), p.lim.MaxExponent)
+			return r, p.errSetting(op, "MaxExponent", "exponent %s exceeds the limit %d", shorten(e.RatString()), p.lim.MaxExponent)
 		}
 	}
 	n := int(e.Num().Int64())
@@ -834,7 +851,7 @@ func (p *parser) raise(base, ex value, op token) (value, *Error) {
 		}
 		ln, ld := c.log2Parts()
 		if bitsEst := (ln + ld) * math.Abs(float64(n)); bitsEst > float64(p.lim.MaxBits) {
-			return r, p.errAt(op, "%s would have about %.3g bits, more than the limit %d (Limits.MaxBits)", p.snippet(r), bitsEst, p.lim.MaxBits)
+			return r, p.errSetting(op, "MaxBits", "%s would have about %.3g bits, more than the limit %d", p.snippet(r), bitsEst, p.lim.MaxBits)
 		}
 		v, ok := ratPow(c.ratView(), e)
 		if !ok {
@@ -855,7 +872,7 @@ func (p *parser) raise(base, ex value, op token) (value, *Error) {
 			if p.order == 0 {
 				var le *LimitError
 				if errors.As(perr, &le) {
-					return r, p.errAt(op, "%s", strings.TrimPrefix(strings.Replace(le.Error(), le.What, p.snippet(r), 1), "monomial: "))
+					return r, p.errSetting(op, le.Limit, "%s", le.describe(p.snippet(r)))
 				}
 				return r, p.limitErr(perr, op, r)
 			}
@@ -875,7 +892,7 @@ func (p *parser) raise(base, ex value, op token) (value, *Error) {
 		if !e.IsInt() {
 			kind = "fractional"
 		}
-		return r, p.errAt(op, "%s (a %s power) is not a polynomial; give an order (Config.Order > 0) to expand it as a truncated power series", p.snippet(r), kind)
+		return r, p.errSetting(op, "Order", "%s (a %s power) is not a polynomial; it can only be expanded as a truncated power series, which needs a truncation order", p.snippet(r), kind)
 	}
 	return p.seriesPower(base, e, r, op, "")
 }
@@ -907,7 +924,7 @@ func (p *parser) seriesPower(base value, e *big.Rat, whole value, at token, fn s
 		}
 	}
 	if float64(ce.Num().BitLen()+ce.Denom().BitLen()) > float64(p.lim.MaxBits) {
-		return whole, p.errAt(at, "%s would have coefficients of more than %d bits (Limits.MaxBits)", what, p.lim.MaxBits)
+		return whole, p.errSetting(at, "MaxBits", "%s would have coefficients of more than %d bits, the limit", what, p.lim.MaxBits)
 	}
 	u := base.p.withoutConstant().scale(c.inv())
 	k := p.order

@@ -92,7 +92,7 @@ var invalidCases = []struct {
 	{".", 0, "1:1: malformed number: '.' must be followed or preceded by digits"},
 	{"x $ y", 0, "1:3: unexpected character '$'"},
 	{"x + \xff", 0, "1:5: invalid UTF-8 encoding"},
-	{"x;y", 0, "1:2: expected end of input, found ';' (use ParseList to read several expressions)"},
+	{"x;y", 0, "1:2: expected end of input, found ';' (only one expression is read here)"},
 	{"x*", 0, "1:3: expected operand, found end of input"},
 	{"x^", 0, "1:3: expected operand, found end of input"},
 	{"*x", 0, "1:1: expected operand, found '*'"},
@@ -104,10 +104,10 @@ var invalidCases = []struct {
 	{"0^-1", 0, "1:2: division by zero: 0^-1"},
 	{"2^(1/2)", 0, "1:2: 2^(1/2) is not rational"},
 	{"(-4)^(1/2)", 0, "1:5: (-4)^(1/2) is not rational"},
-	{"x^-1", 0, "1:2: x^-1 (a negative power) is not a polynomial; give an order (Config.Order > 0) to expand it as a truncated power series"},
-	{"x^(1/2)", 0, "1:2: x^(1/2) (a fractional power) is not a polynomial; give an order (Config.Order > 0) to expand it as a truncated power series"},
-	{"x/(1+x)", 0, "1:2: division by (1+x), which is not constant, is not a polynomial; give an order (Config.Order > 0) to expand it as a truncated power series"},
-	{"1 + exp(x)", 0, "1:5: exp(x) is not a polynomial; give an order (Config.Order > 0) to expand it as a truncated power series"},
+	{"x^-1", 0, "1:2: x^-1 (a negative power) is not a polynomial; it can only be expanded as a truncated power series, which needs a truncation order {Order}"},
+	{"x^(1/2)", 0, "1:2: x^(1/2) (a fractional power) is not a polynomial; it can only be expanded as a truncated power series, which needs a truncation order {Order}"},
+	{"x/(1+x)", 0, "1:2: division by (1+x), which is not constant, is not a polynomial; it can only be expanded as a truncated power series, which needs a truncation order {Order}"},
+	{"1 + exp(x)", 0, "1:5: exp(x) is not a polynomial; it can only be expanded as a truncated power series, which needs a truncation order {Order}"},
 	{"f(x)", 0, "1:1: unknown function f"},
 	{"exp", 0, "1:4: expected '(' after function name exp, found end of input"},
 	{"exp + 1", 0, "1:5: expected '(' after function name exp, found '+'"},
@@ -126,12 +126,12 @@ var invalidCases = []struct {
 	{"(x+y)^-2", 3, "1:6: (x+y)^-2: the base vanishes at 0, so this power has no Taylor series at 0"},
 	{"1/x", 3, "1:2: division by x, which vanishes at 0: the quotient has no Taylor series at 0"},
 	{"1/(x^5)", 3, "1:2: division by (x^5), which vanishes at 0: the quotient has no Taylor series at 0"},
-	{"(x+y+z)^100000", 0, "1:8: exponent 100000 exceeds the limit 10000 (Limits.MaxExponent)"},
-	{"(x+y+z)^5000", 0, "1:8: (x+y+z)^5000 would have up to 1.25e+07 terms, more than the limit 2000000 (Limits.MaxTerms)"},
-	{"(1+x)^(1/100001)", 3, "1:6: exponent 1/100001 exceeds the limit 10000 (Limits.MaxExponent)"},
+	{"(x+y+z)^100000", 0, "1:8: exponent 100000 exceeds the limit 10000 {MaxExponent}"},
+	{"(x+y+z)^5000", 0, "1:8: (x+y+z)^5000 would have up to 1.25e+07 terms, more than the limit 2000000 {MaxTerms}"},
+	{"(1+x)^(1/100001)", 3, "1:6: exponent 1/100001 exceeds the limit 10000 {MaxExponent}"},
 	{"1e1000000000", 0, "1:1: number 1e1000000000 is too large: its decimal exponent exceeds 10000"},
 	{"1e10001", 0, "1:1: number 1e10001 is too large: its decimal exponent exceeds 10000"},
-	{"(1e300)^10000", 0, "1:8: (1e300)^10000 would have about 9.97e+06 bits, more than the limit 1000000 (Limits.MaxBits)"},
+	{"(1e300)^10000", 0, "1:8: (1e300)^10000 would have about 9.97e+06 bits, more than the limit 1000000 {MaxBits}"},
 	// Positions count lines and runes.
 	{"x +\n  # é\n  y +", 0, "3:6: expected operand, found end of input"},
 	{"é", 0, "1:1: unexpected character 'é'"},
@@ -150,8 +150,12 @@ func TestParseInvalid(t *testing.T) {
 		if !errors.As(err, &pe) {
 			t.Errorf("Parse(%q): error %v is not an *Error", tc.src, err)
 		}
-		if err.Error() != tc.err {
-			t.Errorf("Parse(%q):\n got  %s\n want %s", tc.src, err, tc.err)
+		want, setting := splitSetting(tc.err)
+		if err.Error() != want {
+			t.Errorf("Parse(%q):\n got  %s\n want %s", tc.src, err, want)
+		}
+		if pe != nil && pe.Setting != setting {
+			t.Errorf("Parse(%q): Setting %q, want %q", tc.src, pe.Setting, setting)
 		}
 		if pe != nil && (pe.Offset < 0 || pe.Offset > len(tc.src)) {
 			t.Errorf("Parse(%q): offset %d out of range", tc.src, pe.Offset)
@@ -193,7 +197,7 @@ func TestResourceGuards(t *testing.T) {
 	}
 	// Term limit while multiplying in series mode.
 	_, err := Parse("exp(a+b+c+d+e+f+g+h)", Config{Order: 12, Limits: Limits{MaxTerms: 1000}})
-	if err == nil || !strings.Contains(err.Error(), "more than 1000 terms (Limits.MaxTerms)") {
+	if err == nil || !strings.Contains(err.Error(), "more than 1000 terms, the limit") {
 		t.Errorf("series over the term limit: err = %v", err)
 	}
 	_, err = Parse("(a+b+c+d)*(e+f+g+h)*(i+j+k+l)", Config{Limits: Limits{MaxTerms: 20}})
@@ -376,7 +380,7 @@ func TestManyVariables(t *testing.T) {
 		t.Errorf("sum of 1000 variables: %d terms, %d variables", e.Poly.Len(), e.Poly.NumVars())
 	}
 	_, err = Parse(b.String()+" + extra", Config{})
-	if err == nil || err.Error() != "1:"+strconv.Itoa(b.Len()+4)+": more than 1000 variables (Limits.MaxVars)" {
+	if err == nil || err.Error() != "1:"+strconv.Itoa(b.Len()+4)+": more than 1000 variables, the limit" {
 		t.Errorf("1001 variables: err = %v", err)
 	}
 }
@@ -390,15 +394,17 @@ func TestWorkLimit(t *testing.T) {
 		lim   Limits
 		want  string
 	}{
-		{"(1+x)^10000", 0, Limits{}, "(Limits.MaxWork)"},
-		{"exp(x+y+z)", 1000, Limits{MaxTerms: 1 << 30}, "exp(x+y+z) needs more work than the limit 500000000 allows (Limits.MaxWork)"},
-		{"(a+b+c)*(d+e+f)", 0, Limits{MaxWork: 5}, "1:8: (a+b+c)*(d+e+f) needs more work than the limit 5 allows (Limits.MaxWork)"},
-		{"tanh(x*y+z)", 12, Limits{MaxWork: 100}, "(Limits.MaxWork)"},
+		{"(1+x)^10000", 0, Limits{}, "units of work, more than the limit {MaxWork}"},
+		{"exp(x+y+z)", 1000, Limits{MaxTerms: 1 << 30}, "exp(x+y+z) needs more work than the limit 500000000 allows {MaxWork}"},
+		{"(a+b+c)*(d+e+f)", 0, Limits{MaxWork: 5}, "1:8: (a+b+c)*(d+e+f) needs more work than the limit 5 allows {MaxWork}"},
+		{"tanh(x*y+z)", 12, Limits{MaxWork: 100}, "needs more work than the limit 100 allows {MaxWork}"},
 	} {
 		start := time.Now()
 		_, err := Parse(tc.src, Config{Order: tc.order, Limits: tc.lim})
-		if err == nil || !strings.Contains(err.Error(), tc.want) {
-			t.Errorf("Parse(%q): err = %v, want it to contain %q", tc.src, err, tc.want)
+		want, setting := splitSetting(tc.want)
+		var pe *Error
+		if err == nil || !strings.Contains(err.Error(), want) || !errors.As(err, &pe) || pe.Setting != setting {
+			t.Errorf("Parse(%q): err = %v, want it to contain %q and name the setting %s", tc.src, err, want, setting)
 		}
 		if d := time.Since(start); d > 5*time.Second {
 			t.Logf("Parse(%q) took %v before refusing", tc.src, d) // reported, not asserted
@@ -448,4 +454,13 @@ func TestHugeExponents(t *testing.T) {
 	if got := e.Poly.Compile().Eval([]float64{-1, 3}); got != 3 {
 		t.Errorf("compiled (-1)^(10^12)*3 = %v", got)
 	}
+}
+
+// splitSetting splits an expected message "msg {Setting}" of the tables
+// into the message and the expected Error.Setting ("" when absent).
+func splitSetting(s string) (msg, setting string) {
+	if i := strings.LastIndex(s, " {"); i >= 0 && strings.HasSuffix(s, "}") {
+		return s[:i], s[i+2 : len(s)-1]
+	}
+	return s, ""
 }

@@ -326,7 +326,11 @@ func (c *batchCmd) solve(it batchItem, id *json.RawMessage) *rlct.Report {
 		return &rlct.Report{Error: "timed out after " + c.Timeout.String()}
 	}
 	if err != nil {
-		return &rlct.Report{Error: err.Error()}
+		msg := err.Error()
+		if hint := settingHint(err, recordHints); hint != "" {
+			msg += " (" + hint + ")"
+		}
+		return &rlct.Report{Error: msg}
 	}
 	rep := r.Report()
 	if c.Brief {

@@ -12,6 +12,7 @@ import (
 	"strings"
 	"unicode/utf8"
 
+	"github.com/lctkit/lctkit/monomial"
 	"github.com/lctkit/lctkit/rlct"
 )
 
@@ -30,6 +31,22 @@ type problemFlags struct {
 	Vars  string   `help:"Variables that come first, in this order; names K does not use still count as dimensions." placeholder:"x,y,z"`
 
 	MaxFaces int `name:"max-faces" help:"Most compact faces the certificate examines before it stops with an upper bound (default 20000)." placeholder:"N"`
+	MaxTerms int `name:"max-terms" help:"Most terms an expansion may have (default 2000000)." placeholder:"N"`
+}
+
+// Validate checks the flags' ranges before Run.
+func (f *problemFlags) Validate() error {
+	switch {
+	case f.Order < 0:
+		return fmt.Errorf("--order must not be negative")
+	case f.Order > monomial.DefaultMaxOrder:
+		return fmt.Errorf("--order %d is above the largest order lctkit expands, %d", f.Order, monomial.DefaultMaxOrder)
+	case f.MaxFaces < 0:
+		return fmt.Errorf("--max-faces must not be negative")
+	case f.MaxTerms < 0:
+		return fmt.Errorf("--max-terms must not be negative")
+	}
+	return nil
 }
 
 // options returns the library options the flags ask for.
@@ -44,7 +61,7 @@ func (f *problemFlags) spec(expr string, e *env) (*rlct.Spec, string, error) {
 	if err != nil {
 		return nil, "", badFlag("--vars", err)
 	}
-	s := &rlct.Spec{Prior: f.Prior, At: f.At, Order: f.Order, Vars: vars}
+	s := &rlct.Spec{Prior: f.Prior, At: f.At, Order: f.Order, Vars: vars, Limits: monomial.Limits{MaxTerms: f.MaxTerms}}
 	note := ""
 	switch {
 	case expr != "" && f.SOS != "":

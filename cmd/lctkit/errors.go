@@ -15,6 +15,9 @@ import (
 // column.
 func printError(w io.Writer, label, src string, err error) {
 	fmt.Fprintf(w, "lctkit: %s\n", err)
+	if hint := settingHint(err, flagHints); hint != "" {
+		fmt.Fprintf(w, "  (%s)\n", hint)
+	}
 	var pe *monomial.Error
 	if !errors.As(err, &pe) || src == "" || pe.Line < 1 {
 		return
@@ -46,4 +49,31 @@ func (e usageError) Unwrap() error { return e.err }
 // badFlag reports a bad value of the named flag ("--n").
 func badFlag(flag string, err error) error {
 	return usageError{fmt.Errorf("%s: %w", flag, err)}
+}
+
+// Hints that name what the user can change for an error that a setting
+// would lift (monomial.Error.Setting): on the command line a flag, in a
+// batch record a field.
+var (
+	flagHints = map[string]string{
+		"Order":    "give --order D to expand it as a power series truncated at total degree D",
+		"MaxTerms": "raise --max-terms to allow larger expansions",
+	}
+	recordHints = map[string]string{
+		"Order":    `set "order" in the record to expand it as a power series truncated at that total degree`,
+		"MaxTerms": "raise batch's --max-terms to allow larger expansions",
+	}
+)
+
+// settingHint returns the hint for err from hints, a note that a built-in
+// limit was reached, or "" when no setting is involved.
+func settingHint(err error, hints map[string]string) string {
+	var pe *monomial.Error
+	if !errors.As(err, &pe) || pe.Setting == "" {
+		return ""
+	}
+	if h, ok := hints[pe.Setting]; ok {
+		return h
+	}
+	return "this is a built-in limit of lctkit"
 }

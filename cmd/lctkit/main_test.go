@@ -352,3 +352,31 @@ func TestTextAbbreviates(t *testing.T) {
 		t.Errorf("shortVertexList = %q", got)
 	}
 }
+
+// Messages name the flag or record field to change, never a library
+// identifier.
+func TestMessagesNameFlags(t *testing.T) {
+	_, errOut, _ := runCLI(t, "", "bound", "sin(x)^2 + y^2")
+	if !strings.Contains(errOut, "--order") {
+		t.Errorf("no hint at --order: %s", errOut)
+	}
+	_, errOut, _ = runCLI(t, "", "bound", "(x+y+z)^300", "--max-terms", "100")
+	if !strings.Contains(errOut, "--max-terms") {
+		t.Errorf("no hint at --max-terms: %s", errOut)
+	}
+	out, _, _ := runCLI(t, `{"k": "sin(x)^2"}`+"\n", "batch")
+	if !strings.Contains(out, `set \"order\" in the record`) {
+		t.Errorf("no hint at the record's order field: %s", out)
+	}
+	for _, args := range [][]string{
+		{"bound", "sin(x)^2 + y^2"}, {"bound", "x;y"}, {"bound", "x^2", "--order", "5000"},
+		{"bound", "(x+y+z)^300", "--max-terms", "100"}, {"bound", "x^(2^40)*(x+y)^2"},
+	} {
+		_, errOut, _ := runCLI(t, "", args...)
+		for _, id := range []string{"Config.", "Limits.", "ParseList", "Options."} {
+			if strings.Contains(errOut, id) {
+				t.Errorf("%v: the message names %s: %s", args, id, errOut)
+			}
+		}
+	}
+}
