@@ -87,7 +87,8 @@
 //
 // # Numerical estimates
 //
-// EstimateThreshold gives an independent numerical estimate of λ and θ by
-// nested sampling, with standard errors. It is an estimate, not a proof: it
-// is labelled as such everywhere, and it never changes a Status.
+// Package github.com/lctkit/lctkit/rlct/estimate gives an independent
+// numerical estimate of λ and θ by nested sampling, with standard errors. It
+// is an estimate, not a proof: it is labelled as such everywhere, and it
+// never changes a Status. This package does not depend on it.
 package rlct

@@ -15,13 +15,21 @@ import (
 
 	"github.com/lctkit/lctkit/monomial"
 	"github.com/lctkit/lctkit/rlct"
+	"github.com/lctkit/lctkit/rlct/estimate"
 )
 
 // estimateCmd estimates λ and θ numerically and compares them with the
 // Newton bound.
 type estimateCmd struct {
 	Expr string `arg:"" optional:"" help:"K(w), an expression vanishing at the point; - reads it from standard input. Without it the bundled example is estimated."`
-	problemFlags
+	// The flags of bound, except that --at takes one point.
+	Prior    string    `help:"Prior exponents near the point: x=1,y=1/2 means a prior proportional to |x|^1·|y|^(1/2); unnamed variables have 0 (uniform)." placeholder:"x=1,y=1/2"`
+	At       pointFlag `help:"The point w* (default the origin); unnamed coordinates are 0. One point only: estimate each point by itself." placeholder:"x=0,y=1/3"`
+	SOS      string    `help:"Give K as a sum of squares instead of EXPR: generators separated by ';' stand for K = g1^2 + g2^2 + …; - reads them from standard input." placeholder:"g1; g2"`
+	Order    int       `help:"Truncate power series at this total degree; needed for exp, log, sin, … and division by non-constants." placeholder:"D"`
+	Vars     string    `help:"Variables that come first, in this order; names K does not use still count as dimensions." placeholder:"x,y,z"`
+	MaxFaces int       `name:"max-faces" help:"Most compact faces the certificate of the Newton bound examines before it stops with an upper bound (default 20000)." placeholder:"N"`
+
 	Box     boxFlag `help:"The box sampled, as offsets from the point: R (meaning -R:R) or A:B for every variable, or per variable x=0:1,y=0.5; unnamed variables get -1:1." placeholder:"x=0:1,y=-1:1"`
 	Live    int     `help:"Live points per run (default 200; at least 10)." placeholder:"N"`
 	Runs    int     `help:"Independent runs, merged for the estimate and left out one at a time for the error bars (default 16; at least 2)." placeholder:"R"`
@@ -47,9 +55,14 @@ bias: check that the points follow the fitted curve (--svg), and raise --start
 or shrink --box when they do not. Use it to see whether a degenerate bound is
 probably strict, not to certify a value.
 
-The box is in offsets from the point (--at). The estimate is for the whole
-box: if K vanishes elsewhere in it too, it is the smallest λ over those zeros,
-so keep the box small enough to hold no worse zero than the point. The prior of --prior is used for
+The box is in offsets from the point (--at, one point). The estimate is for the
+whole box: if K vanishes elsewhere in it too, it is the smallest λ over those
+zeros, so keep the box small enough to hold no worse zero than the point.
+Zeros that the sampler meets away from the point, apart from the zero set
+through it, are reported with their place. θ̂ below 1, which a multiplicity
+cannot be, is flagged. When the Newton value is certified exact, an estimate
+far from it is reported as a bias of the estimate, never as doubt about the
+value. The prior of --prior is used for
 coordinates where the point is 0; elsewhere it is smooth and positive near the
 point and is sampled as uniform, as in the bound. A K given with --sos is
 evaluated as the sum of the squared generators. A series cut at --order is
@@ -62,6 +75,7 @@ Examples:
   lctkit estimate 'x^2*y^2'                          # consistent with λ = 1/2
   lctkit estimate '(x-y)^2' --svg curve.svg          # the bound 1 is strict
   lctkit estimate 'x^4 + y^6' --box x=0:1,y=0.5 --runs 32 --seed 7
+  lctkit estimate 'x^2*(x-1)^2' --box=-0.5:1.5       # reports the zero at x = 1
   lctkit estimate --sos 's*g1 - 1; s*g2' --at s=1,g1=1 --box=-0.5:0.5 --json`
 }
 
@@ -76,12 +90,13 @@ func (c *estimateCmd) Run(e *env) error {
 }
 
 func (c *estimateCmd) run(e *env) error {
-	s, note, err := c.spec(c.Expr, e)
+	flags := problemFlags{Prior: c.Prior, SOS: c.SOS, Order: c.Order, Vars: c.Vars, MaxFaces: c.MaxFaces}
+	if c.At.set {
+		flags.At = []string{c.At.value}
+	}
+	s, note, err := flags.spec(c.Expr, e)
 	if err != nil {
 		return err
-	}
-	if len(s.At) > 1 {
-		return fmt.Errorf("estimate samples one point at a time; got %d --at points, so estimate each separately", len(s.At))
 	}
 	p, points, err := s.Problem()
 	if err != nil {
@@ -103,11 +118,11 @@ func (c *estimateCmd) run(e *env) error {
 
 	// The bound first: it is quick, and it refuses a K that has no learning
 	// coefficient at the point.
-	bound, berr := rlct.Bound(context.Background(), p, nil)
+	bound, berr := rlct.Bound(context.Background(), p, flags.options())
 	if berr != nil && boundRefuses(berr) {
 		return berr
 	}
-	prior, err := rlct.EstimatePrior(p)
+	prior, err := estimate.Prior(p)
 	if err != nil {
 		return err
 	}
@@ -120,14 +135,14 @@ func (c *estimateCmd) run(e *env) error {
 	}
 
 	prog := newProgress(e)
-	est, err := rlct.EstimateProblem(context.Background(), p, rlct.EstimateOptions{
+	est, err := estimate.Problem(context.Background(), p, estimate.Options{
 		Lower: lower, Upper: upper, Prior: prior,
 		Live: c.Live, Runs: c.Runs, Workers: c.Workers, Seed: c.Seed,
 		Start: c.Start, Decades: c.Decades, Progress: prog.update,
 	})
 	prog.finish()
 	if err != nil {
-		var kv *rlct.KValueError
+		var kv *estimate.KValueError
 		if errors.As(err, &kv) {
 			return negativeKError(kv, vars, p.Point)
 		}
@@ -141,7 +156,7 @@ func (c *estimateCmd) run(e *env) error {
 	}
 	if bound != nil {
 		l, _ := bound.Lambda.Float64()
-		v := est.Compare(l)
+		v := est.Compare(l, bound.Status)
 		res.verdict = &v
 	}
 	if c.SVG != "" {
@@ -176,7 +191,7 @@ func boundRefuses(err error) bool {
 
 // negativeKError names the point where K was found negative, both as offsets
 // and in the original coordinates.
-func negativeKError(kv *rlct.KValueError, vars []string, point []*big.Rat) error {
+func negativeKError(kv *estimate.KValueError, vars []string, point []*big.Rat) error {
 	offsets := make([]string, len(vars))
 	at := make([]string, len(vars))
 	for i, v := range vars {
@@ -200,6 +215,27 @@ func negativeKError(kv *rlct.KValueError, vars []string, point []*big.Rat) error
 		msg += "; K must be nonnegative on the whole box (shrink --box, or check K)"
 	}
 	return errors.New(msg)
+}
+
+// pointFlag is the value of --at for estimate: one point, which may be
+// given once.
+type pointFlag struct {
+	value string
+	set   bool
+}
+
+// Decode implements kong.MapperValue. A second --at is an error, since the
+// sampler studies one point at a time.
+func (p *pointFlag) Decode(ctx *kong.DecodeContext) error {
+	var v string
+	if err := ctx.Scan.PopValueInto("at", &v); err != nil {
+		return err
+	}
+	if p.set {
+		return fmt.Errorf("given twice (%q and %q): estimate samples one point at a time, so estimate each point by itself", p.value, v)
+	}
+	p.value, p.set = v, true
+	return nil
 }
 
 // boxFlag is the value of --box. Unlike a plain string flag it accepts a
@@ -329,8 +365,7 @@ func parseRange(s string) (a, b float64, err error) {
 }
 
 // progress prints a progress line on a terminal for runs longer than a
-// second. Its update method is called by EstimateThreshold, never
-// concurrently.
+// second. Its update method is called by estimate.Run, never concurrently.
 type progress struct {
 	w     io.Writer
 	start time.Time

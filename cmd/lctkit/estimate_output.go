@@ -9,6 +9,7 @@ import (
 	"strings"
 
 	"github.com/lctkit/lctkit/rlct"
+	"github.com/lctkit/lctkit/rlct/estimate"
 )
 
 // estimateResult is everything the estimate command prints, as text, JSON
@@ -19,11 +20,11 @@ type estimateResult struct {
 	point        []*big.Rat // nil for the origin
 	lower, upper []float64
 	prior        []float64 // as sampled, in the translated coordinates
-	est          *rlct.Estimate
+	est          *estimate.Result
 	seed         uint64
 	bound        *rlct.Result // nil when it could not be computed
 	boundErr     error
-	verdict      *rlct.Verdict // nil without a bound
+	verdict      *estimate.Comparison // nil without a bound
 	truncated    bool
 	order        int
 	unusedPrior  []string // variables whose --prior exponent is not used
@@ -47,7 +48,12 @@ func (r *estimateResult) verdictText() string {
 	return r.verdict.Text
 }
 
-// notes lists remarks that qualify the verdict.
+// maxZeroNotes is the number of other zeros described in the notes; the
+// JSON lists them all.
+const maxZeroNotes = 5
+
+// notes lists remarks that qualify the estimate and the verdict: a truncated
+// series, θ̂ below 1, other zeros of K in the box.
 func (r *estimateResult) notes() []string {
 	var out []string
 	if r.truncated {
@@ -59,8 +65,83 @@ func (r *estimateResult) notes() []string {
 		}
 		out = append(out, n)
 	}
-	if r.verdict != nil && !r.verdict.Consistent && r.bound.Status == rlct.Exact {
-		out = append(out, "the Newton value is certified exact here, so the difference is a bias of the estimate, not a strict bound")
+	if n := r.thetaNote(); n != "" {
+		out = append(out, n)
+	}
+	for i, z := range r.est.OtherZeros {
+		if i == maxZeroNotes {
+			out = append(out, fmt.Sprintf("K is near 0 in %d more places away from the point (see --json)", len(r.est.OtherZeros)-maxZeroNotes))
+			break
+		}
+		out = append(out, r.zeroNote(z))
+	}
+	return out
+}
+
+// thetaNote says what θ̂ < 1 means, or is empty when θ̂ ≥ 1.
+func (r *estimateResult) thetaNote() string {
+	e := r.est
+	if !(e.Theta < 1) {
+		return ""
+	}
+	n := fmt.Sprintf("θ̂ = %s is below 1, which a multiplicity cannot be (θ ≥ 1)", plusMinus(e.Theta, e.ThetaSE))
+	if e.Theta+3*e.ThetaSE >= 1 {
+		return n + "; it is within 3 standard errors of 1, so read it as θ = 1"
+	}
+	return n + ", by more than 3 standard errors: the fit is biased and θ̂ means nothing here " +
+		"(check that the points follow the fit; raise --start or shrink --box)"
+}
+
+// zeroNote describes another zero of K met by the sampler, in the
+// coordinates of K.
+func (r *estimateResult) zeroNote(z estimate.Zero) string {
+	n := fmt.Sprintf("K is near 0 also away from the point, at %s (%.0f%% of the final live points, K ≤ %.2g there): "+
+		"the estimate is for all the zeros of K in the box, the smallest λ among them, not for the point alone; shrink --box to leave it out",
+		r.zeroPlace(z), 100*z.Share, z.MaxK)
+	if z.Share > 0.5 {
+		n += "; most of the final live points are there, so the estimate describes that zero rather than the point"
+	}
+	return n
+}
+
+// zeroPlace writes where a zero lies, in the coordinates of K: a value per
+// variable, or the range its points cover where that exceeds 1% of the box.
+func (r *estimateResult) zeroPlace(z estimate.Zero) string {
+	at, lo, hi := r.shifted(z.At), r.shifted(z.Lower), r.shifted(z.Upper)
+	parts := make([]string, len(r.vars))
+	for i, v := range r.vars {
+		width := r.upper[i] - r.lower[i]
+		if z.Upper[i]-z.Lower[i] > 0.01*width {
+			parts[i] = fmt.Sprintf("%s ∈ [%s, %s]", v, roundTo(lo[i], width), roundTo(hi[i], width))
+		} else {
+			parts[i] = fmt.Sprintf("%s ≈ %s", v, roundTo(at[i], width))
+		}
+	}
+	return strings.Join(parts, ", ")
+}
+
+// roundTo writes x to a thousandth of width, without trailing zeros.
+func roundTo(x, width float64) string {
+	dec := max(0, int(-math.Floor(math.Log10(width/1000))))
+	t := strconv.FormatFloat(x, 'f', dec, 64)
+	if strings.Contains(t, ".") {
+		t = strings.TrimRight(strings.TrimRight(t, "0"), ".")
+	}
+	if t == "-0" {
+		t = "0"
+	}
+	return t
+}
+
+// shifted returns offsets from the point in the coordinates of K.
+func (r *estimateResult) shifted(offsets []float64) []float64 {
+	out := make([]float64, len(offsets))
+	for i, x := range offsets {
+		out[i] = x
+		if r.point != nil {
+			f, _ := r.point[i].Float64()
+			out[i] += f
+		}
 	}
 	return out
 }
@@ -117,7 +198,7 @@ func (r *estimateResult) write(w io.Writer) {
 
 // tableDecimals gives the decimals for the table: enough for two
 // significant digits of the smallest standard error, between 2 and 6.
-func tableDecimals(pts []rlct.EstimatePoint) int {
+func tableDecimals(pts []estimate.CurvePoint) int {
 	small := math.Inf(1)
 	for _, p := range pts {
 		if p.SE > 0 && p.SE < small {
@@ -205,6 +286,8 @@ type estimateJSON struct {
 	Consistent  *bool               `json:"consistent,omitempty"`
 	Sigmas      *jsonFloat          `json:"sigmas,omitempty"`
 	Notes       []string            `json:"notes,omitempty"`
+	ThetaBelow1 bool                `json:"theta_below_one,omitempty"`
+	OtherZeros  []otherZeroJSON     `json:"other_zeros,omitempty"`
 	Variables   []string            `json:"variables"`
 	BoxLower    []jsonFloat         `json:"box_lower"`
 	BoxUpper    []jsonFloat         `json:"box_upper"`
@@ -213,6 +296,17 @@ type estimateJSON struct {
 	Runs        int                 `json:"runs"`
 	Seed        uint64              `json:"seed"`
 	Evaluations int64               `json:"evaluations"`
+}
+
+// otherZeroJSON is another zero of K met by the sampler (estimate.Zero),
+// in the coordinates of K, and as offsets from the point.
+type otherZeroJSON struct {
+	At      []jsonFloat `json:"at"`
+	Offsets []jsonFloat `json:"offsets"`
+	Lower   []jsonFloat `json:"lower"`
+	Upper   []jsonFloat `json:"upper"`
+	MaxK    jsonFloat   `json:"k_max"`
+	Share   jsonFloat   `json:"share"`
 }
 
 // report returns the JSON form.
@@ -228,6 +322,14 @@ func (r *estimateResult) report() *estimateJSON {
 	}
 	for _, p := range e.Points {
 		out.Points = append(out.Points, estimatePointJSON{jsonFloat(p.N), jsonFloat(p.Y), jsonFloat(p.SE), jsonFloat(e.Curve(p.N))})
+	}
+	out.ThetaBelow1 = e.Theta < 1
+	for _, z := range e.OtherZeros {
+		out.OtherZeros = append(out.OtherZeros, otherZeroJSON{
+			At: jsonFloats(r.shifted(z.At)), Offsets: jsonFloats(z.At),
+			Lower: jsonFloats(r.shifted(z.Lower)), Upper: jsonFloats(r.shifted(z.Upper)),
+			MaxK: jsonFloat(z.MaxK), Share: jsonFloat(z.Share),
+		})
 	}
 	if r.bound != nil {
 		out.Bound = r.bound.Report()

@@ -16,6 +16,7 @@ import (
 	"time"
 
 	"github.com/lctkit/lctkit/rlct"
+	"github.com/lctkit/lctkit/rlct/estimate"
 )
 
 // quick keeps the in-process estimates fast: 50 live points × 8 runs over 6
@@ -39,7 +40,7 @@ func estimateJSONOf(t *testing.T, args ...string) map[string]any {
 // TestEstimateAgainstKnownValues runs the estimator on K with a published
 // learning coefficient and checks the estimate and the verdict. The
 // tolerances are 4 reported standard errors plus the fit bias documented
-// under rlct.EstimateThreshold (λ 0.006 and θ 0.1 for (x−y)²; for x²y² the
+// under estimate.Run (λ 0.006 and θ 0.1 for (x−y)²; for x²y² the
 // offset b is exact, and 0.01 and 0.1 are allowed for the terms the model
 // neglects).
 func TestEstimateAgainstKnownValues(t *testing.T) {
@@ -54,7 +55,7 @@ func TestEstimateAgainstKnownValues(t *testing.T) {
 		// x²y²: λ = 1/2, θ = 2 (monomial thresholds; Arnold, Gusein-Zade &
 		// Varchenko 1988, Singularities of Differentiable Maps Vol. II); the
 		// Newton value is exact.
-		{"x^2*y^2", []string{"x^2*y^2"}, 0.5, 2, 0.01, 0.1, "1/2", "exact", "consistent with the bound"},
+		{"x^2*y^2", []string{"x^2*y^2"}, 0.5, 2, 0.01, 0.1, "1/2", "exact", "consistent with the exact value"},
 		// (x−y)²: Newton bound 1, but λ = 1/2, θ = 1 after u = x − y
 		// (coordinate invariance of λ; Watanabe 2009, Algebraic Geometry and
 		// Statistical Learning Theory).
@@ -120,7 +121,9 @@ func TestEstimateText(t *testing.T) {
 	points := rep["points"].([]any)
 	rows := 0
 	for _, line := range strings.Split(out, "\n") {
-		if strings.Contains(line, " ± ") && !strings.Contains(line, "λ̂") && !strings.Contains(line, "n·E_n[K]") {
+		// A row starts with the value of n.
+		f := strings.Fields(line)
+		if _, err := strconv.ParseFloat(strings.TrimSpace(line[:min(len(line), 12)]), 64); err == nil && len(f) == 5 && f[2] == "±" {
 			rows++
 		}
 	}
@@ -128,8 +131,8 @@ func TestEstimateText(t *testing.T) {
 		t.Errorf("%d table rows, %d points in the JSON", rows, len(points))
 	}
 	// The verdict is the library's wording for the same numbers.
-	e := &rlct.Estimate{Lambda: rep["lambda_hat"].(float64), LambdaSE: rep["lambda_se"].(float64)}
-	if want := "verdict: " + e.Compare(1).Text; !strings.Contains(out, want) {
+	e := &estimate.Result{Lambda: rep["lambda_hat"].(float64), LambdaSE: rep["lambda_se"].(float64)}
+	if want := "verdict: " + e.Compare(1, rlct.UpperBound).Text; !strings.Contains(out, want) {
 		t.Errorf("output lacks %q", want)
 	}
 }
@@ -150,7 +153,7 @@ func TestEstimateJSONFields(t *testing.T) {
 		t.Errorf("estimate = %q", rep["estimate"])
 	}
 	points := rep["points"].([]any)
-	// 6 decades at 4 points per decade (rlct.EstimateOptions.Decades).
+	// 6 decades at 4 points per decade (estimate.Options.Decades).
 	if len(points) != 25 {
 		t.Errorf("%d points, want 25", len(points))
 	}
@@ -278,10 +281,10 @@ func checkAffine(t *testing.T, what string, u, v []float64, sign float64) {
 // TestEstimatePlotWithoutBound draws the plot and text of an estimate whose
 // bound could not be computed.
 func TestEstimatePlotWithoutBound(t *testing.T) {
-	e := &rlct.Estimate{Lambda: 0.75, LambdaSE: 0.01, Theta: 1.1, ThetaSE: 0.1, Offset: 2, Live: 20, Runs: 4}
+	e := &estimate.Result{Lambda: 0.75, LambdaSE: 0.01, Theta: 1.1, ThetaSE: 0.1, Offset: 2, Live: 20, Runs: 4}
 	for i := range 9 {
 		n := math.Pow(10, 2+float64(i)/2)
-		e.Points = append(e.Points, rlct.EstimatePoint{N: n, Y: e.Curve(n) + 0.01*float64(i%2), SE: 0.01})
+		e.Points = append(e.Points, estimate.CurvePoint{N: n, Y: e.Curve(n) + 0.01*float64(i%2), SE: 0.01})
 	}
 	r := &estimateResult{title: "K = a*b + c^2", vars: []string{"a", "b", "c"}, lower: []float64{-1, -1, -1},
 		upper: []float64{1, 1, 1}, prior: []float64{0, 0, 0}, est: e, seed: 1, boundErr: errors.New("polyhedron: work limit exceeded")}
@@ -309,8 +312,7 @@ func TestEstimatePlotWithoutBound(t *testing.T) {
 	}
 }
 
-// TestEstimateNotes checks the notes on a truncated series and on an exact
-// bound that the estimate contradicts.
+// TestEstimateNotes checks the note on a truncated series.
 func TestEstimateNotes(t *testing.T) {
 	out, errOut, code := runCLI(t, "", append([]string{"estimate", "x^2*(1-cos(y))", "--order", "6"}, quick...)...)
 	if code != exitOK {
@@ -319,13 +321,204 @@ func TestEstimateNotes(t *testing.T) {
 	if !strings.Contains(out, "power series cut at degree 6") || !strings.Contains(out, "proxy") {
 		t.Errorf("no note on the truncated series:\n%s", out)
 	}
+}
+
+// TestEstimateThetaBelowOne checks the flag on θ̂ < 1, which a multiplicity
+// cannot be: the note in the text and the field in the JSON, with the two
+// readings (within 3 standard errors of 1, or further).
+func TestEstimateThetaBelowOne(t *testing.T) {
+	tests := []struct {
+		theta, se float64
+		want      string // "" for no note
+	}{
+		{1.2, 0.1, ""},
+		{1, 0.1, ""},
+		{0.84, 0.45, "θ̂ = 0.84 ± 0.45 is below 1, which a multiplicity cannot be (θ ≥ 1); it is within 3 standard errors of 1, so read it as θ = 1"},
+		{0.7, 0.1, "θ̂ = 0.70 ± 0.10 is below 1, which a multiplicity cannot be (θ ≥ 1); it is within 3 standard errors of 1"},
+		{0.3, 0.1, "θ̂ = 0.30 ± 0.10 is below 1, which a multiplicity cannot be (θ ≥ 1), by more than 3 standard errors: the fit is biased and θ̂ means nothing here"},
+	}
+	for _, tc := range tests {
+		r := &estimateResult{title: "K = x^2", vars: []string{"x"}, lower: []float64{-1}, upper: []float64{1}, prior: []float64{0},
+			est: &estimate.Result{Lambda: 0.5, LambdaSE: 0.01, Theta: tc.theta, ThetaSE: tc.se, Live: 10, Runs: 2}, boundErr: errors.New("none")}
+		var b bytes.Buffer
+		r.write(&b)
+		text := strings.Join(strings.Fields(b.String()), " ") // undo the wrapping
+		data, err := json.Marshal(r.report())
+		if err != nil {
+			t.Fatal(err)
+		}
+		var rep map[string]any
+		if err := json.Unmarshal(data, &rep); err != nil {
+			t.Fatal(err)
+		}
+		flag, _ := rep["theta_below_one"].(bool)
+		if tc.want == "" {
+			if strings.Contains(text, "below 1") || flag {
+				t.Errorf("θ̂ = %g: flagged\n%s\n%s", tc.theta, text, data)
+			}
+			continue
+		}
+		if !strings.Contains(text, "note: "+tc.want) || !flag || !strings.Contains(fmt.Sprint(rep["notes"]), tc.want) {
+			t.Errorf("θ̂ = %g ± %g: want the note %q and theta_below_one in\n%s\n%s", tc.theta, tc.se, tc.want, text, data)
+		}
+	}
+	// A real run whose θ̂ comes out below 1 (x²(x−1)² has θ = 1; seed 3
+	// gives θ̂ < 1 with the quick sizes): text and JSON flag it alike.
+	args := append([]string{"estimate", "x^2*(x-1)^2", "--box=-0.5:1.5"}, quick...)
+	out, _, code := runCLI(t, "", args...)
+	rep := estimateJSONOf(t, args[1:]...)
+	if code != exitOK {
+		t.Fatalf("exit %d", code)
+	}
+	th := rep["theta_hat"].(float64)
+	if !(th < 1) {
+		t.Fatalf("θ̂ = %g; this check needs a run with θ̂ < 1 (choose another seed)", th)
+	}
+	if rep["theta_below_one"] != true || !strings.Contains(out, "which a multiplicity cannot be") {
+		t.Errorf("θ̂ = %g is not flagged:\n%s", th, out)
+	}
+}
+
+// TestEstimateExactVerdict checks that the verdict against a Newton value
+// certified exact never calls it strict: an estimate far below it is called
+// biased. x²(x−1)⁴ at 0 has the exact Newton value λ = 1/2 (one variable:
+// the only compact face is the vertex x², Varchenko 1976), but on the box
+// [−1/2, 3/2] the zero at x = 1, where λ = 1/4 (u⁴ for u = x − 1), dominates,
+// so the estimate lies far below 1/2.
+func TestEstimateExactVerdict(t *testing.T) {
+	args := append([]string{"estimate", "--sos", "x*(x-1)^2", "--box=-0.5:1.5"}, quick...)
+	out, errOut, code := runCLI(t, "", args...)
+	if code != exitOK {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	text := strings.Join(strings.Fields(out), " ")
+	for _, want := range []string{
+		"Newton bound: λ = 1/2 (0.5) θ = 1 (exact)",
+		"verdict: below the exact value by",
+		"the value is certified, so the estimate is biased low here",
+		"K is near 0 also away from the point, at x ≈ 1",
+	} {
+		if !strings.Contains(text, want) {
+			t.Errorf("output lacks %q:\n%s", want, out)
+		}
+	}
+	if strings.Contains(out, "strict") {
+		t.Errorf("an exact value is called strict:\n%s", out)
+	}
+	rep := estimateJSONOf(t, args[1:]...)
+	if rep["consistent"] != false || !strings.Contains(rep["verdict"].(string), "biased low") {
+		t.Errorf("JSON verdict %v, consistent %v", rep["verdict"], rep["consistent"])
+	}
+	// The same wording for every exact value, whatever the estimate.
 	bound, err := rlct.Bound(context.Background(), mustProblem(t, "x^2"), nil)
 	if err != nil {
 		t.Fatal(err)
 	}
-	r := &estimateResult{bound: bound, verdict: &rlct.Verdict{Consistent: false}}
-	if n := strings.Join(r.notes(), " "); !strings.Contains(n, "bias of the estimate") {
-		t.Errorf("notes %q", n)
+	for _, lambda := range []float64{0.1, 0.45, 0.5, 0.55, 0.9} {
+		e := &estimate.Result{Lambda: lambda, LambdaSE: 0.01}
+		v := e.Compare(0.5, bound.Status)
+		r := &estimateResult{est: e, bound: bound, verdict: &v}
+		all := r.verdictText() + strings.Join(r.notes(), " ")
+		if strings.Contains(all, "strict") || (v.Consistent != (lambda == 0.5)) {
+			t.Errorf("λ̂ = %g against the exact 1/2: %q (consistent %v)", lambda, all, v.Consistent)
+		}
+	}
+}
+
+// TestEstimateOtherZero checks the report of another zero of K in the box:
+// K = x²(x−1)² vanishes at 0 and at 1 (both λ = 1/2), and the box
+// [−1/2, 3/2] holds both; also at the point x = 1 with the box [−3/2, 1/2],
+// where the other zero is x = 0, an offset of −1. Zero sets through the
+// point, like the line x = y of (x−y)², are not other zeros.
+func TestEstimateOtherZero(t *testing.T) {
+	tests := []struct {
+		name    string
+		args    []string
+		at, off float64 // the other zero in x and as an offset; NaN: none
+	}{
+		{"origin", []string{"x^2*(x-1)^2", "--box=-0.5:1.5"}, 1, 1},
+		{"at x = 1", []string{"x^2*(x-1)^2", "--at", "x=1", "--box=-1.5:0.5"}, 0, -1},
+		{"with a second variable", []string{"x^2*(x-1)^2 + y^2", "--box", "x=-0.5:1.5,y=1"}, 1, 1},
+		{"line through the point", []string{"(x-y)^2"}, math.NaN(), math.NaN()},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			args := append(append([]string{"estimate"}, tc.args...), quick...)
+			out, errOut, code := runCLI(t, "", args...)
+			if code != exitOK {
+				t.Fatalf("exit %d: %s", code, errOut)
+			}
+			rep := estimateJSONOf(t, args[1:]...)
+			zeros, _ := rep["other_zeros"].([]any)
+			if math.IsNaN(tc.at) {
+				if len(zeros) != 0 || strings.Contains(out, "away from the point") {
+					t.Errorf("other zeros reported: %v\n%s", zeros, out)
+				}
+				return
+			}
+			if len(zeros) != 1 {
+				t.Fatalf("other zeros %v, want one", zeros)
+			}
+			z := zeros[0].(map[string]any)
+			at := z["at"].([]any)[0].(float64)
+			off := z["offsets"].([]any)[0].(float64)
+			// The final points hold K far below its median, within 1e−3 of
+			// the zero (observed: 1e−6).
+			if math.Abs(at-tc.at) > 1e-3 || math.Abs(off-tc.off) > 1e-3 {
+				t.Errorf("other zero at x = %g (offset %g), want %g (%g)", at, off, tc.at, tc.off)
+			}
+			if s := z["share"].(float64); !(s > 0 && s < 1) {
+				t.Errorf("share %g", s)
+			}
+			text := strings.Join(strings.Fields(out), " ")
+			if want := fmt.Sprintf("K is near 0 also away from the point, at x ≈ %g", tc.at); !strings.Contains(text, want) {
+				t.Errorf("output lacks %q:\n%s", want, out)
+			}
+			if !strings.Contains(text, "shrink --box to leave it out") || !strings.Contains(fmt.Sprint(rep["notes"]), "away from the point") {
+				t.Errorf("the note on the other zero is missing:\n%s", out)
+			}
+		})
+	}
+}
+
+// TestEstimateHelp checks that the help of estimate offers one --at point,
+// while that of bound (which takes several) says they may be repeated, and
+// that a second --at is refused as a usage error.
+func TestEstimateHelp(t *testing.T) {
+	atLine := func(cmd string) string {
+		out, _, code := runCLI(t, "", cmd, "--help")
+		if code != exitOK {
+			t.Fatalf("%s --help: exit %d", cmd, code)
+		}
+		// The flag's line and its continuation lines.
+		lines := strings.Split(out, "\n")
+		for i, l := range lines {
+			if strings.HasPrefix(strings.TrimSpace(l), "--at=") {
+				j := i + 1
+				for j < len(lines) && strings.HasPrefix(lines[j], "                 ") {
+					j++
+				}
+				return strings.Join(strings.Fields(strings.Join(lines[i:j], " ")), " ")
+			}
+		}
+		t.Fatalf("%s --help has no --at:\n%s", cmd, out)
+		return ""
+	}
+	est, bound := atLine("estimate"), atLine("bound")
+	if strings.Contains(est, "Repeat") || strings.Contains(est, "several points") || !strings.Contains(est, "One point only") {
+		t.Errorf("estimate --help: %q", est)
+	}
+	if !strings.Contains(bound, "Repeat for several points") {
+		t.Errorf("bound --help: %q", bound)
+	}
+	_, errOut, code := runCLI(t, "", "estimate", "x^2", "--at", "x=0", "--at", "x=1")
+	if code != exitUsage || !strings.Contains(errOut, `given twice ("x=0" and "x=1")`) {
+		t.Errorf("two --at: exit %d, %q", code, errOut)
+	}
+	// One --at is read as the point.
+	out, errOut, code := runCLI(t, "", "estimate", "(x-1)^2", "--at", "x=1", "--live", "10", "--runs", "2")
+	if code != exitOK || !strings.Contains(out, "K = (x-1)^2 at x=1") {
+		t.Errorf("one --at: exit %d, %s%s", code, out, errOut)
 	}
 }
 
@@ -357,7 +550,7 @@ func TestEstimateErrors(t *testing.T) {
 		{[]string{"x^2*(1-2*x)+y^2"}, exitFailed, "K is negative at a sampled point: K(x="},
 		{[]string{"x^2+y^2+1"}, exitFailed, "K does not vanish at the point"},
 		{[]string{"x^3+y^2"}, exitFailed, "K takes negative values near the point"},
-		{[]string{"x^2+y^2", "--at", "x=0", "--at", "x=1"}, exitFailed, "one point at a time"},
+		{[]string{"x^2+y^2", "--at", "x=0", "--at", "x=1"}, exitUsage, "one point at a time"},
 		{[]string{"x^2+y^2", "--live", "5"}, exitFailed, "need at least 10 live points"},
 		{[]string{"x^2+y^2", "--box"}, exitUsage, "expected box value"},
 		{[]string{"x^2+y^2", "--live", "many"}, exitUsage, "--live"},

@@ -1,21 +1,6 @@
-// Numerical estimates of the learning coefficient λ and its multiplicity θ by
-// nested sampling, used to cross-check the exact Newton-polyhedron results.
-//
-// The quantity estimated is the asymptotic behaviour of the local zeta integral
-//
-//	Z(n) = ∫_W exp(−n·K(w)) φ(w) dw ≈ C·n^(−λ)·(log n)^(θ−1)   (n → ∞)
-//
-// on a box W with the monomial prior φ(w) = ∏|w_i|^(h_i) (Watanabe 2009,
-// Algebraic Geometry and Statistical Learning Theory, Cambridge University
-// Press; from memory). Its logarithmic derivative is the curve
-//
-//	y(n) := n·E_n[K] = −d log Z / d log n,
-//
-// where E_n is the expectation under the density ∝ exp(−nK)·φ. The estimator
-// computes y(n) over several decades of n from nested-sampling runs and fits
-// the asymptotic form of that curve; see EstimateThreshold.
+// The options, the result and its comparison with a Newton value, and Run.
 
-package rlct
+package estimate
 
 import (
 	"context"
@@ -23,7 +8,10 @@ import (
 	"fmt"
 	"math"
 	"runtime"
+	"slices"
 	"strings"
+
+	"github.com/lctkit/lctkit/rlct"
 )
 
 // Evaluator evaluates K at a float64 point (for numerical estimates only).
@@ -34,9 +22,9 @@ type Evaluator interface {
 	NumVars() int
 }
 
-// EstimateOptions configures EstimateThreshold. The zero value of every field
+// Options configures Run. The zero value of every field
 // except Lower and Upper selects a documented default.
-type EstimateOptions struct {
+type Options struct {
 	// Lower and Upper give the box W, per variable, in the translated
 	// coordinates in which the point under study is the origin. Usually
 	// Lower[i] < 0 < Upper[i], but a box with the origin on its boundary (or
@@ -63,13 +51,14 @@ type EstimateOptions struct {
 	// runtime.GOMAXPROCS(0)). The result does not depend on it.
 	Workers int
 
-	// Seed is the master seed; run r uses a random stream derived from
-	// (Seed, r), so equal seeds give identical results.
+	// Seed is the master seed: run r draws from a xoshiro256++ stream
+	// (gonum/mathext/prng) seeded with the r-th output of a SplitMix64
+	// generator seeded with Seed, so equal seeds give identical results.
 	Seed uint64
 
 	// Start and Decades place the grid of n on which y(n) is computed and
 	// fitted: it runs from n·Scale = 10^Start to 10^(Start+Decades), where
-	// Scale is the median of K under the prior; see EstimateThreshold.
+	// Scale is the median of K under the prior; see Run.
 	// Start defaults to 2 (otherwise it must lie in (0, 6]); Decades to 6
 	// (and must lie in [1, 10]). A larger Start lessens the bias from terms
 	// of K beyond its leading ones, at the price of larger error bars for θ.
@@ -94,18 +83,20 @@ type EstimateOptions struct {
 	Progress func(done, total int)
 }
 
-// EstimatePoint is one point of the curve y(n) = n·E_n[K] with its jackknife
+// CurvePoint is one point of the curve y(n) = n·E_n[K] with its jackknife
 // standard error.
-type EstimatePoint struct {
+type CurvePoint struct {
 	N, Y, SE float64
 }
 
-// Estimate is the result of EstimateThreshold: numerical estimates of the
-// learning coefficient λ and its multiplicity θ, with standard errors, and the
-// data behind them. All numbers are statistical estimates, not exact values.
-type Estimate struct {
+// Result is the outcome of Run: numerical estimates of the learning
+// coefficient λ and its multiplicity θ, with standard errors, and the data
+// behind them. All numbers are statistical estimates, not exact values.
+type Result struct {
 	// Lambda and Theta are the fitted λ and θ, with jackknife standard
-	// errors over the independent runs.
+	// errors over the independent runs. Theta can come out below 1, which
+	// a multiplicity cannot be (θ ≥ 1): such a value says only that the
+	// fit is biased (within its error bar of 1, read it as θ = 1).
 	Lambda, LambdaSE float64
 	Theta, ThetaSE   float64
 
@@ -114,15 +105,14 @@ type Estimate struct {
 	Offset float64
 
 	// Points is the curve y(n) on the fitted grid, in increasing n.
-	Points []EstimatePoint
+	Points []CurvePoint
 
 	// Scale is the median of K under the prior (over the initial live
 	// points of all runs); the grid of n is laid out in units of 1/Scale.
 	Scale float64
 
 	// Top is the largest K among the initial live points: an estimate of
-	// the largest K on the box, which sets the offset b (see
-	// EstimateThreshold).
+	// the largest K on the box, which sets the offset b (see Run).
 	Top float64
 
 	// Depth is the mean, over runs, of −log X at the end of the run, where
@@ -134,61 +124,132 @@ type Estimate struct {
 
 	// Evaluations is the total number of evaluations of K.
 	Evaluations int64
+
+	// OtherZeros lists the places away from the origin where the runs
+	// ended with K near 0 and that are not linked to the origin (see Zero),
+	// the largest share first. They count in the estimate as much as the
+	// origin does: it is for all the zeros of K in the box.
+	OtherZeros []Zero
+}
+
+// Zero is a group of final live points, away from the origin, where K is
+// near 0: another zero of K in the box that the sampler met. Coordinates are
+// those of the box (offsets from the point under study).
+//
+// The final live points of all runs lie where K is smallest. They are linked
+// into groups along the edges of their Euclidean minimum spanning tree, in
+// coordinates where the box is the unit cube, with the origin (or the point
+// of the box nearest to it) as one more node. An edge links its ends when K,
+// evaluated at 7 evenly spaced points of the straight segment, stays at or
+// below 1/n at the low end of the grid of n (10^−Start times Scale): over the
+// whole grid the posterior sees two groups with a higher K between them as
+// separate. A group without the origin is a Zero. A zero set that runs
+// through the origin, such as the line x = y for K = (x−y)², is no Zero even
+// where it reaches far from the origin, although it counts in the estimate
+// too. Two zeros with K below that level all along the segment between them
+// count as one; a curved zero set that the final points sample too sparsely
+// could be split into several groups. At most 4096 final points are grouped
+// (an evenly spaced subset in run order beyond that).
+type Zero struct {
+	// At is the point of the group with the smallest K.
+	At []float64
+	// Lower and Upper bound the points of the group in each coordinate.
+	Lower, Upper []float64
+	// MaxK is the largest K among the points of the group.
+	MaxK float64
+	// Share is the fraction of the final live points in the group.
+	Share float64
 }
 
 // Curve returns the fitted curve λ − (θ−1)/(log n + b) at n.
-func (e *Estimate) Curve(n float64) float64 {
-	return e.Lambda - (e.Theta-1)/(math.Log(n)+e.Offset)
+func (r *Result) Curve(n float64) float64 {
+	return r.Lambda - (r.Theta-1)/(math.Log(n)+r.Offset)
 }
 
-// Verdict compares an estimate with a bound on λ; see Estimate.Compare.
-type Verdict struct {
-	// Bound is the λ it was compared with.
-	Bound float64
-	// Sigmas is (Bound − λ̂)/se: how many standard errors the estimate lies
-	// below the bound (negative when it lies above).
+// Comparison sets an estimate beside a Newton value of λ; see
+// Result.Compare.
+type Comparison struct {
+	// Lambda is the Newton value compared with, and Status its status.
+	Lambda float64
+	Status rlct.Status
+	// Sigmas is (Lambda − λ̂)/se: how many standard errors the estimate
+	// lies below the value (negative when it lies above).
 	Sigmas float64
-	// Consistent reports whether the estimate is within 3 standard errors of
-	// the bound or above it.
+	// Consistent reports whether the estimate agrees with the value being
+	// the learning coefficient, as far as the status allows: for an exact
+	// value, within 3 standard errors of it; for an upper bound, not more
+	// than 3 standard errors below it; otherwise within 3 standard errors.
 	Consistent bool
-	// Text is the verdict in words.
+	// Text says the same in words.
 	Text string
 }
 
-// Compare gives a plain verdict on the estimate against an upper bound
-// boundLambda on λ, such as the Newton-polyhedron bound, which is exact when K
-// is nondegenerate. The estimate is "consistent with the bound" when
-// λ̂ ≥ boundLambda − 3·se; otherwise it lies below the bound by k standard
-// errors and the bound is probably strict. An estimate more than 3 standard
-// errors above an upper bound is also flagged, since it suggests that the
-// curve y(n) is not yet in its asymptotic regime (or that the bound is wrong).
-// The threshold of 3 standard errors is common practice; it does not account
-// for the systematic errors listed in the EstimateThreshold documentation.
-func (e *Estimate) Compare(boundLambda float64) Verdict {
-	v := Verdict{Bound: boundLambda}
-	if e.LambdaSE > 0 {
-		v.Sigmas = (boundLambda - e.Lambda) / e.LambdaSE
-	} else if boundLambda > e.Lambda {
-		v.Sigmas = math.Inf(1)
-	} else if boundLambda < e.Lambda {
-		v.Sigmas = math.Inf(-1)
-	}
+// Compare sets the estimate beside the Newton value lambda of λ with the
+// given status, as rlct.Bound returns them, and says what the difference
+// means. Three standard errors is the threshold (common practice); it does
+// not account for the systematic errors listed under Run.
+//
+//   - rlct.Exact: the value is certified, so an estimate more than 3 standard
+//     errors away from it is biased (not yet asymptotic, or another zero of
+//     K in the box counts too); it never calls the value into doubt.
+//   - rlct.UpperBound: an estimate more than 3 standard errors below the
+//     bound suggests that the bound is strict; one more than 3 standard
+//     errors above it is still consistent, but the curve y(n) is probably
+//     not yet asymptotic.
+//   - any other status (rlct.Uncertified): the value bounds nothing, and the
+//     text says only where the estimate lies.
+func (r *Result) Compare(lambda float64, status rlct.Status) Comparison {
+	c := Comparison{Lambda: lambda, Status: status}
 	switch {
-	case v.Sigmas > 3:
-		v.Text = fmt.Sprintf("below the bound by %.1f standard errors: the bound is probably strict here", v.Sigmas)
-	case v.Sigmas < -3:
-		v.Consistent = true
-		v.Text = fmt.Sprintf("consistent with the bound, but above it by %.1f standard errors: "+
-			"the estimate is probably not yet asymptotic", -v.Sigmas)
-	default:
-		v.Consistent = true
-		v.Text = "consistent with the bound"
+	case r.LambdaSE > 0:
+		c.Sigmas = (lambda - r.Lambda) / r.LambdaSE
+	case lambda > r.Lambda:
+		c.Sigmas = math.Inf(1)
+	case lambda < r.Lambda:
+		c.Sigmas = math.Inf(-1)
 	}
-	return v
+	below, above := c.Sigmas > 3, c.Sigmas < -3
+	switch status {
+	case rlct.Exact:
+		c.Consistent = !below && !above
+		switch {
+		case below:
+			c.Text = fmt.Sprintf("below the exact value by %.1f standard errors: the value is certified, "+
+				"so the estimate is biased low here (not yet asymptotic, or another zero in the box)", c.Sigmas)
+		case above:
+			c.Text = fmt.Sprintf("above the exact value by %.1f standard errors: the value is certified, "+
+				"so the estimate is biased high here (probably not yet asymptotic)", -c.Sigmas)
+		default:
+			c.Text = "consistent with the exact value"
+		}
+	case rlct.UpperBound:
+		c.Consistent = !below
+		switch {
+		case below:
+			c.Text = fmt.Sprintf("below the bound by %.1f standard errors: the bound is probably strict here", c.Sigmas)
+		case above:
+			c.Text = fmt.Sprintf("consistent with the bound, but above it by %.1f standard errors: "+
+				"the estimate is probably not yet asymptotic", -c.Sigmas)
+		default:
+			c.Text = "consistent with the bound"
+		}
+	default:
+		c.Consistent = !below && !above
+		const notBound = "the Newton value is not certified, so it bounds nothing"
+		switch {
+		case below:
+			c.Text = fmt.Sprintf("below the Newton value by %.1f standard errors; %s", c.Sigmas, notBound)
+		case above:
+			c.Text = fmt.Sprintf("above the Newton value by %.1f standard errors; %s", -c.Sigmas, notBound)
+		default:
+			c.Text = "close to the Newton value; " + notBound
+		}
+	}
+	return c
 }
 
 // KValueError reports a point at which the evaluator returned a value of K
-// that is negative (beyond EstimateOptions.RoundOff), NaN or infinite.
+// that is negative (beyond Options.RoundOff), NaN or infinite.
 type KValueError struct {
 	Point []float64 // the point w, in the translated coordinates
 	Value float64   // K(w)
@@ -206,18 +267,18 @@ func (e *KValueError) Error() string {
 	if math.IsNaN(e.Value) || math.IsInf(e.Value, 0) {
 		what = "not finite"
 	}
-	return fmt.Sprintf("rlct: K(%s) = %g is %s; K must be a nonnegative function", b.String(), e.Value, what)
+	return fmt.Sprintf("estimate: K(%s) = %g is %s; K must be a nonnegative function", b.String(), e.Value, what)
 }
 
-// ErrNoProgress is returned by EstimateThreshold when a run cannot push K
+// ErrNoProgress is returned by Run when a run cannot push K
 // below its current level: K is constant on a set of positive prior mass.
-var ErrNoProgress = errors.New("rlct: K is constant on a set of positive prior mass; nested sampling cannot proceed")
+var ErrNoProgress = errors.New("estimate: K is constant on a set of positive prior mass; nested sampling cannot proceed")
 
-// ErrTooDeep is returned by EstimateThreshold when a run goes deeper into the
+// ErrTooDeep is returned by Run when a run goes deeper into the
 // prior mass than any K vanishing at the origin allows, which means K does not
 // vanish in the box (or not to second order, or vanishes on a thin set the
 // sampler cannot follow).
-var ErrTooDeep = errors.New("rlct: the run went deeper than a K vanishing at the origin allows; does K vanish in the box?")
+var ErrTooDeep = errors.New("estimate: the run went deeper than a K vanishing at the origin allows; does K vanish in the box?")
 
 // Defaults and fixed constants of the method.
 const (
@@ -239,7 +300,7 @@ const (
 	stopShare = 0.01
 )
 
-// EstimateThreshold estimates the learning coefficient λ and its
+// Run estimates the learning coefficient λ and its
 // multiplicity θ of K at the origin, over the box and prior in opt, by nested
 // sampling. K is evaluated only through k and must be nonnegative.
 //
@@ -294,7 +355,8 @@ const (
 //
 //	y = λ − (θ−1)/(L + b)
 //
-// by least squares with equal weights on the grid. Over a few decades b can
+// by least squares with equal weights on the grid (a QR factorization of
+// the design matrix by gonum/mat). Over a few decades b can
 // hardly be told apart from θ: the Fisher information of 1600 live points
 // for K = x²y² gives se(θ̂) ≈ 2.5 with b free against 0.3 with b known. So b
 // is not fitted but set by offsetFor, which is exact when K is a monomial
@@ -326,6 +388,16 @@ const (
 // With few runs the standard errors are themselves uncertain (Runs−1
 // degrees of freedom).
 //
+// # Other zeros
+//
+// The estimate is for the whole box. Where K vanishes away from the origin
+// too, the runs end with live points there as well, and Result.OtherZeros
+// lists them (see Zero): they can make the estimate a different number from
+// the learning coefficient at the origin (a smaller λ, or a larger θ, from
+// the other zero), and shrinking the box to leave them out is the remedy.
+// A zero whose λ is much larger than at the origin keeps few or no final
+// live points and may go unlisted; it does not change the estimate.
+//
 // # Errors
 //
 // It returns an error for a box or prior that does not match k.NumVars(), an
@@ -334,61 +406,62 @@ const (
 // the prior mass or is constant on a set of positive mass (ErrNoProgress), a
 // run that goes implausibly deep (ErrTooDeep), and ctx.Err() when ctx is
 // cancelled.
-func EstimateThreshold(ctx context.Context, k Evaluator, opt EstimateOptions) (*Estimate, error) {
-	cfg, err := newEstimateConfig(k, opt)
+func Run(ctx context.Context, k Evaluator, opt Options) (*Result, error) {
+	cfg, err := newConfig(k, opt)
 	if err != nil {
 		return nil, err
 	}
 	return cfg.estimate(ctx)
 }
 
-// estimateConfig is the validated form of EstimateOptions.
-type estimateConfig struct {
-	k        Evaluator
-	d        int
-	box      priorBox
-	live     int
-	runs     int
-	workers  int
-	seed     uint64
-	decades  float64
-	start    float64
-	steps    int
-	roundOff float64
-	progress func(done, total int)
+// config is the validated form of Options.
+type config struct {
+	k            Evaluator
+	d            int
+	lower, upper []float64 // the box in w coordinates
+	box          priorBox
+	live         int
+	runs         int
+	workers      int
+	seed         uint64
+	decades      float64
+	start        float64
+	steps        int
+	roundOff     float64
+	progress     func(done, total int)
 }
 
-func newEstimateConfig(k Evaluator, opt EstimateOptions) (*estimateConfig, error) {
+func newConfig(k Evaluator, opt Options) (*config, error) {
 	if k == nil {
-		return nil, errors.New("rlct: nil Evaluator")
+		return nil, errors.New("estimate: nil Evaluator")
 	}
 	d := k.NumVars()
 	if d <= 0 {
-		return nil, fmt.Errorf("rlct: K has %d variables; need at least one", d)
+		return nil, fmt.Errorf("estimate: K has %d variables; need at least one", d)
 	}
 	if len(opt.Lower) != d || len(opt.Upper) != d {
-		return nil, fmt.Errorf("rlct: box has %d lower and %d upper bounds for K with %d variables",
+		return nil, fmt.Errorf("estimate: box has %d lower and %d upper bounds for K with %d variables",
 			len(opt.Lower), len(opt.Upper), d)
 	}
 	if opt.Prior != nil && len(opt.Prior) != d {
-		return nil, fmt.Errorf("rlct: prior has %d exponents for K with %d variables", len(opt.Prior), d)
+		return nil, fmt.Errorf("estimate: prior has %d exponents for K with %d variables", len(opt.Prior), d)
 	}
-	c := &estimateConfig{k: k, d: d, live: opt.Live, runs: opt.Runs, workers: opt.Workers,
+	c := &config{k: k, d: d, live: opt.Live, runs: opt.Runs, workers: opt.Workers,
 		seed: opt.Seed, decades: opt.Decades, start: opt.Start, steps: opt.Steps, roundOff: opt.RoundOff, progress: opt.Progress}
 	for i := range d {
 		a, b := opt.Lower[i], opt.Upper[i]
 		if math.IsNaN(a) || math.IsNaN(b) || math.IsInf(a, 0) || math.IsInf(b, 0) {
-			return nil, fmt.Errorf("rlct: box bounds of variable %d are not finite: [%g, %g]", i, a, b)
+			return nil, fmt.Errorf("estimate: box bounds of variable %d are not finite: [%g, %g]", i, a, b)
 		}
 		if !(a < b) {
-			return nil, fmt.Errorf("rlct: empty box in variable %d: [%g, %g]", i, a, b)
+			return nil, fmt.Errorf("estimate: empty box in variable %d: [%g, %g]", i, a, b)
 		}
 		h := 0.0
 		if opt.Prior != nil {
 			h = opt.Prior[i]
 		}
 		if math.IsNaN(h) || math.IsInf(h, 0) || h <= -1 {
-			return nil, fmt.Errorf("rlct: prior exponent h = %g of variable %d must be a finite number > −1", h, i)
+			return nil, fmt.Errorf("estimate: prior exponent h = %g of variable %d must be a finite number > −1", h, i)
 		}
 	}
 	box, err := newPriorBox(opt.Lower, opt.Upper, opt.Prior)
@@ -396,47 +469,48 @@ func newEstimateConfig(k Evaluator, opt EstimateOptions) (*estimateConfig, error
 		return nil, err
 	}
 	c.box = box
+	c.lower, c.upper = slices.Clone(opt.Lower), slices.Clone(opt.Upper)
 	switch {
 	case c.live == 0:
 		c.live = defaultLive
 	case c.live < minLive:
-		return nil, fmt.Errorf("rlct: Live = %d; need at least %d live points", c.live, minLive)
+		return nil, fmt.Errorf("estimate: Live = %d; need at least %d live points", c.live, minLive)
 	}
 	switch {
 	case c.runs == 0:
 		c.runs = defaultRuns
 	case c.runs < 2:
-		return nil, fmt.Errorf("rlct: Runs = %d; need at least 2 runs for error bars", c.runs)
+		return nil, fmt.Errorf("estimate: Runs = %d; need at least 2 runs for error bars", c.runs)
 	}
 	switch {
 	case c.workers == 0:
 		c.workers = runtime.GOMAXPROCS(0)
 	case c.workers < 0:
-		return nil, fmt.Errorf("rlct: Workers = %d is negative", c.workers)
+		return nil, fmt.Errorf("estimate: Workers = %d is negative", c.workers)
 	}
 	switch {
 	case c.decades == 0:
 		c.decades = defaultDecades
 	case !(c.decades >= 1 && c.decades <= maxDecades):
-		return nil, fmt.Errorf("rlct: Decades = %g; must be between 1 and %g", c.decades, maxDecades)
+		return nil, fmt.Errorf("estimate: Decades = %g; must be between 1 and %g", c.decades, maxDecades)
 	}
 	switch {
 	case c.start == 0:
 		c.start = defaultStart
 	case !(c.start > 0 && c.start <= maxStart):
-		return nil, fmt.Errorf("rlct: Start = %g; must be between 0 and %g", c.start, maxStart)
+		return nil, fmt.Errorf("estimate: Start = %g; must be between 0 and %g", c.start, maxStart)
 	}
 	if c.start+c.decades > 12 {
-		return nil, fmt.Errorf("rlct: Start + Decades = %g; at most 12 decades above Scale can be resolved in float64", c.start+c.decades)
+		return nil, fmt.Errorf("estimate: Start + Decades = %g; at most 12 decades above Scale can be resolved in float64", c.start+c.decades)
 	}
 	switch {
 	case c.steps == 0:
 		c.steps = 2*d + 2
 	case c.steps < 0:
-		return nil, fmt.Errorf("rlct: Steps = %d is negative", c.steps)
+		return nil, fmt.Errorf("estimate: Steps = %d is negative", c.steps)
 	}
 	if math.IsNaN(c.roundOff) || math.IsInf(c.roundOff, 0) || c.roundOff < 0 {
-		return nil, fmt.Errorf("rlct: RoundOff = %g must be a finite number ≥ 0", c.roundOff)
+		return nil, fmt.Errorf("estimate: RoundOff = %g must be a finite number ≥ 0", c.roundOff)
 	}
 	return c, nil
 }

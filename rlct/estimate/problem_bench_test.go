@@ -1,8 +1,10 @@
-package rlct
+package estimate
 
 import (
 	"fmt"
 	"testing"
+
+	"github.com/lctkit/lctkit/rlct"
 )
 
 // BenchmarkProblemEvaluator measures one evaluation of K = g² for
@@ -15,10 +17,10 @@ func BenchmarkProblemEvaluator(b *testing.B) {
 		at := []string{"x=1/4,y=1/4,z=1/4,w=1/4"}
 		for _, form := range []struct {
 			name string
-			spec Spec
+			spec rlct.Spec
 		}{
-			{"expanded", Spec{K: "(" + g + ")^2", At: at}},
-			{"sum-of-squares", Spec{SOS: []string{g}, At: at}},
+			{"expanded", rlct.Spec{K: "(" + g + ")^2", At: at}},
+			{"sum-of-squares", rlct.Spec{SOS: []string{g}, At: at}},
 		} {
 			p, points, err := form.spec.Problem()
 			if err != nil {

@@ -1,16 +1,21 @@
-// Orchestration of EstimateThreshold: the runs over the workers, the merge of
-// runs, the curve y(n), the jackknife and the fit.
+// Orchestration of Run: the runs over the workers, the merge of runs, the
+// curve y(n), the jackknife and the fit.
 
-package rlct
+package estimate
 
 import (
 	"cmp"
 	"context"
 	"errors"
 	"math"
-	"math/rand/v2"
 	"slices"
 	"sync"
+
+	"gonum.org/v1/gonum/floats"
+	"gonum.org/v1/gonum/mat"
+	"gonum.org/v1/gonum/mathext"
+	"gonum.org/v1/gonum/mathext/prng"
+	"gonum.org/v1/gonum/stat"
 )
 
 // sampleSet is the raw outcome of the runs.
@@ -22,12 +27,12 @@ type sampleSet struct {
 }
 
 // estimate runs everything for a validated configuration.
-func (c *estimateConfig) estimate(ctx context.Context) (*Estimate, error) {
+func (c *config) estimate(ctx context.Context) (*Result, error) {
 	s, err := c.sample(ctx)
 	if err != nil {
 		return nil, err
 	}
-	est := &Estimate{Scale: s.scale, Top: s.top, Live: c.live, Runs: c.runs, Evaluations: s.evals}
+	est := &Result{Scale: s.scale, Top: s.top, Live: c.live, Runs: c.runs, Evaluations: s.evals}
 	for _, r := range s.runs {
 		est.Evaluations += r.evals
 		est.Depth += r.depth / float64(c.runs)
@@ -43,9 +48,18 @@ func (c *estimateConfig) estimate(ctx context.Context) (*Estimate, error) {
 	}
 	est.LambdaSE = jackknifeSE(lams)
 	est.ThetaSE = jackknifeSE(ths)
-	est.Points = make([]EstimatePoint, len(s.grid))
+	est.Points = make([]CurvePoint, len(s.grid))
 	for g, n := range s.grid {
-		est.Points[g] = EstimatePoint{N: n, Y: full[g], SE: se[g]}
+		est.Points[g] = CurvePoint{N: n, Y: full[g], SE: se[g]}
+	}
+	// K between two groups of final points above 1/n at the low end of the
+	// grid separates them over the whole grid (see Zero).
+	barrier := s.scale * math.Pow(10, -c.start)
+	reader := newKReader(c)
+	est.OtherZeros, err = c.otherZeros(s.runs, reader, barrier)
+	est.Evaluations += reader.evals
+	if err != nil {
+		return nil, err
 	}
 	return est, nil
 }
@@ -82,20 +96,23 @@ func (m *merger) curveSE(grid []float64, workers int) (y, se []float64, loo [][]
 }
 
 // sample draws the initial live points, sets the grid and performs the runs.
-func (c *estimateConfig) sample(ctx context.Context) (*sampleSet, error) {
+func (c *config) sample(ctx context.Context) (*sampleSet, error) {
 	if err := ctx.Err(); err != nil {
 		return nil, err
 	}
 	n, d := c.live, c.d
 	// Initial live points of every run, drawn here in run order so that the
 	// prior median of K (the unit of n) does not depend on the workers.
-	rngs := make([]*rand.Rand, c.runs)
+	// Run r draws from the stream seeded with the r-th output of a
+	// SplitMix64 generator seeded with Seed.
+	seeds := prng.NewSplitMix64(c.seed)
+	rngs := make([]*stream, c.runs)
 	initial := make([][]float64, c.runs)
 	kinit := make([][]float64, c.runs)
 	reader := newKReader(c)
 	var all []float64
 	for r := range c.runs {
-		rngs[r] = rand.New(rand.NewPCG(splitMix(c.seed), splitMix(c.seed^splitMix(uint64(r)+1))))
+		rngs[r] = newStream(seeds.Uint64())
 		initial[r] = make([]float64, n*d)
 		kinit[r] = make([]float64, n)
 		for i := range n {
@@ -110,7 +127,7 @@ func (c *estimateConfig) sample(ctx context.Context) (*sampleSet, error) {
 		all = append(all, kinit[r]...)
 	}
 	slices.Sort(all)
-	scale, top := all[len(all)/2], all[len(all)-1]
+	scale, top := stat.Quantile(0.5, stat.Empirical, all, nil), all[len(all)-1]
 	if !(scale > 0) {
 		return nil, ErrNoProgress
 	}
@@ -118,7 +135,7 @@ func (c *estimateConfig) sample(ctx context.Context) (*sampleSet, error) {
 	nMax := grid[len(grid)-1]
 	set := runSettings{nMax: nMax, target: stopDelta / nMax, scale: scale}
 	if c.roundOff > 0 && set.target < 100*c.roundOff {
-		return nil, errors.New("rlct: the grid of n needs K resolved below 100·RoundOff; use fewer Decades")
+		return nil, errors.New("estimate: the grid of n needs K resolved below 100·RoundOff; use fewer Decades")
 	}
 	// K ≥ 0 is C² with K(0) = 0, so K ≤ C|w|² near 0 and the prior mass of
 	// {K < ε} is at least c·ε^λmax with λmax = Σ(h_i+1)/2; allow three
@@ -137,24 +154,15 @@ func (c *estimateConfig) sample(ctx context.Context) (*sampleSet, error) {
 }
 
 // jackknifeSE returns the jackknife standard error from the leave-one-out
-// values x over r = len(x) groups: sqrt((r−1)/r · Σ(x_i − mean)²).
+// values x over r = len(x) groups: sqrt((r−1)/r · Σ(x_i − mean)²), which is
+// sqrt((r−1)·v) for the population variance v of x.
 func jackknifeSE(x []float64) float64 {
-	r := float64(len(x))
-	var mean float64
-	for _, v := range x {
-		mean += v
-	}
-	mean /= float64(len(x))
-	var ss float64
-	for _, v := range x {
-		ss += (v - mean) * (v - mean)
-	}
-	return math.Sqrt((r - 1) / r * ss)
+	return math.Sqrt(float64(len(x)-1) * stat.PopVariance(x, nil))
 }
 
 // grid returns the values of n, pointsPerDecade per decade from
 // 10^c.start/scale over c.decades decades.
-func (c *estimateConfig) grid(scale float64) []float64 {
+func (c *config) grid(scale float64) []float64 {
 	m := int(math.Round(c.decades * pointsPerDecade))
 	g := make([]float64, m+1)
 	for i := range g {
@@ -166,7 +174,7 @@ func (c *estimateConfig) grid(scale float64) []float64 {
 
 // runAll performs the runs on c.workers goroutines. Run r uses rngs[r] only,
 // so the records do not depend on the number of workers.
-func (c *estimateConfig) runAll(ctx context.Context, rngs []*rand.Rand, initial, kinit [][]float64,
+func (c *config) runAll(ctx context.Context, rngs []*stream, initial, kinit [][]float64,
 	set runSettings) ([]*nsRun, error) {
 	ctx, cancel := context.WithCancel(ctx)
 	defer cancel()
@@ -309,34 +317,32 @@ func (m *merger) weights(skip int) []float64 {
 	}
 	if lastJ >= 0 {
 		// The last point stands for all the mass below the previous one.
-		logW[lastJ] = logAddExp(logW[lastJ], logX)
+		logW[lastJ] = floats.LogSumExp([]float64{logW[lastJ], logX})
 	}
 	return logW
 }
 
 // curve returns y(n) = n·E_n[K] on the grid for the merged run without run
-// skip (skip < 0: all runs).
+// skip (skip < 0: all runs): n times the mean of K under the weights
+// W_j·exp(−n·K_j), scaled by the largest of them.
 func (m *merger) curve(grid []float64, skip int) []float64 {
 	logW := m.weights(skip)
 	y := make([]float64, len(grid))
+	w := make([]float64, len(m.k))
 	for g, n := range grid {
 		top := math.Inf(-1)
 		for j, k := range m.k {
-			if a := logW[j] - n*k; a > top {
-				top = a
-			}
+			top = math.Max(top, logW[j]-n*k)
 		}
-		var z, zk float64
 		for j, k := range m.k {
 			a := logW[j] - n*k - top
 			if a < -40 { // below 1e−17 of the largest term
+				w[j] = 0
 				continue
 			}
-			e := math.Exp(a)
-			z += e
-			zk += e * k
+			w[j] = math.Exp(a)
 		}
-		y[g] = n * zk / z
+		y[g] = n * stat.Mean(m.k, w)
 	}
 	return y
 }
@@ -355,9 +361,9 @@ func fitCurve(grid, y []float64, top float64) (lambda, theta, offset float64) {
 		for i, n := range grid {
 			u[i] = 1 / (math.Log(n) + offset)
 		}
-		a, slope := lineFit(u, y)
-		done := math.Abs(a-lambda) < 1e-12 && math.Abs(1-slope-theta) < 1e-12
-		lambda, theta = a, 1-slope
+		l, th := lineFit(u, y)
+		done := math.Abs(l-lambda) < 1e-12 && math.Abs(th-theta) < 1e-12
+		lambda, theta = l, th
 		if done {
 			break
 		}
@@ -372,7 +378,7 @@ func fitCurve(grid, y []float64, top float64) (lambda, theta, offset float64) {
 // exponential variables with rate λ, so for ℓ = log(top/ε) the volume is the
 // Gamma(θ, λ) tail V(ε) = e^(−λℓ)·Σ_{j<θ}(λℓ)^j/j!, whose logarithmic
 // derivative is λ − (θ−1)/(ℓ + 1/λ) + O(1/ℓ³); the Laplace transform moves
-// the offset by −ψ(λ+1) (ψ the digamma function), so
+// the offset by −ψ(λ+1) (ψ the digamma function, from gonum/mathext), so
 // b = 1/λ + log(top) − ψ(λ+1). For K = x²y² on [−1,1]² this gives
 // b = 2 − ψ(3/2) ≈ 1.9635, the exact value. A variable with a larger rate μ
 // would lower the offset by about 1/(μ−λ); for K other than such monomials
@@ -381,50 +387,24 @@ func fitCurve(grid, y []float64, top float64) (lambda, theta, offset float64) {
 // the data. λ is floored at 0.05 to keep b bounded while iterating.
 func offsetFor(lambda, top float64) float64 {
 	lambda = math.Max(lambda, 0.05)
-	return 1/lambda + math.Log(top) - digamma(lambda+1)
+	return 1/lambda + math.Log(top) - mathext.Digamma(lambda+1)
 }
 
-// digamma returns ψ(x) for x > 0 by the recurrence ψ(x) = ψ(x+1) − 1/x and
-// the asymptotic series (Abramowitz & Stegun 1964, Handbook of Mathematical
-// Functions, 6.3.5 and 6.3.18).
-func digamma(x float64) float64 {
-	var r float64
-	for x < 6 {
-		r -= 1 / x
-		x++
+// lineFit returns λ and θ of the least-squares fit of y_i = λ − (θ−1)·u_i,
+// solved by a QR factorization of the design matrix with the columns 1 and
+// −u. When the columns are (nearly) dependent, that is u is (nearly)
+// constant, it returns the mean of y and θ = 1.
+func lineFit(u, y []float64) (lambda, theta float64) {
+	a := mat.NewDense(len(u), 2, nil)
+	for i, x := range u {
+		a.Set(i, 0, 1)
+		a.Set(i, 1, -x)
 	}
-	f := 1 / (x * x)
-	return r + math.Log(x) - 0.5/x - f*(1.0/12-f*(1.0/120-f*(1.0/252-f*(1.0/240-f/132))))
-}
-
-// lineFit returns the intercept and slope of the least-squares line through
-// (x_i, y_i).
-func lineFit(x, y []float64) (intercept, slope float64) {
-	var mx, my float64
-	for i := range x {
-		mx += x[i]
-		my += y[i]
+	var qr mat.QR
+	qr.Factorize(a)
+	var x mat.VecDense
+	if err := qr.SolveVecTo(&x, false, mat.NewVecDense(len(y), y)); err != nil {
+		return stat.Mean(y, nil), 1
 	}
-	mx /= float64(len(x))
-	my /= float64(len(x))
-	var sxx, sxy float64
-	for i := range x {
-		sxx += (x[i] - mx) * (x[i] - mx)
-		sxy += (x[i] - mx) * (y[i] - my)
-	}
-	if sxx == 0 {
-		return my, 0
-	}
-	slope = sxy / sxx
-	return my - slope*mx, slope
-}
-
-// splitMix is the SplitMix64 finalizer, used to derive seeds (common
-// practice; Steele, Lea & Flood 2014, "Fast splittable pseudorandom number
-// generators", OOPSLA).
-func splitMix(x uint64) uint64 {
-	x += 0x9e3779b97f4a7c15
-	x = (x ^ (x >> 30)) * 0xbf58476d1ce4e5b9
-	x = (x ^ (x >> 27)) * 0x94d049bb133111eb
-	return x ^ (x >> 31)
+	return x.AtVec(0), 1 + x.AtVec(1)
 }

@@ -1,4 +1,4 @@
-package rlct
+package estimate
 
 import (
 	"context"
@@ -8,10 +8,13 @@ import (
 	"math/big"
 	"math/rand/v2"
 	"testing"
+
+	"github.com/lctkit/lctkit/monomial"
+	"github.com/lctkit/lctkit/rlct"
 )
 
 // problemOf parses a spec and sets its point, failing the test on errors.
-func problemOf(t *testing.T, s Spec) *Problem {
+func problemOf(t *testing.T, s rlct.Spec) *rlct.Problem {
 	t.Helper()
 	p, points, err := s.Problem()
 	if err != nil {
@@ -28,22 +31,22 @@ func problemOf(t *testing.T, s Spec) *Problem {
 func TestProblemEvaluator(t *testing.T) {
 	tests := []struct {
 		name string
-		spec Spec
+		spec rlct.Spec
 		want func(u []float64) float64
 		sos  bool
 	}{
-		{"origin", Spec{K: "x^2*y^2 + x^4"}, func(u []float64) float64 {
+		{"origin", rlct.Spec{K: "x^2*y^2 + x^4"}, func(u []float64) float64 {
 			return u[0]*u[0]*u[1]*u[1] + math.Pow(u[0], 4)
 		}, false},
-		{"shifted", Spec{K: "(x-1)^2*y^2 + (y-x+1)^4", At: []string{"x=1"}}, func(u []float64) float64 {
+		{"shifted", rlct.Spec{K: "(x-1)^2*y^2 + (y-x+1)^4", At: []string{"x=1"}}, func(u []float64) float64 {
 			return u[0]*u[0]*u[1]*u[1] + math.Pow(u[1]-u[0], 4)
 		}, false},
-		{"sum of squares shifted", Spec{SOS: []string{"s*g1 - 1; s*g2"}, At: []string{"s=1,g1=1"}}, func(u []float64) float64 {
+		{"sum of squares shifted", rlct.Spec{SOS: []string{"s*g1 - 1; s*g2"}, At: []string{"s=1,g1=1"}}, func(u []float64) float64 {
 			a := (1+u[0])*(1+u[1]) - 1
 			b := (1 + u[0]) * u[2]
 			return a*a + b*b
 		}, true},
-		{"rational point", Spec{K: "(3*x - 1)^2 + y^2", At: []string{"x=1/3"}}, func(u []float64) float64 {
+		{"rational point", rlct.Spec{K: "(3*x - 1)^2 + y^2", At: []string{"x=1/3"}}, func(u []float64) float64 {
 			return 9*u[0]*u[0] + u[1]*u[1]
 		}, false},
 	}
@@ -71,7 +74,7 @@ func TestProblemEvaluator(t *testing.T) {
 // TestProblemEvaluatorExactTranslation checks that the translation is exact:
 // (x − 1/3)²·y² at x = 1/3 is the polynomial x²y² itself, term for term.
 func TestProblemEvaluatorExactTranslation(t *testing.T) {
-	ev, err := NewProblemEvaluator(problemOf(t, Spec{K: "(x - 1/3)^2*y^2", At: []string{"x=1/3"}}))
+	ev, err := NewProblemEvaluator(problemOf(t, rlct.Spec{K: "(x - 1/3)^2*y^2", At: []string{"x=1/3"}}))
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -81,18 +84,60 @@ func TestProblemEvaluatorExactTranslation(t *testing.T) {
 }
 
 func TestProblemEvaluatorErrors(t *testing.T) {
-	p := problemOf(t, Spec{K: "x^2*(1-cos(y))", Order: 6})
+	p := problemOf(t, rlct.Spec{K: "x^2*(1-cos(y))", Order: 6})
 	p.Point = []*big.Rat{big.NewRat(1, 1), new(big.Rat)}
-	if _, err := NewProblemEvaluator(p); !errors.Is(err, ErrShiftSeries) {
-		t.Errorf("shifted series: err = %v, want ErrShiftSeries", err)
+	if _, err := NewProblemEvaluator(p); !errors.Is(err, rlct.ErrShiftSeries) {
+		t.Errorf("shifted series: err = %v, want rlct.ErrShiftSeries", err)
 	}
-	p = problemOf(t, Spec{K: "x^2+y^2"})
+	p = problemOf(t, rlct.Spec{K: "x^2+y^2"})
 	p.Point = []*big.Rat{new(big.Rat)}
-	if _, err := NewProblemEvaluator(p); !errors.Is(err, ErrDimension) {
-		t.Errorf("short point: err = %v, want ErrDimension", err)
+	if _, err := NewProblemEvaluator(p); !errors.Is(err, rlct.ErrDimension) {
+		t.Errorf("short point: err = %v, want rlct.ErrDimension", err)
 	}
-	if _, err := NewProblemEvaluator(&Problem{}); !errors.Is(err, ErrNoFunction) {
-		t.Errorf("empty problem: err = %v, want ErrNoFunction", err)
+	if _, err := NewProblemEvaluator(&rlct.Problem{}); !errors.Is(err, rlct.ErrNoFunction) {
+		t.Errorf("empty problem: err = %v, want rlct.ErrNoFunction", err)
+	}
+}
+
+// TestProblemForms checks that a malformed problem gives the same error as
+// rlct.Bound gives for it.
+func TestProblemForms(t *testing.T) {
+	k := problemOf(t, rlct.Spec{K: "x^2+y^2"}).K
+	g := problemOf(t, rlct.Spec{SOS: []string{"x; y"}}).Generators
+	other := problemOf(t, rlct.Spec{SOS: []string{"x; z"}, Vars: []string{"x", "z"}}).Generators
+	noVars := monomial.Zero(nil)
+	tests := []struct {
+		name string
+		p    *rlct.Problem
+		want error
+	}{
+		{"both forms", &rlct.Problem{K: k, Generators: g}, rlct.ErrTwoForms},
+		{"neither", &rlct.Problem{}, rlct.ErrNoFunction},
+		{"no variables", &rlct.Problem{K: noVars}, rlct.ErrNoVariables},
+		{"generators on other variables", &rlct.Problem{Generators: append(g[:1:1], other[1])}, rlct.ErrVariables},
+		{"nil generator", &rlct.Problem{Generators: append(g[:1:1], nil)}, rlct.ErrVariables},
+	}
+	for _, tc := range tests {
+		t.Run(tc.name, func(t *testing.T) {
+			_, err := NewProblemEvaluator(tc.p)
+			_, boundErr := rlct.Bound(context.Background(), tc.p, nil)
+			if !errors.Is(err, tc.want) || !errors.Is(boundErr, tc.want) {
+				t.Errorf("err = %v, rlct.Bound: %v; want %v from both", err, boundErr, tc.want)
+			}
+			if _, err := Prior(tc.p); !errors.Is(err, tc.want) {
+				t.Errorf("Prior: err = %v, want %v", err, tc.want)
+			}
+		})
+	}
+	// A nil coordinate of the point is 0.
+	p := problemOf(t, rlct.Spec{K: "(x-1)^2 + y^2", At: []string{"x=1"}})
+	p.Point[1] = nil
+	ev, err := NewProblemEvaluator(p)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if got := ev.Eval([]float64{0.5, 0.25}); got != 0.3125 { // 0.5² + 0.25²
+		t.Errorf("K(0.5, 0.25) = %g, want 0.3125", got)
 	}
 }
 
@@ -102,18 +147,18 @@ func TestRoundOff(t *testing.T) {
 	const u = 0x1p-53
 	tests := []struct {
 		name         string
-		spec         Spec
+		spec         rlct.Spec
 		lower, upper []float64
 		want         float64
 	}{
 		// Positive coefficients, even exponents: no cancellation.
-		{"cancellation free", Spec{K: "x^2*y^2 + 3*x^4"}, []float64{-1, -1}, []float64{1, 1}, 0},
+		{"cancellation free", rlct.Spec{K: "x^2*y^2 + 3*x^4"}, []float64{-1, -1}, []float64{1, 1}, 0},
 		// x² − 2xy + y²: S = 1 + 2 + 1, D = 2, T = 3.
-		{"(x-y)^2", Spec{K: "(x-y)^2"}, []float64{-1, -1}, []float64{1, 1}, (2 + 2 + math.Sqrt(3)) * u * 4},
+		{"(x-y)^2", rlct.Spec{K: "(x-y)^2"}, []float64{-1, -1}, []float64{1, 1}, (2 + 2 + math.Sqrt(3)) * u * 4},
 		// On [−2, 1]×[−1, 3]: m = (2, 3), S = 4 + 2·6 + 9 = 25.
-		{"(x-y)^2 on a wider box", Spec{K: "(x-y)^2"}, []float64{-2, -1}, []float64{1, 3}, (2 + 2 + math.Sqrt(3)) * u * 25},
+		{"(x-y)^2 on a wider box", rlct.Spec{K: "(x-y)^2"}, []float64{-2, -1}, []float64{1, 3}, (2 + 2 + math.Sqrt(3)) * u * 25},
 		// g = x − y: S = 2, D = 1, T = 2, and the estimate is δ².
-		{"sum of squares", Spec{SOS: []string{"x - y"}}, []float64{-1, -1}, []float64{1, 1},
+		{"sum of squares", rlct.Spec{SOS: []string{"x - y"}}, []float64{-1, -1}, []float64{1, 1},
 			math.Pow((1+2+math.Sqrt(2))*u*2, 2)},
 	}
 	for _, tc := range tests {
@@ -130,21 +175,21 @@ func TestRoundOff(t *testing.T) {
 	}
 }
 
-func TestEstimatePrior(t *testing.T) {
+func TestPrior(t *testing.T) {
 	tests := []struct {
 		name string
-		spec Spec
+		spec rlct.Spec
 		want []float64
 	}{
-		{"none", Spec{K: "x^2+y^2"}, []float64{0, 0}},
-		{"origin", Spec{K: "x^2+y^2", Prior: "x=1,y=1/2"}, []float64{1, 0.5}},
+		{"none", rlct.Spec{K: "x^2+y^2"}, []float64{0, 0}},
+		{"origin", rlct.Spec{K: "x^2+y^2", Prior: "x=1,y=1/2"}, []float64{1, 0.5}},
 		// At x = 1 the factor |x|^1 is smooth and positive: uniform, as τ_x = 1 in Bound.
-		{"shifted", Spec{K: "(x-1)^2+y^2", Prior: "x=1,y=1/2", At: []string{"x=1"}}, []float64{0, 0.5}},
+		{"shifted", rlct.Spec{K: "(x-1)^2+y^2", Prior: "x=1,y=1/2", At: []string{"x=1"}}, []float64{0, 0.5}},
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
 			p := problemOf(t, tc.spec)
-			got, err := EstimatePrior(p)
+			got, err := Prior(p)
 			if err != nil {
 				t.Fatal(err)
 			}
@@ -154,7 +199,7 @@ func TestEstimatePrior(t *testing.T) {
 				}
 			}
 			// The same weights as Bound: τ_i = h_i + 1.
-			r, err := Bound(context.Background(), p, nil)
+			r, err := rlct.Bound(context.Background(), p, nil)
 			if err != nil {
 				t.Fatal(err)
 			}
@@ -165,23 +210,23 @@ func TestEstimatePrior(t *testing.T) {
 			}
 		})
 	}
-	p := problemOf(t, Spec{K: "x^2+y^2"})
+	p := problemOf(t, rlct.Spec{K: "x^2+y^2"})
 	p.Prior = []*big.Rat{big.NewRat(-1, 1), new(big.Rat)}
-	if _, err := EstimatePrior(p); !errors.Is(err, ErrPrior) {
-		t.Errorf("h = −1: err = %v, want ErrPrior", err)
+	if _, err := Prior(p); !errors.Is(err, rlct.ErrPrior) {
+		t.Errorf("h = −1: err = %v, want rlct.ErrPrior", err)
 	}
 }
 
-// TestEstimateProblemShifted checks that a problem at a point and the same
+// TestProblemShifted checks that a problem at a point and the same
 // K written at the origin give identical estimates: the translation is exact,
 // so the compiled polynomials, and with the same seed every sample, agree.
-func TestEstimateProblemShifted(t *testing.T) {
-	opt := EstimateOptions{Lower: []float64{-1, -1}, Upper: []float64{1, 1}, Live: 20, Runs: 4, Seed: 9, Decades: 3}
-	a, err := EstimateProblem(context.Background(), problemOf(t, Spec{K: "(x-2)^2*y^2", At: []string{"x=2"}, Prior: "x=3"}), opt)
+func TestProblemShifted(t *testing.T) {
+	opt := Options{Lower: []float64{-1, -1}, Upper: []float64{1, 1}, Live: 20, Runs: 4, Seed: 9, Decades: 3}
+	a, err := Problem(context.Background(), problemOf(t, rlct.Spec{K: "(x-2)^2*y^2", At: []string{"x=2"}, Prior: "x=3"}), opt)
 	if err != nil {
 		t.Fatal(err)
 	}
-	b, err := EstimateProblem(context.Background(), problemOf(t, Spec{K: "x^2*y^2"}), opt)
+	b, err := Problem(context.Background(), problemOf(t, rlct.Spec{K: "x^2*y^2"}), opt)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -191,12 +236,12 @@ func TestEstimateProblemShifted(t *testing.T) {
 	}
 }
 
-// TestEstimateProblemNegative checks that a K negative somewhere in the box
+// TestProblemNegative checks that a K negative somewhere in the box
 // is reported with the point, as offsets from the point.
-func TestEstimateProblemNegative(t *testing.T) {
+func TestProblemNegative(t *testing.T) {
 	// K = (x−1)²·(1 − 2(x−1)) + y² at x = 1: u²(1 − 2u) + y² < 0 needs u > 1/2.
-	p := problemOf(t, Spec{K: "(x-1)^2*(1 - 2*(x-1)) + y^2", At: []string{"x=1"}})
-	_, err := EstimateProblem(context.Background(), p, EstimateOptions{
+	p := problemOf(t, rlct.Spec{K: "(x-1)^2*(1 - 2*(x-1)) + y^2", At: []string{"x=1"}})
+	_, err := Problem(context.Background(), p, Options{
 		Lower: []float64{-1, -1}, Upper: []float64{1, 1}, Live: 20, Runs: 2, Seed: 1})
 	var kv *KValueError
 	if !errors.As(err, &kv) {
@@ -219,11 +264,11 @@ func TestRoundOffCoversError(t *testing.T) {
 	lower, upper := []float64{-1, -1, -1, -1}, []float64{1, 1, 1, 1}
 	for _, m := range []int{1, 2, 4, 8} {
 		g := fmt.Sprintf("(x + y + z + w - 1)^%d", m)
-		expanded, err := NewProblemEvaluator(problemOf(t, Spec{K: "(" + g + ")^2", At: at}))
+		expanded, err := NewProblemEvaluator(problemOf(t, rlct.Spec{K: "(" + g + ")^2", At: at}))
 		if err != nil {
 			t.Fatal(err)
 		}
-		squares, err := NewProblemEvaluator(problemOf(t, Spec{SOS: []string{g}, At: at}))
+		squares, err := NewProblemEvaluator(problemOf(t, rlct.Spec{SOS: []string{g}, At: at}))
 		if err != nil {
 			t.Fatal(err)
 		}

@@ -1,4 +1,4 @@
-package rlct
+package estimate
 
 import (
 	"context"
@@ -8,13 +8,13 @@ import (
 	"github.com/lctkit/lctkit/monomial"
 )
 
-// TestEstimateCompiledPolynomial runs the estimator the way the command line
+// TestCompiledPolynomial runs the estimator the way the command line
 // does, on parsed and expanded polynomials compiled by package monomial, for
 // the degenerate cases of validationCases (same sources and exact volumes):
 // the expanded forms are evaluated with cancellation near the zero set, so
 // RoundOff is set to 1e−16 times the sum of the absolute coefficients on the
 // unit box (4 for both), as its documentation suggests.
-func TestEstimateCompiledPolynomial(t *testing.T) {
+func TestCompiledPolynomial(t *testing.T) {
 	for _, c := range []struct {
 		src  string
 		vars []string
@@ -35,7 +35,7 @@ func TestEstimateCompiledPolynomial(t *testing.T) {
 					t.Fatalf("K(%v) = %g, want %g", w, got, want)
 				}
 			}
-			est, err := EstimateThreshold(context.Background(), k, EstimateOptions{
+			est, err := Run(context.Background(), k, Options{
 				Lower: c.vc.lower, Upper: c.vc.upper, Live: 100, Runs: 16, Seed: 5, RoundOff: 4e-16})
 			if err != nil {
 				t.Fatal(err)
@@ -45,8 +45,8 @@ func TestEstimateCompiledPolynomial(t *testing.T) {
 			if tol := 4*est.LambdaSE + math.Abs(limL-c.vc.lambda); math.Abs(est.Lambda-c.vc.lambda) > tol {
 				t.Errorf("λ̂ = %.4f ± %.4f, want %.4f within %.4f", est.Lambda, est.LambdaSE, c.vc.lambda, tol)
 			}
-			if v := est.Compare(c.vc.newton); v.Consistent {
-				t.Errorf("Compare(%g) = %+v, want the bound found strict", c.vc.newton, v)
+			if v := est.Compare(c.vc.newton, c.vc.status); v.Consistent {
+				t.Errorf("Compare(%g, %s) = %+v, want the bound found strict", c.vc.newton, c.vc.status, v)
 			}
 		})
 	}

@@ -1,23 +1,25 @@
-// Numerical estimates for a Problem: K translated to the point exactly, then
-// compiled to float64 for EstimateThreshold.
+// Numerical estimates for an rlct.Problem: K translated to the point
+// exactly, then compiled to float64 for Run.
 
-package rlct
+package estimate
 
 import (
 	"context"
 	"fmt"
 	"math"
 	"math/big"
+	"slices"
 
 	"github.com/lctkit/lctkit/monomial"
+	"github.com/lctkit/lctkit/rlct"
 )
 
 // unitRoundOff is u = 2^−53, the unit round-off of float64.
 const unitRoundOff = 0x1p-53
 
-// ProblemEvaluator is the float64 evaluator of K for a Problem at its point,
-// in the translated coordinates (offsets from the point) that
-// EstimateOptions uses. It is built by NewProblemEvaluator.
+// ProblemEvaluator is the float64 evaluator of K for an rlct.Problem at its
+// point, in the translated coordinates (offsets from the point) that Options
+// uses. It is built by NewProblemEvaluator.
 type ProblemEvaluator struct {
 	// Vars names the variables, in the order Eval expects them.
 	Vars []string
@@ -38,23 +40,33 @@ type ProblemEvaluator struct {
 // sum-of-squares form nothing is expanded: Eval squares and adds the
 // generators' values, which keeps K ≥ 0 and its relative accuracy near the
 // zero set. A series truncated around the origin (p.Truncated) cannot be
-// moved to another point (ErrShiftSeries); at the origin it is evaluated as
-// the truncated polynomial, a proxy for the full function.
-func NewProblemEvaluator(p *Problem) (*ProblemEvaluator, error) {
-	vars, polys, err := p.forms()
+// moved to another point (rlct.ErrShiftSeries); at the origin it is
+// evaluated as the truncated polynomial, a proxy for the full function. A
+// malformed problem gives the errors of rlct.Bound for it (rlct.ErrTwoForms,
+// rlct.ErrNoFunction, rlct.ErrNoVariables, rlct.ErrVariables,
+// rlct.ErrDimension). A nil entry of p.Point is read as 0.
+func NewProblemEvaluator(p *rlct.Problem) (*ProblemEvaluator, error) {
+	vars, polys, err := forms(p)
 	if err != nil {
 		return nil, err
 	}
 	if p.Point != nil {
 		if len(p.Point) != len(vars) {
-			return nil, fmt.Errorf("%w: point has %d entries for %d variables", ErrDimension, len(p.Point), len(vars))
+			return nil, fmt.Errorf("%w: point has %d entries for %d variables", rlct.ErrDimension, len(p.Point), len(vars))
 		}
 		if !isOrigin(p.Point) {
 			if p.Truncated {
-				return nil, ErrShiftSeries
+				return nil, rlct.ErrShiftSeries
+			}
+			point := make([]*big.Rat, len(p.Point)) // nil entries read as 0
+			for i, x := range p.Point {
+				point[i] = new(big.Rat)
+				if x != nil {
+					point[i].Set(x)
+				}
 			}
 			for i, q := range polys {
-				polys[i] = q.Translate(p.Point)
+				polys[i] = q.Translate(point)
 			}
 		}
 	}
@@ -84,7 +96,7 @@ func (ev *ProblemEvaluator) Eval(w []float64) float64 {
 
 // RoundOff returns an estimate of the absolute rounding error of Eval near
 // the zero set of K over the box [lower, upper] (offsets from the point),
-// for EstimateOptions.RoundOff.
+// for Options.RoundOff.
 //
 // A polynomial q = Σ c_t·w^(e_t) with T terms and degree D is summed term by
 // term; its error is estimated as δ(q) = (D + 2 + √T)·u·S with u = 2^−53 and
@@ -98,13 +110,13 @@ func (ev *ProblemEvaluator) Eval(w []float64) float64 {
 //
 // In sum-of-squares form K = Σ g_i² is computed from the generators' values,
 // so it is never negative; near the zero set the computed K is reliable down
-// to about Σ δ(g_i)², which is returned: EstimateThreshold then refuses a grid
+// to about Σ δ(g_i)², which is returned: Run then refuses a grid
 // of n that would need K resolved below 100 times that.
 //
 // It panics if the box does not have NumVars entries.
 func (ev *ProblemEvaluator) RoundOff(lower, upper []float64) float64 {
 	if len(lower) != len(ev.Vars) || len(upper) != len(ev.Vars) {
-		panic(fmt.Sprintf("rlct: RoundOff: box has %d and %d entries for %d variables", len(lower), len(upper), len(ev.Vars)))
+		panic(fmt.Sprintf("estimate: RoundOff: box has %d and %d entries for %d variables", len(lower), len(upper), len(ev.Vars)))
 	}
 	m := make([]float64, len(lower))
 	for i := range m {
@@ -156,30 +168,29 @@ func cancellationFree(q *monomial.Poly) bool {
 	return true
 }
 
-// EstimateProblem estimates λ and θ of the problem p at p.Point by
-// EstimateThreshold over the box opt.Lower, opt.Upper, given as offsets from
-// the point. K comes from NewProblemEvaluator. When opt.Prior is nil it is
-// taken from p.Prior the way Bound reads it: the exponent h_i for a
-// coordinate where the point is 0, and 0 (uniform) for one where it is not,
-// since there the prior factor |w_i|^(h_i) is smooth and positive near the
-// point and does not change λ or θ (it corresponds to τ_i = 1 in Bound).
-// When opt.RoundOff is 0 it is set to ProblemEvaluator.RoundOff of the box.
+// Problem estimates λ and θ of the problem p at p.Point by Run over the box
+// opt.Lower, opt.Upper, given as offsets from the point. K comes from
+// NewProblemEvaluator. When opt.Prior is nil it is taken from p.Prior the way
+// rlct.Bound reads it (see Prior). When opt.RoundOff is 0 it is set to
+// ProblemEvaluator.RoundOff of the box.
 //
-// The result is a numerical estimate with the caveats listed under
-// EstimateThreshold, and for a truncated series (p.Truncated) it is an
-// estimate for the truncated polynomial only. A *KValueError reports its
-// point as offsets from p.Point.
-func EstimateProblem(ctx context.Context, p *Problem, opt EstimateOptions) (*Estimate, error) {
+// The result is a numerical estimate with the caveats listed under Run, and
+// for a truncated series (p.Truncated) it is an estimate for the truncated
+// polynomial only. A *KValueError reports its point, and Result.OtherZeros
+// their places, as offsets from p.Point. Besides the errors of Run and
+// NewProblemEvaluator it returns rlct.ErrDimension for a box that does not
+// match the variables and the errors of Prior.
+func Problem(ctx context.Context, p *rlct.Problem, opt Options) (*Result, error) {
 	ev, err := NewProblemEvaluator(p)
 	if err != nil {
 		return nil, err
 	}
 	d := ev.NumVars()
 	if len(opt.Lower) != d || len(opt.Upper) != d {
-		return nil, fmt.Errorf("%w: box has %d lower and %d upper bounds for %d variables", ErrDimension, len(opt.Lower), len(opt.Upper), d)
+		return nil, fmt.Errorf("%w: box has %d lower and %d upper bounds for %d variables", rlct.ErrDimension, len(opt.Lower), len(opt.Upper), d)
 	}
 	if opt.Prior == nil && p.Prior != nil {
-		prior, err := EstimatePrior(p)
+		prior, err := Prior(p)
 		if err != nil {
 			return nil, err
 		}
@@ -188,24 +199,27 @@ func EstimateProblem(ctx context.Context, p *Problem, opt EstimateOptions) (*Est
 	if opt.RoundOff == 0 {
 		opt.RoundOff = ev.RoundOff(opt.Lower, opt.Upper)
 	}
-	return EstimateThreshold(ctx, ev, opt)
+	return Run(ctx, ev, opt)
 }
 
-// EstimatePrior returns the prior exponents EstimateProblem uses for p, in
-// the translated coordinates: h_i from p.Prior where p.Point is 0 (or
-// absent), and 0 where it is not. It returns ErrPrior for an exponent ≤ −1
-// and ErrDimension for lengths that do not match the variables.
-func EstimatePrior(p *Problem) ([]float64, error) {
-	vars, _, err := p.forms()
+// Prior returns the prior exponents Problem uses for p, in the translated
+// coordinates: h_i from p.Prior where p.Point is 0 (or absent), and 0
+// (uniform) where it is not, since there the prior factor |w_i|^(h_i) is
+// smooth and positive near the point and does not change λ or θ (it
+// corresponds to τ_i = 1 in rlct.Bound). It returns rlct.ErrPrior for an
+// exponent ≤ −1 and rlct.ErrDimension for lengths that do not match the
+// variables.
+func Prior(p *rlct.Problem) ([]float64, error) {
+	vars, _, err := forms(p)
 	if err != nil {
 		return nil, err
 	}
 	d := len(vars)
 	if p.Prior != nil && len(p.Prior) != d {
-		return nil, fmt.Errorf("%w: prior has %d entries for %d variables", ErrDimension, len(p.Prior), d)
+		return nil, fmt.Errorf("%w: prior has %d entries for %d variables", rlct.ErrDimension, len(p.Prior), d)
 	}
 	if p.Point != nil && len(p.Point) != d {
-		return nil, fmt.Errorf("%w: point has %d entries for %d variables", ErrDimension, len(p.Point), d)
+		return nil, fmt.Errorf("%w: point has %d entries for %d variables", rlct.ErrDimension, len(p.Point), d)
 	}
 	out := make([]float64, d)
 	minusOne := big.NewRat(-1, 1)
@@ -214,7 +228,7 @@ func EstimatePrior(p *Problem) ([]float64, error) {
 			continue
 		}
 		if p.Prior[i].Cmp(minusOne) <= 0 {
-			return nil, fmt.Errorf("%w: %s has exponent %s", ErrPrior, vars[i], p.Prior[i].RatString())
+			return nil, fmt.Errorf("%w: %s has exponent %s", rlct.ErrPrior, vars[i], p.Prior[i].RatString())
 		}
 		if p.Point != nil && p.Point[i] != nil && p.Point[i].Sign() != 0 {
 			continue
@@ -222,4 +236,42 @@ func EstimatePrior(p *Problem) ([]float64, error) {
 		out[i], _ = p.Prior[i].Float64()
 	}
 	return out, nil
+}
+
+// forms returns the variables and the polynomials to evaluate (K alone, or
+// the generators), with the errors rlct.Bound gives for a malformed problem.
+func forms(p *rlct.Problem) ([]string, []*monomial.Poly, error) {
+	switch {
+	case p.K != nil && p.Generators != nil:
+		return nil, nil, rlct.ErrTwoForms
+	case p.K != nil:
+		if p.K.NumVars() == 0 {
+			return nil, nil, rlct.ErrNoVariables
+		}
+		return p.K.Vars(), []*monomial.Poly{p.K}, nil
+	case len(p.Generators) > 0:
+		vars := p.Generators[0].Vars()
+		if len(vars) == 0 {
+			return nil, nil, rlct.ErrNoVariables
+		}
+		out := make([]*monomial.Poly, len(p.Generators))
+		for i, g := range p.Generators {
+			if g == nil || !slices.Equal(vars, g.Vars()) {
+				return nil, nil, fmt.Errorf("%w (generator %d)", rlct.ErrVariables, i+1)
+			}
+			out[i] = g
+		}
+		return vars, out, nil
+	}
+	return nil, nil, rlct.ErrNoFunction
+}
+
+// isOrigin reports whether every coordinate of x is 0 (nil counts as 0).
+func isOrigin(x []*big.Rat) bool {
+	for _, v := range x {
+		if v != nil && v.Sign() != 0 {
+			return false
+		}
+	}
+	return true
 }

@@ -1,4 +1,4 @@
-package rlct_test
+package estimate_test
 
 import (
 	"context"
@@ -10,7 +10,7 @@ import (
 	"time"
 
 	"github.com/lctkit/lctkit/monomial"
-	"github.com/lctkit/lctkit/rlct"
+	"github.com/lctkit/lctkit/rlct/estimate"
 )
 
 // benchSizes are the numbers of variables of the benchmarks, with the degree
@@ -58,9 +58,9 @@ func randomSumOfSquares(d, degree int, seed uint64) *monomial.Poly {
 	return k
 }
 
-// BenchmarkEstimateEval measures evaluations of a compiled 1000-term K per
-// second, the inner cost of EstimateThreshold.
-func BenchmarkEstimateEval(b *testing.B) {
+// BenchmarkEval measures evaluations of a compiled 1000-term K per
+// second, the inner cost of Run.
+func BenchmarkEval(b *testing.B) {
 	for _, s := range benchSizes {
 		k := randomSumOfSquares(s.d, s.degree, 1)
 		c := k.Compile()
@@ -87,14 +87,14 @@ func BenchmarkEstimateEval(b *testing.B) {
 	}
 }
 
-// BenchmarkEstimateThreshold runs EstimateThreshold on a random 1000-term K
+// BenchmarkRun runs Run on a random 1000-term K
 // (regular, λ = d/2) on [−1/2,1/2]^d (on [−1,1]^d its higher-degree terms
 // dominate the low end of the grid) with Live·Runs live points in all, and
 // reports λ̂, its standard error, evaluations per second over the workers,
 // and the wall time projected to reach se(λ̂) = 0.02 from the measured one,
 // using that se(λ̂) falls like 1/sqrt(Live·Runs) while the work grows like
 // Live·Runs (a projection, not a measurement). Run with -benchtime=1x.
-func BenchmarkEstimateThreshold(b *testing.B) {
+func BenchmarkRun(b *testing.B) {
 	for _, s := range benchSizes {
 		k := randomSumOfSquares(s.d, s.degree, 1).Compile()
 		b.Run(fmt.Sprintf("d=%d", s.d), func(b *testing.B) {
@@ -102,14 +102,14 @@ func BenchmarkEstimateThreshold(b *testing.B) {
 			for i := range lo {
 				lo[i], hi[i] = -0.5, 0.5
 			}
-			opt := rlct.EstimateOptions{Lower: lo, Upper: hi, Live: 50, Runs: 8, Seed: 1}
+			opt := estimate.Options{Lower: lo, Upper: hi, Live: 50, Runs: 8, Seed: 1}
 			b.ReportAllocs()
-			var e *rlct.Estimate
+			var e *estimate.Result
 			var wall time.Duration
 			for b.Loop() {
 				start := time.Now()
 				var err error
-				if e, err = rlct.EstimateThreshold(context.Background(), k, opt); err != nil {
+				if e, err = estimate.Run(context.Background(), k, opt); err != nil {
 					b.Fatal(err)
 				}
 				wall = time.Since(start)

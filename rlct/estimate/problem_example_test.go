@@ -1,16 +1,17 @@
-package rlct_test
+package estimate_test
 
 import (
 	"context"
 	"fmt"
 
 	"github.com/lctkit/lctkit/rlct"
+	"github.com/lctkit/lctkit/rlct/estimate"
 )
 
-// ExampleEstimateProblem estimates λ for K = (x − 1)² − 2(x − 1)y + y² at
+// ExampleProblem estimates λ for K = (x − 1)² − 2(x − 1)y + y² at
 // x = 1, which is u² − 2uy + y² = (u − y)² in the offset u = x − 1: the Newton
 // polyhedron gives the bound 1, while λ = 1/2.
-func ExampleEstimateProblem() {
+func ExampleProblem() {
 	s := rlct.Spec{K: "(x-1)^2 - 2*(x-1)*y + y^2", At: []string{"x=1"}}
 	p, points, err := s.Problem()
 	if err != nil {
@@ -23,7 +24,7 @@ func ExampleEstimateProblem() {
 		fmt.Println(err)
 		return
 	}
-	e, err := rlct.EstimateProblem(context.Background(), p, rlct.EstimateOptions{
+	e, err := estimate.Problem(context.Background(), p, estimate.Options{
 		Lower: []float64{-1, -1}, // offsets from the point
 		Upper: []float64{1, 1},
 		Live:  50, Runs: 8, Seed: 1,
@@ -35,7 +36,7 @@ func ExampleEstimateProblem() {
 	l, _ := bound.Lambda.Float64()
 	fmt.Printf("Newton bound λ = %s (%s)\n", bound.Lambda.RatString(), bound.Status)
 	fmt.Printf("estimate λ ≈ %.1f\n", e.Lambda)
-	fmt.Println(e.Compare(l).Consistent)
+	fmt.Println(e.Compare(l, bound.Status).Consistent)
 	// Output:
 	// Newton bound λ = 1 (upper-bound)
 	// estimate λ ≈ 0.5

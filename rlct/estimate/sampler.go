@@ -1,7 +1,7 @@
-// Nested-sampling runs for EstimateThreshold: the prior transform, the
-// constrained slice sampler and one run.
+// Nested-sampling runs for Run: the random streams, the prior transform,
+// the constrained slice sampler and one run.
 
-package rlct
+package estimate
 
 import (
 	"context"
@@ -9,7 +9,31 @@ import (
 	"math"
 	"math/rand/v2"
 	"slices"
+
+	"gonum.org/v1/gonum/floats"
+	"gonum.org/v1/gonum/mat"
+	"gonum.org/v1/gonum/mathext/prng"
+	"gonum.org/v1/gonum/stat"
+	"gonum.org/v1/gonum/stat/distuv"
 )
+
+// stream is the random stream of one run: a xoshiro256++ generator from
+// gonum/mathext/prng, read through gonum/stat/distuv for uniform reals and
+// through math/rand/v2 for integers.
+type stream struct {
+	src *prng.Xoshiro256plusplus
+	*rand.Rand
+}
+
+func newStream(seed uint64) *stream {
+	src := prng.NewXoshiro256plusplus(seed)
+	return &stream{src: src, Rand: rand.New(src)}
+}
+
+// uniform returns a draw from the uniform distribution on [lo, hi).
+func (s *stream) uniform(lo, hi float64) float64 {
+	return distuv.Uniform{Min: lo, Max: hi, Src: s.src}.Rand()
+}
 
 // priorBox maps the box with prior ∏|w_i|^(h_i) to coordinates v in which the
 // prior is uniform: v_i = G_i(w_i)/T_i with G(w) = sign(w)·|w|^(h+1)/(h+1) and
@@ -38,7 +62,7 @@ func newPriorBox(lower, upper, prior []float64) (priorBox, error) {
 		ga, gb := g(lower[i]), g(upper[i])
 		t := gb - ga
 		if !(t > 0) || math.IsInf(t, 0) {
-			return priorBox{}, fmt.Errorf("rlct: prior mass of variable %d over [%g, %g] with h = %g is not a positive finite number",
+			return priorBox{}, fmt.Errorf("estimate: prior mass of variable %d over [%g, %g] with h = %g is not a positive finite number",
 				i, lower[i], upper[i], h)
 		}
 		p.lo[i], p.hi[i] = ga/t, gb/t
@@ -71,12 +95,9 @@ func (p *priorBox) inside(v []float64) bool {
 }
 
 // draw fills v with a point from the prior.
-func (p *priorBox) draw(rng *rand.Rand, v []float64) {
+func (p *priorBox) draw(rng *stream, v []float64) {
 	for i := range v {
-		v[i] = p.lo[i] + rng.Float64()
-		if v[i] > p.hi[i] { // rounding
-			v[i] = p.hi[i]
-		}
+		v[i] = min(rng.uniform(p.lo[i], p.hi[i]), p.hi[i]) // min: rounding
 	}
 }
 
@@ -90,21 +111,26 @@ type kReader struct {
 	evals    int64
 }
 
-func newKReader(c *estimateConfig) *kReader {
+func newKReader(c *config) *kReader {
 	return &kReader{k: c.k, box: &c.box, roundOff: c.roundOff, w: make([]float64, c.d)}
 }
 
 func (r *kReader) eval(v []float64) (float64, error) {
 	r.box.toW(r.w, v)
+	return r.evalW(r.w)
+}
+
+// evalW evaluates K at a point w given in box coordinates.
+func (r *kReader) evalW(w []float64) (float64, error) {
 	r.evals++
-	k := r.k.Eval(r.w)
+	k := r.k.Eval(w)
 	if k >= 0 && !math.IsInf(k, 1) {
 		return k, nil
 	}
 	if k < 0 && k >= -r.roundOff {
 		return 0, nil
 	}
-	return 0, &KValueError{Point: slices.Clone(r.w), Value: k}
+	return 0, &KValueError{Point: slices.Clone(w), Value: k}
 }
 
 // nsPoint is a removed point of a run: its K and the level of the constraint
@@ -119,6 +145,8 @@ type nsRun struct {
 	points []nsPoint
 	depth  float64 // −log X when the run stopped
 	evals  int64
+	final  []float64 // the final live points in box coordinates w, row-major
+	finalK []float64 // K at the final live points
 }
 
 // runSettings are the per-estimate quantities a run needs.
@@ -131,12 +159,13 @@ type runSettings struct {
 
 // slicer draws new points for one run.
 type slicer struct {
-	rng    *rand.Rand
+	rng    *stream
 	reader *kReader
 	d      int
 	live   []float64 // live points, row-major Live × d
 	n      int       // number of live points
 	width  []float64 // per-coordinate step width for axis moves
+	column []float64 // scratch for one coordinate of the live points
 	cur    []float64
 	trial  []float64
 	dir    []float64
@@ -150,21 +179,13 @@ const (
 	maxShrink  = 200
 )
 
-// updateWidths sets the axis step widths to twice the spread of the live
-// points in each coordinate.
+// updateWidths sets the axis step widths to twice the spread (population
+// standard deviation) of the live points in each coordinate.
 func (s *slicer) updateWidths() {
+	live := mat.NewDense(s.n, s.d, s.live)
 	for i := range s.d {
-		var mean, sq float64
-		for j := range s.n {
-			mean += s.live[j*s.d+i]
-		}
-		mean /= float64(s.n)
-		for j := range s.n {
-			x := s.live[j*s.d+i] - mean
-			sq += x * x
-		}
-		sd := math.Sqrt(sq / float64(s.n))
-		s.width[i] = 2*sd + 1e-300
+		mat.Col(s.column, i, live)
+		s.width[i] = 2*stat.PopStdDev(s.column, nil) + 1e-300
 	}
 }
 
@@ -190,9 +211,9 @@ func (s *slicer) move(kcur, eps, w float64) (float64, error) {
 		}
 		return s.trial
 	}
-	left := -w * s.rng.Float64()
+	left := s.rng.uniform(-w, 0)
 	right := left + w
-	j := int(maxStepOut * s.rng.Float64())
+	j := s.rng.IntN(maxStepOut)
 	kk := maxStepOut - 1 - j
 	for ; j > 0; j-- {
 		ok, _, err := s.in(at(left), eps)
@@ -215,7 +236,7 @@ func (s *slicer) move(kcur, eps, w float64) (float64, error) {
 		right += w
 	}
 	for range maxShrink {
-		t := left + s.rng.Float64()*(right-left)
+		t := s.rng.uniform(left, right)
 		ok, k, err := s.in(at(t), eps)
 		if err != nil {
 			return 0, err
@@ -286,11 +307,11 @@ func (s *slicer) otherPair(x, y int) (int, int) {
 // run performs one nested-sampling run from the given initial live points
 // (row-major, with their K values); report receives the fraction of the run
 // done.
-func (c *estimateConfig) run(ctx context.Context, rng *rand.Rand, initial, kinit []float64,
+func (c *config) run(ctx context.Context, rng *stream, initial, kinit []float64,
 	set runSettings, report func(float64)) (*nsRun, error) {
 	n, d := c.live, c.d
 	s := &slicer{rng: rng, reader: newKReader(c), d: d, live: slices.Clone(initial), n: n,
-		width: make([]float64, d), cur: make([]float64, d), trial: make([]float64, d), dir: make([]float64, d)}
+		width: make([]float64, d), column: make([]float64, n), cur: make([]float64, d), trial: make([]float64, d), dir: make([]float64, d)}
 	kl := slices.Clone(kinit)
 	birth := make([]float64, n)
 	for i := range birth {
@@ -340,7 +361,7 @@ func (c *estimateConfig) run(ctx context.Context, rng *rand.Rand, initial, kinit
 			return nil, ErrNoProgress
 		}
 		out.points = append(out.points, nsPoint{k: eps, birth: birth[worst]})
-		logZ = logAddExp(logZ, logX-math.Log(float64(n+1))-set.nMax*eps)
+		logZ = floats.LogSumExp([]float64{logZ, logX - math.Log(float64(n+1)) - set.nMax*eps})
 		logX += shrink
 		// Start from a random surviving live point strictly inside.
 		start := rng.IntN(n - 1)
@@ -371,8 +392,11 @@ func (c *estimateConfig) run(ctx context.Context, rng *rand.Rand, initial, kinit
 		}
 		return 0
 	})
-	for _, i := range idx {
+	out.final, out.finalK = make([]float64, n*d), make([]float64, n)
+	for j, i := range idx {
 		out.points = append(out.points, nsPoint{k: kl[i], birth: birth[i]})
+		c.box.toW(out.final[j*d:(j+1)*d], s.live[i*d:(i+1)*d])
+		out.finalK[j] = kl[i]
 	}
 	out.depth = -logX
 	out.evals = s.reader.evals
@@ -380,15 +404,4 @@ func (c *estimateConfig) run(ctx context.Context, rng *rand.Rand, initial, kinit
 		report(1)
 	}
 	return out, nil
-}
-
-// logAddExp returns log(e^a + e^b).
-func logAddExp(a, b float64) float64 {
-	if a < b {
-		a, b = b, a
-	}
-	if math.IsInf(b, -1) {
-		return a
-	}
-	return a + math.Log1p(math.Exp(b-a))
 }
