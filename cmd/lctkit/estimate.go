@@ -29,6 +29,7 @@ type estimateCmd struct {
 	Order    int       `help:"Truncate power series at this total degree; needed for exp, log, sin, … and division by non-constants." placeholder:"D"`
 	Vars     string    `help:"Variables that come first, in this order; names K does not use still count as dimensions." placeholder:"x,y,z"`
 	MaxFaces int       `name:"max-faces" help:"Most compact faces the certificate of the Newton bound examines before it stops with an upper bound (default 20000)." placeholder:"N"`
+	MaxTerms int       `name:"max-terms" help:"Most terms an expansion may have (default 2000000)." placeholder:"N"`
 
 	Box     boxFlag `help:"The box sampled, as offsets from the point: R (meaning -R:R) or A:B for every variable, or per variable x=0:1,y=0.5; unnamed variables get -1:1." placeholder:"x=0:1,y=-1:1"`
 	Live    int     `help:"Live points per run (default 200; at least 10)." placeholder:"N"`
@@ -89,11 +90,22 @@ func (c *estimateCmd) Run(e *env) error {
 	return err
 }
 
-func (c *estimateCmd) run(e *env) error {
-	flags := problemFlags{Prior: c.Prior, SOS: c.SOS, Order: c.Order, Vars: c.Vars, MaxFaces: c.MaxFaces}
+// problem returns the flags as those of bound, with the one point.
+func (c *estimateCmd) problem() *problemFlags {
+	f := &problemFlags{Prior: c.Prior, SOS: c.SOS, Order: c.Order, Vars: c.Vars, MaxFaces: c.MaxFaces, MaxTerms: c.MaxTerms}
 	if c.At.set {
-		flags.At = []string{c.At.value}
+		f.At = []string{c.At.value}
 	}
+	return f
+}
+
+// Validate checks the flags' ranges before Run, as for bound.
+func (c *estimateCmd) Validate() error {
+	return c.problem().Validate()
+}
+
+func (c *estimateCmd) run(e *env) error {
+	flags := c.problem()
 	s, note, err := flags.spec(c.Expr, e)
 	if err != nil {
 		return err
@@ -179,14 +191,7 @@ func (c *estimateCmd) run(e *env) error {
 // near it, or the problem is malformed. Other failures (a work limit of the
 // polyhedron) leave the estimate meaningful; it is printed without a bound.
 func boundRefuses(err error) bool {
-	for _, target := range []error{rlct.ErrZero, rlct.ErrNotVanish, rlct.ErrNegative, rlct.ErrPrior,
-		rlct.ErrNoFunction, rlct.ErrTwoForms, rlct.ErrVariables, rlct.ErrDimension, rlct.ErrNoVariables,
-		rlct.ErrShiftSeries} {
-		if errors.Is(err, target) {
-			return true
-		}
-	}
-	return false
+	return errors.Is(err, rlct.ErrInput)
 }
 
 // negativeKError names the point where K was found negative, both as offsets
