@@ -551,6 +551,9 @@ func TestEstimateErrors(t *testing.T) {
 		{[]string{"x^2+y^2+1"}, exitFailed, "K does not vanish at the point"},
 		{[]string{"x^3+y^2"}, exitFailed, "K takes negative values near the point"},
 		{[]string{"x^2+y^2", "--at", "x=0", "--at", "x=1"}, exitUsage, "one point at a time"},
+		// The flag checks of bound apply to estimate too.
+		{[]string{"x^2+y^2", "--order", "-1"}, exitUsage, "--order must not be negative"},
+		{[]string{"x^2+y^2", "--max-terms", "-1"}, exitUsage, "--max-terms must not be negative"},
 		{[]string{"x^2+y^2", "--live", "5"}, exitFailed, "need at least 10 live points"},
 		{[]string{"x^2+y^2", "--box"}, exitUsage, "expected box value"},
 		{[]string{"x^2+y^2", "--live", "many"}, exitUsage, "--live"},
