@@ -3,11 +3,11 @@ package main
 import (
 	"context"
 	"fmt"
-	"math/big"
 	"os"
 	"strings"
 
 	"github.com/lctkit/lctkit/rlct"
+	"github.com/lctkit/lctkit/rlct/picture"
 )
 
 // drawCmd writes a picture of the Newton polyhedron as SVG.
@@ -52,13 +52,13 @@ func (c *drawCmd) Run(e *env) error {
 	} else {
 		vars = p.Generators[0].Vars()
 	}
-	if n := len(vars); n < 2 || n > 3 {
+	if n := len(vars); n < picture.MinVars || n > picture.MaxVars {
 		hint := ""
-		if n < 2 {
+		if n < picture.MinVars {
 			hint = " (add a dimension with --vars, for example --vars " + vars[0] + ",y)"
 		}
-		return fmt.Errorf("draw supports 2 or 3 variables, and K has %d (%s)%s; lctkit faces lists the Newton polyhedron in any dimension",
-			n, strings.Join(vars, ", "), hint)
+		return fmt.Errorf("draw supports %d or %d variables, and K has %d (%s)%s; lctkit faces lists the Newton polyhedron in any dimension",
+			picture.MinVars, picture.MaxVars, n, strings.Join(vars, ", "), hint)
 	}
 	if len(points) == 1 {
 		p.Point = points[0]
@@ -67,12 +67,15 @@ func (c *drawCmd) Run(e *env) error {
 	if err != nil {
 		return err
 	}
-	svg := drawPicture(d, pictureTitle(s))
-	if c.Output == "-" {
-		_, err := e.stdout.Write([]byte(svg))
+	svg, err := picture.SVG(d, pictureTitle(s))
+	if err != nil {
 		return err
 	}
-	if err := os.WriteFile(c.Output, []byte(svg), 0o644); err != nil {
+	if c.Output == "-" {
+		_, err := e.stdout.Write(svg)
+		return err
+	}
+	if err := os.WriteFile(c.Output, svg, 0o644); err != nil {
 		return fmt.Errorf("writing the picture: %w", err)
 	}
 	return nil
@@ -91,233 +94,4 @@ func pictureTitle(s *rlct.Spec) string {
 		return "K = " + strings.Join(parts, " + ")
 	}
 	return "K = " + s.K
-}
-
-// Page layout, in pixels. The picture is 600 px wide; the plot is a square
-// under the title, with the legend and the caption below it.
-const (
-	pageWidth   = 600
-	plotLeft    = 72
-	plotTop     = 78
-	plotSize    = 470
-	legendRow   = 22
-	captionLine = 21
-)
-
-// legendItem is one entry of the legend: a swatch drawn by kind and a label
-// given as markup.
-type legendItem struct {
-	kind  string
-	label string
-}
-
-// drawPicture lays out the page around the 2-D or 3-D plot.
-func drawPicture(d *rlct.Description, title string) string {
-	var body svgDoc
-	var legend []legendItem
-	var bottom float64 // the lowest point of the plot and its labels
-	var stretched bool // the axes have different scales
-	if len(d.Vars) == 2 {
-		legend, bottom, stretched = draw2D(&body, d)
-	} else {
-		legend, bottom, stretched = draw3D(&body, d)
-	}
-
-	var s svgDoc
-	y := bottom + 32
-	legendTop := y
-	rows := (len(legend) + 1) / 2
-	y += float64(rows*legendRow) + 16
-	captionTop := y
-	caption := captionLines(d, stretched)
-	height := captionTop + float64(len(caption)*captionLine) + 12
-
-	s.printf(`<svg xmlns="http://www.w3.org/2000/svg" width="%d" height="%s" viewBox="0 0 %d %s" font-family="%s">`+"\n",
-		pageWidth, num(height), pageWidth, num(height), fontFamily)
-	s.printf("<title>%s</title>\n", esc("Newton polyhedron of "+shorten(title, 200)))
-	s.printf(`<defs>` + "\n")
-	for _, m := range []struct{ id, color string }{{"arrow-blue", colorBlue}, {"arrow-black", colorBlack}, {"arrow-vermillion", colorVermillion}} {
-		s.printf(`<marker id="%s" viewBox="0 0 10 10" refX="9" refY="5" markerWidth="10" markerHeight="10" orient="auto" markerUnits="userSpaceOnUse"><path d="M0,0 L10,5 L0,10 z" fill="%s"/></marker>`+"\n", m.id, m.color)
-	}
-	s.printf(`<linearGradient id="fade-up" x1="0" y1="1" x2="0" y2="0"><stop offset="0" stop-color="#FFFFFF" stop-opacity="0"/><stop offset="1" stop-color="#FFFFFF" stop-opacity="0.9"/></linearGradient>` + "\n")
-	s.printf(`<linearGradient id="fade-right" x1="0" y1="0" x2="1" y2="0"><stop offset="0" stop-color="#FFFFFF" stop-opacity="0"/><stop offset="1" stop-color="#FFFFFF" stop-opacity="0.9"/></linearGradient>` + "\n")
-	s.printf(`<pattern id="hatch" width="7" height="7" patternUnits="userSpaceOnUse" patternTransform="rotate(45)"><line x1="0" y1="0" x2="0" y2="7" stroke="%s" stroke-width="2.5"/></pattern>`+"\n", colorVermillion)
-	s.printf("</defs>\n")
-	s.printf(`<rect width="100%%" height="100%%" fill="#FFFFFF"/>` + "\n")
-
-	s.text(point{pageWidth / 2, 30}, `class="title" text-anchor="middle" font-size="18" font-weight="bold"`, shorten(title, 48))
-	s.text(point{pageWidth / 2, 53}, `class="subtitle" text-anchor="middle" font-size="14" fill="`+colorMuted+`"`, shorten(subtitle(d), 72))
-	s.b.WriteString(body.b.String())
-
-	s.printf(`<g class="legend" font-size="13">` + "\n")
-	for i, it := range legend {
-		x := 20.0 + float64(i%2)*290
-		ly := legendTop + float64(i/2)*legendRow
-		legendSwatch(&s, it.kind, point{x, ly - 4.5})
-		s.markup(point{x + 42, ly}, `class="legend-label"`, it.label)
-	}
-	s.printf("</g>\n")
-
-	s.printf(`<g class="caption">` + "\n")
-	for i, c := range caption {
-		s.markup(point{24, captionTop + float64(i*captionLine)}, c.attrs, c.markup)
-	}
-	s.printf("</g>\n</svg>\n")
-	return s.b.String()
-}
-
-// subtitle says where the polyhedron lives.
-func subtitle(d *rlct.Description) string {
-	names := make([]string, len(d.Vars))
-	for i := range d.Vars {
-		names[i] = strings.Trim(axisName(d, i), "()")
-	}
-	parts := []string{"Newton polyhedron P(K), exponents of " + strings.Join(names, ", ")}
-	if allZero(d.Point) {
-		parts[0] += " at the origin"
-	}
-	var prior []string
-	for i, h := range d.Prior {
-		if h.Sign() != 0 {
-			prior = append(prior, d.Vars[i]+"="+h.RatString())
-		}
-	}
-	if prior != nil {
-		parts = append(parts, "prior "+strings.Join(prior, ","))
-	}
-	if d.Form == "sum-of-squares" {
-		parts = append(parts, "P(K) = 2·P(g)")
-	}
-	return strings.Join(parts, "; ")
-}
-
-// legendSwatch draws the sample for a legend entry centred vertically at c.y,
-// starting at c.x and 34 px wide.
-func legendSwatch(s *svgDoc, kind string, c point) {
-	a, b := point{c.x, c.y}, point{c.x + 34, c.y}
-	switch kind {
-	case "region":
-		s.printf(`<rect x="%s" y="%s" width="34" height="14" fill="%s" fill-opacity="0.35" stroke="%s" stroke-width="2"/>`+"\n",
-			num(c.x), num(c.y-7), colorSkyBlue, colorBlue)
-	case "unbounded-face":
-		s.printf(`<rect x="%s" y="%s" width="34" height="14" fill="%s" fill-opacity="0.18" stroke="%s" stroke-width="1" stroke-dasharray="2 3"/>`+"\n",
-			num(c.x), num(c.y-7), colorSkyBlue, colorBlue)
-	case "compact-face":
-		s.printf(`<rect x="%s" y="%s" width="34" height="14" fill="%s" fill-opacity="0.5" stroke="%s" stroke-width="2"/>`+"\n",
-			num(c.x), num(c.y-7), colorGreen, colorBlue)
-	case "continues":
-		s.line(a, b, `stroke="`+colorBlue+`" stroke-width="2.5" marker-end="url(#arrow-blue)"`)
-	case "principal":
-		s.line(a, b, principalStroke)
-	case "principal-face":
-		s.printf(`<rect x="%s" y="%s" width="34" height="14" fill="url(#hatch)" stroke="%s" stroke-width="2"/>`+"\n",
-			num(c.x), num(c.y-7), colorVermillion)
-	case "principal-vertex":
-		s.circle(point{c.x + 17, c.y}, 10, principalRing)
-		s.circle(point{c.x + 17, c.y}, 4.5, vertexStyle)
-	case "degenerate":
-		s.line(a, b, degenerateStroke)
-	case "undetermined":
-		s.line(a, b, undeterminedStroke)
-	case "ray":
-		s.line(a, b, rayStroke)
-	case "hit":
-		s.diamond(point{c.x + 17, c.y}, 8, hitStyle)
-	case "vertex":
-		s.circle(point{c.x + 17, c.y}, 4.5, vertexStyle)
-	case "support":
-		s.circle(point{c.x + 17, c.y}, 3.5, supportStyle)
-	}
-}
-
-// Styles shared by the 2-D and 3-D drawings.
-const (
-	boundaryStroke     = `stroke="` + colorBlue + `" stroke-width="2.5" stroke-linejoin="round"`
-	principalStroke    = `stroke="` + colorVermillion + `" stroke-width="8" stroke-linecap="round" stroke-opacity="0.9"`
-	principalRing      = `fill="none" stroke="` + colorVermillion + `" stroke-width="4"`
-	degenerateStroke   = `stroke="` + colorPurple + `" stroke-width="5" stroke-linecap="round" stroke-dasharray="0.1 9"`
-	undeterminedStroke = `stroke="` + colorPurple + `" stroke-width="4" stroke-dasharray="10 5"`
-	rayStroke          = `stroke="` + colorBlack + `" stroke-width="2" stroke-dasharray="8 5"`
-	hitStyle           = `fill="` + colorYellow + `" stroke="` + colorBlack + `" stroke-width="2"`
-	vertexStyle        = `fill="` + colorBlack + `"`
-	supportStyle       = `fill="#FFFFFF" stroke="` + colorMuted + `" stroke-width="1.5"`
-)
-
-// captionText is one caption line.
-type captionText struct {
-	attrs, markup string
-}
-
-// captionLines states λ, θ, the status and where they come from, and warns
-// when the axes are drawn to different scales.
-func captionLines(d *rlct.Description, stretched bool) []captionText {
-	status := statusWord(d.Status)
-	lines := []captionText{{
-		`class="caption-result" font-size="18" font-weight="bold"`,
-		esc(fmt.Sprintf("λ = %s\u2003\u2003θ = %d\u2003\u2003%s", d.Lambda.RatString(), d.Theta, status)),
-	}}
-	plain := `class="caption-text" font-size="14"`
-	lines = append(lines,
-		captionText{plain, esc("The ray along τ = ("+ratList(d.Weights)+") meets P(K) at ") + sub("t", "τ", "·τ = ("+ratList(d.Hit)+"),")},
-		captionText{plain, esc("so ") + sub("t", "τ", " = "+d.Distance.RatString()+" and λ = 1/") + sub("t", "τ", " = "+d.Lambda.RatString()+"; θ is the codimension of the principal face.")},
-	)
-	var why string
-	switch d.Status {
-	case rlct.Exact:
-		why = "Exact: every compact face is nondegenerate (face polynomial without zeros in the real torus)."
-	case rlct.UpperBound:
-		why = "Upper bound only (the true λ is at most this; at equal λ the true θ is at least this): " + upperBoundWhy(d) + "; see lctkit faces for the details."
-	default:
-		why = "Not a bound: this value of a truncated series may lie below the true λ; " + upperBoundWhy(d) + "; see lctkit bound for the order that would certify it."
-	}
-	if stretched {
-		why += " The axes are drawn to different scales."
-	}
-	for _, l := range wrap(why, 74) {
-		lines = append(lines, captionText{plain, esc(l)})
-	}
-	return lines
-}
-
-// upperBoundWhy summarises the reasons for an upper bound in a few words.
-func upperBoundWhy(d *rlct.Description) string {
-	var degenerate, undetermined int
-	for _, f := range d.Faces {
-		switch f.Verdict {
-		case rlct.Degenerate:
-			degenerate++
-		case rlct.Undetermined:
-			undetermined++
-		}
-	}
-	var parts []string
-	if degenerate > 0 {
-		parts = append(parts, plural(degenerate, "compact face is", "compact faces are")+" degenerate (dotted)")
-	}
-	if undetermined > 0 {
-		parts = append(parts, plural(undetermined, "compact face is", "compact faces are")+" undetermined (dashed)")
-	}
-	if d.Truncation != nil && !d.Truncation.Faces {
-		parts = append(parts, "the truncated series is not certified long enough")
-	}
-	if d.Certificate != nil && d.Certificate.Stop == rlct.StopBudget {
-		parts = append(parts, "the face budget was reached")
-	}
-	if len(parts) == 0 && len(d.Reasons) > 0 {
-		parts = append(parts, shorten(d.Reasons[0], 120))
-	}
-	return strings.Join(parts, "; ")
-}
-
-func plural(n int, one, many string) string {
-	if n == 1 {
-		return "1 " + one
-	}
-	return fmt.Sprintf("%d %s", n, many)
-}
-
-// float converts an exact rational to a drawing coordinate.
-func float(r *big.Rat) float64 {
-	f, _ := r.Float64()
-	return f
 }

@@ -9,6 +9,10 @@ import (
 	"unicode/utf8"
 )
 
+// This file holds the SVG writer of the pictures the command draws itself
+// (the estimate plot); the pictures of Newton polyhedra are drawn by package
+// rlct/picture.
+
 // The Okabe–Ito palette (Okabe and Ito 2008, "Color Universal Design"),
 // distinguishable by readers with the common colour-vision deficiencies.
 // The figures never rely on colour alone: every element also differs by line
@@ -73,17 +77,8 @@ func (s *svgDoc) polyline(pts []point, attrs string) {
 	s.printf(`<polyline points="%s" fill="none" %s/>`+"\n", pointList(pts), attrs)
 }
 
-func (s *svgDoc) polygon(pts []point, attrs string) {
-	s.printf(`<polygon points="%s" %s/>`+"\n", pointList(pts), attrs)
-}
-
 func (s *svgDoc) circle(c point, r float64, attrs string) {
 	s.printf(`<circle cx="%s" cy="%s" r="%s" %s/>`+"\n", num(c.x), num(c.y), num(r), attrs)
-}
-
-// diamond draws the marker of the hit point t_τ·τ.
-func (s *svgDoc) diamond(c point, r float64, attrs string) {
-	s.polygon([]point{{c.x, c.y - r}, {c.x + r, c.y}, {c.x, c.y + r}, {c.x - r, c.y}}, attrs)
 }
 
 // text writes plain text (escaped here).
@@ -99,17 +94,6 @@ func (s *svgDoc) markup(p point, attrs, content string) {
 // halo is the text style that keeps labels legible over lines and fills.
 const halo = `stroke="#FFFFFF" stroke-width="4" stroke-linejoin="round" paint-order="stroke"`
 
-// sub writes base with a subscript, followed by rest, as markup:
-// sub("t", "τ", " = 2") is t_τ = 2. The subscript is set with dy rather than
-// baseline-shift, which some viewers ignore.
-func sub(base, subscript, rest string) string {
-	m := esc(base) + `<tspan dy="0.3em" font-size="75%">` + esc(subscript) + `</tspan>`
-	if rest != "" {
-		m += `<tspan dy="-0.3em">` + esc(rest) + `</tspan>`
-	}
-	return m
-}
-
 var superscriptDigits = []rune("⁰¹²³⁴⁵⁶⁷⁸⁹")
 
 // superscript writes a non-negative integer in superscript digits.
@@ -119,44 +103,6 @@ func superscript(n int) string {
 		b.WriteRune(superscriptDigits[r-'0'])
 	}
 	return b.String()
-}
-
-// monomialLabel writes w^e as it is set in print, such as x⁴y⁶, with a
-// middle dot between factors when some variable name is longer than one
-// letter (v1²·v2).
-func monomialLabel(vars []string, e []int) string {
-	sep := ""
-	for _, v := range vars {
-		if utf8.RuneCountInString(v) > 1 {
-			sep = "·"
-		}
-	}
-	var parts []string
-	for i, x := range e {
-		switch x {
-		case 0:
-		case 1:
-			parts = append(parts, vars[i])
-		default:
-			parts = append(parts, vars[i]+superscript(x))
-		}
-	}
-	if len(parts) == 0 {
-		return "1"
-	}
-	return strings.Join(parts, sep)
-}
-
-// niceStep returns the smallest of 1, 2, 5, 10, 20, 50, … that splits
-// [0, span] into at most n steps.
-func niceStep(span float64, n int) int {
-	for step := 1; ; step *= 10 {
-		for _, m := range []int{1, 2, 5} {
-			if span/float64(step*m) <= float64(n) {
-				return step * m
-			}
-		}
-	}
 }
 
 // shorten cuts s to at most n runes, ending in "…" when cut, after
@@ -189,4 +135,30 @@ func wrap(s string, n int) []string {
 		lines = append(lines, cur)
 	}
 	return lines
+}
+
+// Layout shared by the pictures the command draws itself, in pixels: the
+// height of a legend row and of a caption line.
+const (
+	legendRow   = 22
+	captionLine = 21
+)
+
+// legendItem is one entry of a legend: a swatch drawn by kind and a label
+// given as markup.
+type legendItem struct {
+	kind  string
+	label string
+}
+
+// captionText is one caption line.
+type captionText struct {
+	attrs, markup string
+}
+
+func plural(n int, one, many string) string {
+	if n == 1 {
+		return "1 " + one
+	}
+	return fmt.Sprintf("%d %s", n, many)
 }
