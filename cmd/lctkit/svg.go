@@ -20,12 +20,8 @@ import (
 const (
 	colorBlack      = "#000000"
 	colorOrange     = "#E69F00"
-	colorSkyBlue    = "#56B4E9"
-	colorGreen      = "#009E73"
-	colorYellow     = "#F0E442"
 	colorBlue       = "#0072B2"
 	colorVermillion = "#D55E00"
-	colorPurple     = "#CC79A7"
 	colorGrid       = "#DDDDDD"
 	colorMuted      = "#555555"
 )

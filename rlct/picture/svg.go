@@ -15,7 +15,6 @@ import (
 // style, marker shape or a text label.
 const (
 	colorBlack      = "#000000"
-	colorOrange     = "#E69F00"
 	colorSkyBlue    = "#56B4E9"
 	colorGreen      = "#009E73"
 	colorYellow     = "#F0E442"

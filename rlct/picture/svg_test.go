@@ -21,17 +21,6 @@ type svgElement struct {
 	text  string
 }
 
-// parseSVG reads the picture as XML, failing the test if it is not
-// well-formed.
-func parseSVG(t *testing.T, data []byte) []*svgElement {
-	t.Helper()
-	els, err := decodeSVG(data)
-	if err != nil {
-		t.Fatalf("the SVG is not well-formed XML: %v", err)
-	}
-	return els
-}
-
 func decodeSVG(data []byte) ([]*svgElement, error) {
 	dec := xml.NewDecoder(bytes.NewReader(data))
 	var all, open []*svgElement
