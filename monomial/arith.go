@@ -598,6 +598,47 @@ func (p *Poly) Pow(n int, lim Limits) (*Poly, error) {
 	return p.pow(n, -1, newGuard(lim))
 }
 
+// binomialPow returns (a·x^e + b·x^f)^n = Σ_k C(n,k)·a^k·b^(n−k)·x^(k·e + (n−k)·f)
+// (the binomial theorem, common practice), truncated to total degree maxDeg
+// when maxDeg >= 0: n+1 terms whose coefficients follow one another by
+// C(n,k+1) = C(n,k)·(n−k)/(k+1), instead of the n−1 products of a growing
+// polynomial that repeated multiplication needs. p must have two terms and
+// n·e, n·f must not overflow (Pow checks it).
+func (p *Poly) binomialPow(n, maxDeg int) *Poly {
+	e, f := p.exp(0), p.exp(1)
+	a, b := p.coefs[0].rat(), p.coefs[1].rat()
+	acc := newAccumulator(p.vars)
+	exp := make(Exponent, len(e))
+	binom := big.NewInt(1) // C(n, k)
+	ak := big.NewRat(1, 1) // a^k
+	bPow := make([]*big.Rat, n+1)
+	bPow[0] = big.NewRat(1, 1)
+	for k := 1; k <= n; k++ {
+		bPow[k] = new(big.Rat).Mul(bPow[k-1], b)
+	}
+	c := new(big.Rat)
+	for k := 0; k <= n; k++ {
+		if k > 0 {
+			binom.Mul(binom, big.NewInt(int64(n-k+1)))
+			binom.Quo(binom, big.NewInt(int64(k)))
+			ak.Mul(ak, a)
+		}
+		deg := 0
+		for i := range exp {
+			exp[i] = k*e[i] + (n-k)*f[i]
+			deg += exp[i]
+		}
+		if maxDeg >= 0 && deg > maxDeg {
+			continue
+		}
+		c.SetInt(binom)
+		c.Mul(c, ak)
+		c.Mul(c, bPow[n-k])
+		acc.add(exp, coefFromRat(c))
+	}
+	return acc.poly()
+}
+
 // pow computes p^n, truncated to total degree maxDeg when maxDeg >= 0.
 func (p *Poly) pow(n, maxDeg int, g *guard) (*Poly, error) {
 	if n == 0 {
@@ -629,6 +670,9 @@ func (p *Poly) pow(n, maxDeg int, g *guard) (*Poly, error) {
 		if m := p.MinDegree(); m > 0 && n > maxDeg/m {
 			return &Poly{vars: p.vars}, nil
 		}
+	}
+	if len(p.coefs) == 2 {
+		return p.binomialPow(n, maxDeg), nil
 	}
 	// Repeated multiplication by p: for sparse p the intermediate powers are
 	// much smaller than the squares that binary powering would form.

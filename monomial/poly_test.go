@@ -504,3 +504,43 @@ func TestMulPaths(t *testing.T) {
 		}
 	}
 }
+
+// Powers of two-term polynomials use the binomial theorem; they must equal
+// the product of n copies (computed here by repeated Mul), truncated or not.
+func TestBinomialPowAgreesWithProducts(t *testing.T) {
+	vars := []string{"x", "y", "z"}
+	rng := rand.New(rand.NewPCG(5, 6))
+	for trial := range 200 {
+		e := Exponent{rng.IntN(3), rng.IntN(3), rng.IntN(3)}
+		f := Exponent{rng.IntN(3), rng.IntN(3), rng.IntN(3)}
+		if slices.Equal(e, f) {
+			f[0]++
+		}
+		a := big.NewRat(int64(rng.IntN(7)-3), int64(1+rng.IntN(3)))
+		b := big.NewRat(int64(rng.IntN(7)-3), int64(1+rng.IntN(3)))
+		if a.Sign() == 0 || b.Sign() == 0 {
+			continue
+		}
+		p := Monomial(vars, e, a).Add(Monomial(vars, f, b))
+		n := rng.IntN(9)
+		want := Constant(vars, big.NewRat(1, 1))
+		for range n {
+			want = want.Mul(p)
+		}
+		got, err := p.Pow(n, Limits{})
+		if err != nil {
+			t.Fatal(err)
+		}
+		if got.String() != want.String() {
+			t.Fatalf("trial %d: (%s)^%d = %s, want %s", trial, p, n, got, want)
+		}
+		d := rng.IntN(8)
+		tr, err := p.pow(n, d, nil)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if tr.String() != want.Truncate(d).String() {
+			t.Fatalf("trial %d: (%s)^%d to degree %d = %s, want %s", trial, p, n, d, tr, want.Truncate(d))
+		}
+	}
+}
