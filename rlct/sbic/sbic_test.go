@@ -430,3 +430,100 @@ func TestPositiveRoot(t *testing.T) {
 		}
 	}
 }
+
+// TestSensitivityByHand: a two-model chain where the choice rests on a
+// bound. At n = 100 (L = log 100), ℓ_small = 0 and ℓ_big = 2L − log 2 with
+// d_big = 4: L'_small,small = 1 and L'_big,big = e^(ℓ − 2L) = 1/2. The pair
+// (big, small) is an upper bound λ = 1/2, so L'_big,small = e^(ℓ − L/2) =
+// 100^1.5/2 = 500, and x² − (1/2 − 1)·x − 500 = 0 gives
+// L'(big) = (−1 + √8001)/4 ≈ 22.11 > 1: sBIC chooses big. Replaced by the
+// regular value (λ = 2, θ = 1), L'_big,small = 1/2 = L'_big,big and
+// L'(big) = 1/2 < 1: the choice changes to small (and sBIC = BIC there).
+// Replaced by the estimate λ = 1, L'_big,small = 50, x² + x/2 − 50 = 0,
+// L'(big) = (−1 + √801)/4 ≈ 6.83: the choice stays. All worked by hand.
+func TestSensitivityByHand(t *testing.T) {
+	n := 100.0
+	L := math.Log(n)
+	models := []Model{{Name: "small", Dim: 0}, {Name: "big", Dim: 4}}
+	pairs := []Pair{
+		{Model: 0, Truth: 0, Lambda: big.NewRat(0, 1), Theta: 1, Status: rlct.Exact},
+		{Model: 1, Truth: 1, Lambda: big.NewRat(2, 1), Theta: 1, Status: rlct.Exact},
+		{Model: 1, Truth: 0, Lambda: big.NewRat(1, 2), Theta: 1, Status: rlct.UpperBound, Estimate: &Value{big.NewRat(1, 1), 1}},
+	}
+	c, err := New(models, [][2]int{{0, 1}}, pairs)
+	if err != nil {
+		t.Fatal(err)
+	}
+	r, err := c.Choose(n, []float64{0, 2*L - math.Log(2)})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if want := math.Log((-1 + math.Sqrt(8001)) / 4); !close(r.Models[1].SBIC, want, 1e-12) || r.SBIC.Model != 1 {
+		t.Errorf("sBIC(big) = %.17g, chosen %d; want %.17g, big", r.Models[1].SBIC, r.SBIC.Model, want)
+	}
+	if r.BIC.Model != 0 {
+		t.Errorf("BIC chooses %d, want small (BIC(big) = log 1/2 < 0)", r.BIC.Model)
+	}
+	if r.Models[0].Status != rlct.Exact || len(r.Models[0].RestsOn) != 0 || r.Models[1].Status != rlct.UpperBound || !equalInts(r.Models[1].RestsOn, []int{2}) {
+		t.Errorf("statuses: %+v", r.Models)
+	}
+	if len(r.Sensitivity) != 1 {
+		t.Fatalf("sensitivity %+v", r.Sensitivity)
+	}
+	s := r.Sensitivity[0]
+	if s.Pair != 2 || !equalInts(s.Affects, []int{1}) {
+		t.Errorf("pair %d affects %v, want pair 2 affecting big", s.Pair, s.Affects)
+	}
+	if !close(s.Regular.SBIC[1], math.Log(0.5), 1e-12) || s.Regular.Choice.Model != 0 || !s.Regular.Changed {
+		t.Errorf("regular: %+v, want sBIC(big) = log 1/2, choice small, changed", s.Regular)
+	}
+	if s.Regular.SBIC[0] != r.Models[0].SBIC {
+		t.Errorf("regular scenario moved the score of small, which does not rest on the pair")
+	}
+	if s.Estimate == nil || !close(s.Estimate.SBIC[1], math.Log((-1+math.Sqrt(801))/4), 1e-12) || s.Estimate.Changed {
+		t.Errorf("estimate: %+v", s.Estimate)
+	}
+	if r.AllRegular == nil || r.AllRegular.SBIC[1] != s.Regular.SBIC[1] || r.AllEstimates == nil || r.AllEstimates.SBIC[1] != s.Estimate.SBIC[1] {
+		t.Errorf("all-at-once scenarios differ from the single one: %+v %+v", r.AllRegular, r.AllEstimates)
+	}
+}
+
+// TestRestsOn: in a chain a ⪯ b ⪯ c, a pair of b rests under the scores of b
+// and c (c's recursion uses L'(b)), a pair of c only under c; the weakest
+// status wins.
+func TestRestsOn(t *testing.T) {
+	models := []Model{{Name: "a", Dim: 1}, {Name: "b", Dim: 2}, {Name: "c", Dim: 3}}
+	pairs := []Pair{
+		exact(0, 0, 0.5, 1), exact(1, 1, 1, 1), exact(2, 2, 1.5, 1), exact(2, 0, 1, 1),
+		{Model: 1, Truth: 0, Lambda: big.NewRat(3, 4), Theta: 1, Status: rlct.Uncertified},
+		{Model: 2, Truth: 1, Lambda: big.NewRat(5, 4), Theta: 1, Status: rlct.UpperBound},
+	}
+	c, err := New(models, chain(3), pairs)
+	if err != nil {
+		t.Fatal(err)
+	}
+	r, err := c.Choose(50, []float64{-20, -18, -17})
+	if err != nil {
+		t.Fatal(err)
+	}
+	want := []struct {
+		status  rlct.Status
+		restsOn []int
+	}{{rlct.Exact, nil}, {rlct.Uncertified, []int{4}}, {rlct.Uncertified, []int{4, 5}}}
+	for i, w := range want {
+		if r.Models[i].Status != w.status || !equalInts(r.Models[i].RestsOn, w.restsOn) {
+			t.Errorf("%s: status %s rests on %v; want %s, %v", models[i].Name, r.Models[i].Status, r.Models[i].RestsOn, w.status, w.restsOn)
+		}
+	}
+	if len(r.Sensitivity) != 2 || !equalInts(r.Sensitivity[0].Affects, []int{1, 2}) || !equalInts(r.Sensitivity[1].Affects, []int{2}) {
+		t.Errorf("sensitivity %+v", r.Sensitivity)
+	}
+	// Replacing b's pair moves b and c but never a.
+	reg := r.Sensitivity[0].Regular
+	if reg.SBIC[0] != r.Models[0].SBIC || reg.SBIC[1] == r.Models[1].SBIC || reg.SBIC[2] == r.Models[2].SBIC {
+		t.Errorf("regular scenario for (b, a): %v against %v", reg.SBIC, []float64{r.Models[0].SBIC, r.Models[1].SBIC, r.Models[2].SBIC})
+	}
+	if r.AllEstimates != nil {
+		t.Errorf("no estimates were given, but AllEstimates = %+v", r.AllEstimates)
+	}
+}
