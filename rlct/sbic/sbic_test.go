@@ -527,3 +527,30 @@ func TestRestsOn(t *testing.T) {
 		t.Errorf("no estimates were given, but AllEstimates = %+v", r.AllEstimates)
 	}
 }
+
+// BenchmarkScores scores a chain of ten models, as a research loop over
+// data sets would.
+func BenchmarkScores(b *testing.B) {
+	k := 10
+	var models []Model
+	var pairs []Pair
+	for i := range k {
+		models = append(models, Model{Name: string(rune('a' + i)), Dim: 2 * i})
+		for j := 0; j <= i; j++ {
+			pairs = append(pairs, Pair{Model: i, Truth: j, Lambda: big.NewRat(int64(i+j), 2), Theta: 1 + (i+j)%2, Status: rlct.Exact})
+		}
+	}
+	c, err := New(models, chain(k), pairs)
+	if err != nil {
+		b.Fatal(err)
+	}
+	ll := make([]float64, k)
+	for i := range ll {
+		ll[i] = -1e4 + 3*float64(i)
+	}
+	for b.Loop() {
+		if _, err := c.Scores(1e4, ll); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
