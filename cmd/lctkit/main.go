@@ -48,6 +48,7 @@ type cli struct {
 	Merge   mergeCmd   `cmd:"" help:"Merge the outputs of batch shards into one, sorted by line, every record kept byte for byte."`
 
 	Estimate estimateCmd `cmd:"" help:"Estimate λ and θ numerically (nested sampling; an estimate, not a proof) beside the Newton bound."`
+	Choose   chooseCmd   `cmd:"" help:"Choose among candidate models by the singular BIC (Drton & Plummer 2017) beside the BIC; marks scores that rest on bounds."`
 }
 
 // env is what commands read from and write to; tests replace it.
