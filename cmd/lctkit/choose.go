@@ -273,7 +273,7 @@ func writeChoose(w io.Writer, r *sbic.Result, computed []sbic.Computed) {
 			extra += "estimate " + p.Estimate.String()
 		}
 		fmt.Fprintf(w, "  %-*s  λ = %-*s  θ = %d  %-12s %s\n", pw, names[i], lw, p.Lambda.RatString(), p.Theta, statusWord(p.Status), extra)
-		if res, ok := headline[i]; ok && res.Status != rlct.Exact {
+		if res, ok := headline[i]; ok && res.Status == rlct.Uncertified {
 			fmt.Fprintf(w, "  %-*s  lctkit: %s\n", pw, "", res.Headline())
 		}
 	}
@@ -357,10 +357,11 @@ const (
 	choiceRing = `fill="none" stroke="` + colorBlack + `" stroke-width="1.5"`
 )
 
-// plotDepth returns how far below the best score the plot reaches: every
-// score, unless the lowest lies far below the rest (more than four times
-// the next deficit and more than 10 nats), which is then drawn at the
-// bottom edge with its value.
+// plotDepth returns how far below the best score the plot reaches, given
+// each model's lowest score as a deficit below the best: every score,
+// unless the lowest model lies far below the rest (more than four times the
+// next model's deficit and more than 10 nats); its scores are then drawn at
+// the bottom edge with their values.
 func plotDepth(deficits []float64) float64 {
 	d1, d2 := 0.0, 0.0
 	for _, d := range deficits {
@@ -389,7 +390,7 @@ func choosePlot(r *sbic.Result) string {
 	}
 	var deficits []float64
 	for _, m := range r.Models {
-		deficits = append(deficits, best-m.BIC, best-m.SBIC)
+		deficits = append(deficits, best-math.Min(m.BIC, m.SBIC))
 	}
 	depth := plotDepth(deficits)
 	ylo, yhi := -depth*1.06, depth*0.14
@@ -501,17 +502,14 @@ func choosePlot(r *sbic.Result) string {
 		if clipped(m.SBIC - best) {
 			s.text(point{sb.x - 8, sb.y - 8}, `class="clipped-label" text-anchor="end" font-size="11" fill="`+colorVermillion+`" `+halo, fmt.Sprintf("%.1f", m.SBIC-best))
 		}
+		// The rings, labelled outwards: sBIC to the left, BIC to the right.
 		if i == r.SBIC.Model {
 			s.circle(sb, 10, `class="choice-sbic" `+choiceRing)
-			s.text(point{sb.x, sb.y - 15}, `class="choice-label" text-anchor="middle" font-size="12" `+halo, "sBIC")
+			s.text(point{sb.x - 13, sb.y - 8}, `class="choice-label" text-anchor="end" font-size="12" `+halo, "sBIC")
 		}
 		if i == r.BIC.Model {
 			s.circle(b, 10, `class="choice-bic" `+choiceRing)
-			y := b.y - 15
-			if i == r.SBIC.Model && math.Abs(b.y-sb.y) < 14 {
-				y -= 14
-			}
-			s.text(point{b.x, y}, `class="choice-label" text-anchor="middle" font-size="12" `+halo, "BIC")
+			s.text(point{b.x + 13, b.y - 8}, `class="choice-label" font-size="12" `+halo, "BIC")
 		}
 	}
 

@@ -39,8 +39,9 @@ type ModelReport struct {
 	SBIC       float64 `json:"sbic"`
 	WeightBIC  float64 `json:"weight_bic"`
 	WeightSBIC float64 `json:"weight_sbic"`
-	// Status is the weakest status of the pairs the sBIC rests on.
-	Status rlct.Status `json:"sbic_status"`
+	// Status is the weakest status of the pairs the sBIC rests on (not a
+	// status of the score, which is a float64 evaluation).
+	Status rlct.Status `json:"pairs_status"`
 	// RestsOn lists the pairs that are not exact which the sBIC rests on.
 	RestsOn []PairRef `json:"rests_on,omitempty"`
 }

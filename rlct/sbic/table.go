@@ -509,9 +509,9 @@ func (r *textReader) pair() error {
 		seen[key] = true
 		switch key {
 		case "lambda":
-			p.Lambda, err = r.rational("lambda")
+			p.Lambda, err = r.rational("the value of lambda")
 		case "theta":
-			p.Theta, err = r.integer("theta")
+			p.Theta, err = r.integer("the value of theta")
 		case "status":
 			p.Status, err = r.status()
 		case "regular":
@@ -689,7 +689,7 @@ func (t *Table) Candidates(ctx context.Context, opt *rlct.Options) (*Candidates,
 			p.Lambda, p.Theta, p.Status = res.Lambda, res.Theta, res.Status
 			src := "computed by lctkit from K"
 			if tp.Source != "" {
-				src = tp.Source + "; " + src
+				src += "; " + tp.Source
 			}
 			p.Source = src
 			computed = append(computed, Computed{Pair: n, Result: res})

@@ -349,7 +349,7 @@ func writeTable(w io.Writer, cfg config, specs []pairSpec, results []*rlct.Resul
 		if ps.sos != nil {
 			est := ""
 			if results[n].Status != rlct.Exact {
-				est = fmt.Sprintf(" estimate %s %d source \"estimate: Aoyagi & Watanabe 2005 formula, recalled from memory\"", ps.value.Lambda.RatString(), ps.value.Theta)
+				est = fmt.Sprintf(" estimate %s %d source \"the estimate is the Aoyagi & Watanabe 2005 formula, recalled from memory\"", ps.value.Lambda.RatString(), ps.value.Theta)
 			}
 			fmt.Fprintf(w, "pair %s rank0 sos \"%s\"%s\n", rankName(ps.h), strings.Join(ps.sos, "; "), est)
 		}
