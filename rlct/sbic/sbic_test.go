@@ -2,8 +2,10 @@ package sbic
 
 import (
 	"errors"
+	"fmt"
 	"math"
 	"math/big"
+	"math/rand/v2"
 	"strings"
 	"testing"
 
@@ -551,6 +553,79 @@ func BenchmarkScores(b *testing.B) {
 	for b.Loop() {
 		if _, err := c.Scores(1e4, ll); err != nil {
 			b.Fatal(err)
+		}
+	}
+}
+
+// TestFixedPointHolds: on random partial orders, priors, pairs and data,
+// every score satisfies the fixed-point equation (1) of the package
+// documentation, L'(M_i)·Σ_{j⪯i} P_j·L'(M_j) = Σ_{j⪯i} P_j·L'_ij·L'(M_j),
+// evaluated directly in float64 after a shift (the inputs are kept in a
+// range where that cannot overflow).
+func TestFixedPointHolds(t *testing.T) {
+	rng := rand.New(rand.NewPCG(7, 2017))
+	for trial := range 300 {
+		k := 1 + rng.IntN(6)
+		var models []Model
+		for i := range k {
+			models = append(models, Model{Name: fmt.Sprint("m", i), Dim: rng.IntN(10), Prior: float64(rng.IntN(3))})
+		}
+		// Links only from lower to higher index: acyclic.
+		var order [][2]int
+		for i := range k {
+			for j := range i {
+				if rng.IntN(3) == 0 {
+					order = append(order, [2]int{j, i})
+				}
+			}
+		}
+		le := reach(k, order)
+		var pairs []Pair
+		for i := range k {
+			for j := range k {
+				if le[j][i] {
+					pairs = append(pairs, Pair{Model: i, Truth: j, Lambda: big.NewRat(int64(rng.IntN(12)), 4), Theta: 1 + rng.IntN(3), Status: rlct.Exact})
+				}
+			}
+		}
+		c, err := New(models, order, pairs)
+		if err != nil {
+			t.Fatal(err)
+		}
+		n := math.Exp(1.5 + 8*rng.Float64())
+		ll := make([]float64, k)
+		for i := range ll {
+			ll[i] = -200 + 60*rng.Float64()
+		}
+		s, err := c.Scores(n, ll)
+		if err != nil {
+			t.Fatal(err)
+		}
+		prior := func(i int) float64 {
+			if models[i].Prior == 0 {
+				return 1
+			}
+			return models[i].Prior
+		}
+		const shift = 200
+		for i := range k {
+			x := math.Exp(s[i] + shift)
+			lhs, rhs := 0.0, 0.0
+			for _, p := range pairs {
+				if p.Model != i {
+					continue
+				}
+				j := p.Truth
+				lam, _ := p.Lambda.Float64()
+				lij := math.Exp(ll[i] + shift - lam*math.Log(n) + float64(p.Theta-1)*math.Log(math.Log(n)))
+				lj := math.Exp(s[j] + shift)
+				lhs += prior(j) * lj
+				rhs += prior(j) * lij * lj
+			}
+			lhs *= x
+			if !(x > 0) || math.Abs(lhs-rhs) > 1e-10*math.Max(lhs, rhs) {
+				t.Fatalf("trial %d, model %d: L' = %g, (1) gives %g against %g", trial, i, x, lhs, rhs)
+			}
 		}
 	}
 }
