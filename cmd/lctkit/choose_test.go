@@ -390,3 +390,48 @@ pair b a sos "s*g1; s*g2"
 		t.Errorf("JSON lacks lctkit's summary: %s", js)
 	}
 }
+
+// TestChooseReadme runs the table shown in the README's section on choose
+// and checks that the output lines quoted there are what the command
+// prints, so that the README stays true.
+func TestChooseReadme(t *testing.T) {
+	raw, err := os.ReadFile("../../README.md")
+	if err != nil {
+		t.Fatal(err)
+	}
+	text := string(raw)
+	start := strings.Index(text, "### Choosing a model: `choose`")
+	if start < 0 {
+		t.Fatal("the README has no section on choose")
+	}
+	blocks := strings.Split(text[start:], "\n\n")
+	var table, quoted []string
+	for _, b := range blocks {
+		if strings.HasPrefix(b, "    n ") && table == nil {
+			table = strings.Split(b, "\n")
+		}
+		if strings.HasPrefix(b, "    $ lctkit choose") {
+			quoted = strings.Split(b, "\n")[1:]
+		}
+	}
+	if table == nil || quoted == nil {
+		t.Fatal("the README's section on choose has no table or no output")
+	}
+	var src strings.Builder
+	for _, l := range table {
+		src.WriteString(strings.TrimPrefix(l, "    ") + "\n")
+	}
+	out, errOut, code := runCLI(t, "", "choose", writeTemp(t, "readme.txt", src.String()))
+	if code != exitOK {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	for _, l := range quoted {
+		l = strings.TrimPrefix(l, "    ")
+		if strings.TrimSpace(l) == "…" {
+			continue
+		}
+		if !strings.Contains(out, l+"\n") {
+			t.Errorf("the README quotes %q, which the command does not print:\n%s", l, out)
+		}
+	}
+}
