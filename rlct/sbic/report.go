@@ -109,7 +109,8 @@ type ScenarioLine struct {
 	Weight float64 `json:"weight_sbic"`
 }
 
-// Ref returns the names of pair number i.
+// Ref returns the names of pair number i (an index into the pairs given to
+// New). It panics if i is out of range.
 func (c *Candidates) Ref(i int) PairRef {
 	p := c.pairs[i]
 	return PairRef{Model: c.models[p.Model].Name, Truth: c.models[p.Truth].Name}

@@ -369,13 +369,14 @@ func topoOrder(succ [][]int) []int {
 // Len returns the number of models.
 func (c *Candidates) Len() int { return len(c.models) }
 
-// Model returns model i.
+// Model returns model i. It panics if i is out of range.
 func (c *Candidates) Model(i int) Model { return c.models[i] }
 
 // Pairs returns a copy of the pairs, in the order given to New.
 func (c *Candidates) Pairs() []Pair { return slices.Clone(c.pairs) }
 
 // Below reports whether M_j ⪯ M_i in the order (reflexive and transitive).
+// It panics if i or j is out of range.
 func (c *Candidates) Below(j, i int) bool { return c.le[j][i] }
 
 // Topological returns the models in the order the recursion takes them:
@@ -383,13 +384,13 @@ func (c *Candidates) Below(j, i int) bool { return c.le[j][i] }
 func (c *Candidates) Topological() []int { return slices.Clone(c.topo) }
 
 // PairName writes a pair as "B at A": the learning coefficient of model B
-// at a truth in model A.
+// at a truth in model A. It panics if the pair's indices are out of range.
 func (c *Candidates) PairName(p Pair) string {
 	return fmt.Sprintf("%q at %q", c.models[p.Model].Name, c.models[p.Truth].Name)
 }
 
 // Regular returns the regular value of the learning coefficients of model
-// i: λ = d_i/2, θ = 1.
+// i: λ = d_i/2, θ = 1. It panics if i is out of range.
 func (c *Candidates) Regular(i int) Value {
 	return Value{big.NewRat(int64(c.models[i].Dim), 2), 1}
 }
