@@ -544,7 +544,7 @@ func chooseMarker(s *svgDoc, kind string, c point, clipped bool) {
 	}
 	switch {
 	case clipped:
-		s.polygon([]point{{c.x - 6, c.y - 5}, {c.x + 6, c.y - 5}, {c.x, c.y + 5}}, `class="marker-`+kind+`-clipped" `+style)
+		s.printf(`<polygon points="%s" class="marker-%s-clipped" %s/>`+"\n", pointList([]point{{c.x - 6, c.y - 5}, {c.x + 6, c.y - 5}, {c.x, c.y + 5}}), kind, style)
 	case kind == "bic":
 		s.printf(`<rect class="marker-bic" x="%s" y="%s" width="9" height="9" %s/>`+"\n", num(c.x-4.5), num(c.y-4.5), style)
 	default:

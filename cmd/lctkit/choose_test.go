@@ -10,6 +10,8 @@ import (
 	"path/filepath"
 	"strings"
 	"testing"
+
+	shot "github.com/lctkit/lctkit/internal/screenshot"
 )
 
 // handTable is the two-model case worked by hand (the same as
@@ -434,4 +436,43 @@ func TestChooseReadme(t *testing.T) {
 			t.Errorf("the README quotes %q, which the command does not print:\n%s", l, out)
 		}
 	}
+}
+
+// TestChooseRenders renders the example's picture with a headless Chromium
+// and checks that it shows both series: vermillion (sBIC) and blue (BIC)
+// pixels, and dark text and axes. It skips when Chromium is not installed,
+// and in -short mode.
+func TestChooseRenders(t *testing.T) {
+	path, err := filepath.Abs("../../examples/sensor-rank/scores.svg")
+	if err != nil {
+		t.Fatal(err)
+	}
+	img := shot.Take(t, path, choosePlotWidth, 620)
+	b := img.Bounds()
+	var vermillion, blue, dark, total int
+	for y := b.Min.Y; y < b.Max.Y; y++ {
+		for x := b.Min.X; x < b.Max.X; x++ {
+			r, g, bl, _ := img.At(x, y).RGBA()
+			r, g, bl = r>>8, g>>8, bl>>8
+			total++
+			switch {
+			case r > 180 && g > 60 && g < 130 && bl < 60: // #D55E00
+				vermillion++
+			case bl > 140 && r < 60 && g > 80 && g < 150: // #0072B2
+				blue++
+			case r < 80 && g < 80 && bl < 80:
+				dark++
+			}
+		}
+	}
+	for _, c := range []struct {
+		name  string
+		count int
+		min   float64
+	}{{"vermillion (sBIC)", vermillion, 0.002}, {"blue (BIC)", blue, 0.001}, {"dark (text, axes)", dark, 0.003}} {
+		if frac := float64(c.count) / float64(total); frac < c.min {
+			t.Errorf("only %.2f%% of the screenshot is %s", 100*frac, c.name)
+		}
+	}
+	t.Logf("%.2f%% vermillion, %.2f%% blue, %.2f%% dark", 100*float64(vermillion)/float64(total), 100*float64(blue)/float64(total), 100*float64(dark)/float64(total))
 }
