@@ -32,7 +32,7 @@
 // The truth is not known, but the data say how probable each submodel is.
 // The sBIC averages L'_ij over the submodels j ⪯ i, weighting each by its
 // approximate posterior probability computed with the same approximation
-// (Drton & Plummer 2017, section 3; from memory):
+// (Drton & Plummer 2017; from memory):
 //
 //	L'(M_i) = Σ_{j⪯i} L'_ij·P(M_j)·L'(M_j) / Σ_{j⪯i} P(M_j)·L'(M_j).      (1)
 //

@@ -629,3 +629,62 @@ func TestFixedPointHolds(t *testing.T) {
 		}
 	}
 }
+
+// TestExtremeInputsStayFinite: far outside any realistic range (λ up to
+// 10^6, |ℓ| up to 10^12, n up to 10^300) every score, weight and scenario
+// is finite and the weights sum to 1.
+func TestExtremeInputsStayFinite(t *testing.T) {
+	rng := rand.New(rand.NewPCG(11, 3))
+	for trial := range 200 {
+		k := 1 + rng.IntN(5)
+		var models []Model
+		for i := range k {
+			models = append(models, Model{Name: fmt.Sprint("m", i), Dim: rng.IntN(1000)})
+		}
+		order := chain(k)
+		var pairs []Pair
+		for i := range k {
+			for j := 0; j <= i; j++ {
+				lam := big.NewRat(rng.Int64N(1_000_000), 1+rng.Int64N(3))
+				pairs = append(pairs, Pair{Model: i, Truth: j, Lambda: lam, Theta: 1 + rng.IntN(50), Status: []rlct.Status{rlct.Exact, rlct.UpperBound, rlct.Uncertified}[rng.IntN(3)],
+					Estimate: &Value{big.NewRat(rng.Int64N(1000), 1), 1}})
+			}
+		}
+		c, err := New(models, order, pairs)
+		if err != nil {
+			t.Fatal(err)
+		}
+		n := math.Pow(10, 0.5+299*rng.Float64())
+		ll := make([]float64, k)
+		for i := range ll {
+			ll[i] = (rng.Float64() - 0.5) * math.Pow(10, 12*rng.Float64())
+		}
+		r, err := c.Choose(n, ll)
+		if err != nil {
+			t.Fatal(err)
+		}
+		finite := func(xs ...float64) bool {
+			for _, x := range xs {
+				if math.IsNaN(x) || math.IsInf(x, 0) {
+					return false
+				}
+			}
+			return true
+		}
+		sum := 0.0
+		for _, m := range r.Models {
+			if !finite(m.SBIC, m.BIC, m.WeightBIC, m.WeightSBIC) {
+				t.Fatalf("trial %d: %+v", trial, m)
+			}
+			sum += m.WeightSBIC
+		}
+		if math.Abs(sum-1) > 1e-9 {
+			t.Fatalf("trial %d: sBIC weights sum to %g", trial, sum)
+		}
+		for _, ps := range r.Sensitivity {
+			if !finite(ps.Regular.SBIC...) || (ps.Estimate != nil && !finite(ps.Estimate.SBIC...)) {
+				t.Fatalf("trial %d: scenario %+v", trial, ps)
+			}
+		}
+	}
+}
