@@ -29,8 +29,8 @@ func chain(k int) [][2]int {
 	return out
 }
 
-// close reports |a − b| ≤ tol.
-func close(a, b, tol float64) bool { return math.Abs(a-b) <= tol }
+// near reports |a − b| ≤ tol.
+func near(a, b, tol float64) bool { return math.Abs(a-b) <= tol }
 
 // handChain builds the three-model chain of the package documentation,
 // worked by hand: inputs chosen so that, at n = 100 (L = log n) and with the
@@ -87,21 +87,21 @@ func TestChainByHand(t *testing.T) {
 		wantSBIC := []float64{0, math.Log(4), math.Log(2)}
 		wantBIC := []float64{0, math.Log(3), math.Log(2)} // ℓ_i − (d_i/2)·log n
 		for i := range 3 {
-			if !close(r.Models[i].SBIC, tt.shift+wantSBIC[i], tol) {
+			if !near(r.Models[i].SBIC, tt.shift+wantSBIC[i], tol) {
 				t.Errorf("n=%g shift=%g: sBIC(M%d) = %.17g, want %.17g (by hand)", tt.n, tt.shift, i+1, r.Models[i].SBIC, tt.shift+wantSBIC[i])
 			}
-			if !close(r.Models[i].BIC, tt.shift+wantBIC[i], tol) {
+			if !near(r.Models[i].BIC, tt.shift+wantBIC[i], tol) {
 				t.Errorf("n=%g shift=%g: BIC(M%d) = %.17g, want %.17g", tt.n, tt.shift, i+1, r.Models[i].BIC, tt.shift+wantBIC[i])
 			}
 		}
 		// Weights: L'(M_i) normalised, 1/7, 4/7, 2/7; BIC weights 1/6, 3/6, 2/6.
 		for i, w := range []float64{1.0 / 7, 4.0 / 7, 2.0 / 7} {
-			if !close(r.Models[i].WeightSBIC, w, 1e-6) {
+			if !near(r.Models[i].WeightSBIC, w, 1e-6) {
 				t.Errorf("n=%g shift=%g: sBIC weight of M%d = %g, want %g", tt.n, tt.shift, i+1, r.Models[i].WeightSBIC, w)
 			}
 		}
 		for i, w := range []float64{1.0 / 6, 3.0 / 6, 2.0 / 6} {
-			if !close(r.Models[i].WeightBIC, w, 1e-6) {
+			if !near(r.Models[i].WeightBIC, w, 1e-6) {
 				t.Errorf("n=%g shift=%g: BIC weight of M%d = %g, want %g", tt.n, tt.shift, i+1, r.Models[i].WeightBIC, w)
 			}
 		}
@@ -146,13 +146,13 @@ func TestPriorsByHand(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if want := -5 + math.Log(2); !close(r.Models[1].SBIC, want, 1e-12) {
+	if want := -5 + math.Log(2); !near(r.Models[1].SBIC, want, 1e-12) {
 		t.Errorf("sBIC(big) = %.17g, want −5 + log 2 = %.17g", r.Models[1].SBIC, want)
 	}
-	if !close(r.Models[0].SBIC, -5, 1e-12) {
+	if !near(r.Models[0].SBIC, -5, 1e-12) {
 		t.Errorf("sBIC(small) = %.17g, want −5", r.Models[0].SBIC)
 	}
-	if !close(r.Models[0].WeightSBIC, 1.0/7, 1e-12) || !close(r.Models[1].WeightSBIC, 6.0/7, 1e-12) {
+	if !near(r.Models[0].WeightSBIC, 1.0/7, 1e-12) || !near(r.Models[1].WeightSBIC, 6.0/7, 1e-12) {
 		t.Errorf("weights %g, %g; want 1/7, 6/7", r.Models[0].WeightSBIC, r.Models[1].WeightSBIC)
 	}
 	if r.SBIC.Model != 1 {
@@ -212,10 +212,10 @@ func TestRegularIsBIC(t *testing.T) {
 		for i, m := range r.Models {
 			bic := tt.ll[i] - float64(tt.dims[i])/2*math.Log(tt.n) // Schwarz 1978
 			tol := 8 * float64(len(tt.dims)) * 0x1p-52 * (math.Abs(bic) + math.Abs(tt.ll[i]) + 1)
-			if !close(m.SBIC, bic, tol) || !close(m.BIC, bic, tol) {
+			if !near(m.SBIC, bic, tol) || !near(m.BIC, bic, tol) {
 				t.Errorf("%s: %s: sBIC %.17g, BIC %.17g, want both %.17g", tt.name, m.Name, m.SBIC, m.BIC, bic)
 			}
-			if !close(m.WeightSBIC, m.WeightBIC, 1e-9) {
+			if !near(m.WeightSBIC, m.WeightBIC, 1e-9) {
 				t.Errorf("%s: %s: weights %g and %g differ", tt.name, m.Name, m.WeightSBIC, m.WeightBIC)
 			}
 		}
@@ -259,10 +259,10 @@ func TestSingleModel(t *testing.T) {
 		t.Fatal(err)
 	}
 	want := -10 - 0.5*math.Log(100) + math.Log(math.Log(100))
-	if !close(r.Models[0].SBIC, want, 1e-12) || r.SBIC.Model != 0 || r.Models[0].WeightSBIC != 1 {
+	if !near(r.Models[0].SBIC, want, 1e-12) || r.SBIC.Model != 0 || r.Models[0].WeightSBIC != 1 {
 		t.Errorf("got %+v, want sBIC %.17g, chosen, weight 1", r.Models[0], want)
 	}
-	if !close(r.Models[0].BIC, -10-2*math.Log(100), 1e-12) {
+	if !near(r.Models[0].BIC, -10-2*math.Log(100), 1e-12) {
 		t.Errorf("BIC %.17g", r.Models[0].BIC)
 	}
 	// The one pair is a bound: the score rests on it, and replacing it by
@@ -271,7 +271,7 @@ func TestSingleModel(t *testing.T) {
 		t.Fatalf("status %v, sensitivity %+v", r.Models[0].Status, r.Sensitivity)
 	}
 	s := r.Sensitivity[0]
-	if !close(s.Regular.SBIC[0], r.Models[0].BIC, 1e-12) || s.Regular.Changed || s.Estimate != nil {
+	if !near(s.Regular.SBIC[0], r.Models[0].BIC, 1e-12) || s.Regular.Changed || s.Estimate != nil {
 		t.Errorf("regular scenario %+v", s)
 	}
 }
@@ -427,7 +427,7 @@ func TestPositiveRoot(t *testing.T) {
 		{0, 800, 1000, 200},
 		{800, 0, 1000, 800}, // β ≈ e^800 ≫ √γ = e^500: x ≈ β
 	} {
-		if got := positiveRoot(tt.a, tt.b, tt.g); !close(got, tt.want, 1e-12*(1+math.Abs(tt.want))) {
+		if got := positiveRoot(tt.a, tt.b, tt.g); !near(got, tt.want, 1e-12*(1+math.Abs(tt.want))) {
 			t.Errorf("positiveRoot(%g, %g, %g) = %.17g, want %.17g", tt.a, tt.b, tt.g, got, tt.want)
 		}
 	}
@@ -460,7 +460,7 @@ func TestSensitivityByHand(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if want := math.Log((-1 + math.Sqrt(8001)) / 4); !close(r.Models[1].SBIC, want, 1e-12) || r.SBIC.Model != 1 {
+	if want := math.Log((-1 + math.Sqrt(8001)) / 4); !near(r.Models[1].SBIC, want, 1e-12) || r.SBIC.Model != 1 {
 		t.Errorf("sBIC(big) = %.17g, chosen %d; want %.17g, big", r.Models[1].SBIC, r.SBIC.Model, want)
 	}
 	if r.BIC.Model != 0 {
@@ -476,13 +476,13 @@ func TestSensitivityByHand(t *testing.T) {
 	if s.Pair != 2 || !equalInts(s.Affects, []int{1}) {
 		t.Errorf("pair %d affects %v, want pair 2 affecting big", s.Pair, s.Affects)
 	}
-	if !close(s.Regular.SBIC[1], math.Log(0.5), 1e-12) || s.Regular.Choice.Model != 0 || !s.Regular.Changed {
+	if !near(s.Regular.SBIC[1], math.Log(0.5), 1e-12) || s.Regular.Choice.Model != 0 || !s.Regular.Changed {
 		t.Errorf("regular: %+v, want sBIC(big) = log 1/2, choice small, changed", s.Regular)
 	}
 	if s.Regular.SBIC[0] != r.Models[0].SBIC {
 		t.Errorf("regular scenario moved the score of small, which does not rest on the pair")
 	}
-	if s.Estimate == nil || !close(s.Estimate.SBIC[1], math.Log((-1+math.Sqrt(801))/4), 1e-12) || s.Estimate.Changed {
+	if s.Estimate == nil || !near(s.Estimate.SBIC[1], math.Log((-1+math.Sqrt(801))/4), 1e-12) || s.Estimate.Changed {
 		t.Errorf("estimate: %+v", s.Estimate)
 	}
 	if r.AllRegular == nil || r.AllRegular.SBIC[1] != s.Regular.SBIC[1] || r.AllEstimates == nil || r.AllEstimates.SBIC[1] != s.Estimate.SBIC[1] {

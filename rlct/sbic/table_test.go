@@ -7,7 +7,9 @@ import (
 	"math/big"
 	"strings"
 	"testing"
+	"time"
 
+	"github.com/lctkit/lctkit/monomial"
 	"github.com/lctkit/lctkit/rlct"
 )
 
@@ -271,12 +273,18 @@ func FuzzReadTable(f *testing.F) {
 			}
 			return
 		}
+		// Keep the bounds quick: small expansions, few faces, little time.
 		for _, p := range tab.Pairs {
-			if p.Spec != nil && len(p.Spec.K)+len(strings.Join(p.Spec.SOS, "")) > 200 {
-				return // keep the bounds quick
+			if p.Spec != nil {
+				if len(p.Spec.K)+len(strings.Join(p.Spec.SOS, "")) > 200 || p.Spec.Order > 12 {
+					return
+				}
+				p.Spec.Limits = monomial.Limits{MaxTerms: 2000}
 			}
 		}
-		c, ll, _, err := tab.Candidates(context.Background(), nil)
+		ctx, cancel := context.WithTimeout(context.Background(), time.Second)
+		defer cancel()
+		c, ll, _, err := tab.Candidates(ctx, &rlct.Options{MaxFaces: 200})
 		if err != nil {
 			return
 		}
