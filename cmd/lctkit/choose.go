@@ -18,7 +18,7 @@ import (
 
 // chooseCmd scores candidate models by the singular BIC.
 type chooseCmd struct {
-	Table    string `arg:"" help:"The candidates: a table in the text form or JSON (see below); - reads it from standard input."`
+	Table    string `arg:"" help:"The candidates: a table in the text form or JSON, as described under the usage; - reads it from standard input."`
 	N        string `help:"The sample size, in place of the table's n line." placeholder:"N"`
 	JSON     bool   `help:"Print one JSON object."`
 	SVG      string `name:"svg" help:"Also draw the sBIC and the BIC of every candidate to this SVG file." placeholder:"FILE"`
