@@ -6,5 +6,3 @@ require (
 	github.com/alecthomas/kong v1.17.0
 	gonum.org/v1/gonum v0.17.0
 )
-
-require golang.org/x/tools v0.30.0 // indirect

@@ -7,7 +7,7 @@
 // outputs) through a coupling map C = B·A of unknown rank, y = C·x + noise,
 // with the noise calibrated to unit variance. The true map has rank 2 with
 // one strong and one weak coupling path. Each draw simulates n samples
-// (gonum's stat/distmv), fits every rank H = 0…3 by least squares through
+// (a Cholesky factor from gonum/mat), fits every rank H = 0…3 by least squares through
 // the SVD (gonum's mat) and scores the four candidates with package sbic.
 //
 // It writes, into the directory given by -out (default: the current one):
@@ -32,7 +32,6 @@ import (
 	"strings"
 
 	"gonum.org/v1/gonum/mat"
-	"gonum.org/v1/gonum/stat/distmv"
 
 	"github.com/lctkit/lctkit/rlct"
 	"github.com/lctkit/lctkit/rlct/sbic"
@@ -113,11 +112,11 @@ func inputCovariance() *mat.SymDense {
 // fit and σ_k are the singular values of Ŷ (its truncated SVD is the rank-H
 // fit, which stays in the column space of X).
 func draw(rng *rand.Rand, n int, c0 *mat.Dense) ([]float64, error) {
-	xdist, ok := distmv.NewNormal(make([]float64, inputs), inputCovariance(), rng)
+	xdist, ok := newNormal(inputCovariance(), rng)
 	if !ok {
 		return nil, fmt.Errorf("input covariance is not positive definite")
 	}
-	noise, ok := distmv.NewNormal(make([]float64, outputs), identity(outputs), rng)
+	noise, ok := newNormal(identity(outputs), rng)
 	if !ok {
 		return nil, fmt.Errorf("noise covariance is not positive definite")
 	}
@@ -171,6 +170,31 @@ func fit(x, y *mat.Dense) ([]float64, error) {
 		ll[h] = base - r/2
 	}
 	return ll, nil
+}
+
+// normal draws from the centred multivariate normal with covariance
+// Σ = UᵀU (its Cholesky factor, gonum/mat): x = Uᵀ·z for independent
+// standard normal z (common practice). It is written here rather than taken
+// from gonum's stat/distmv, which would add golang.org/x/tools to the
+// module's requirements; it draws the same numbers from the same source.
+type normal struct {
+	chol mat.Cholesky
+	src  rand.Source
+}
+
+func newNormal(cov mat.Symmetric, src rand.Source) (*normal, bool) {
+	n := &normal{src: src}
+	return n, n.chol.Factorize(cov)
+}
+
+// Rand fills dst with one draw.
+func (n *normal) Rand(dst []float64) {
+	rnd := rand.New(n.src)
+	z := make([]float64, len(dst))
+	for i := range z {
+		z[i] = rnd.NormFloat64()
+	}
+	mat.NewVecDense(len(dst), dst).MulVec(n.chol.RawU().T(), mat.NewVecDense(len(z), z))
 }
 
 func identity(k int) *mat.SymDense {
