@@ -51,8 +51,18 @@ type Expansion struct {
 	// non-constant) that was truncated at Order, or, in series mode, an
 	// exact part whose full expansion exceeded the Limits and was truncated
 	// at Order instead. False means Poly is exactly the value of the
-	// expression.
+	// expression. It equals len(Remainder) > 0.
 	Truncated bool
+	// Remainder certifies what Poly misses: every term of the value of
+	// the expression minus Poly, as a formal power series, is a multiple
+	// of x^r for some r in Remainder. It is nil when Poly is the value
+	// itself. The exponents are distinct, none divides another (the set
+	// is minimal), they are sorted in the term order of Poly (see Poly),
+	// and each has total degree > Order, so the terms of Poly of degree
+	// <= Order are Taylor coefficients of the value. The set may be larger
+	// than the least one possible (see "Remainders" in the package
+	// documentation for the rules), but never smaller.
+	Remainder []Exponent
 }
 
 // Error is a parse error with a position in the source text. Offset is the
@@ -209,6 +219,10 @@ type session struct {
 	order  int
 	lim    Limits
 	guard  *guard // shared by all expressions of the source
+	// rguard bounds the remainder bookkeeping with a budget of its own
+	// (the same limits), so that the bookkeeping does not use up the
+	// budget of the expansion.
+	rguard *guard
 }
 
 func newSession(src string, cfg Config, list bool) (*session, error) {
@@ -219,7 +233,7 @@ func newSession(src string, cfg Config, list bool) (*session, error) {
 	if cfg.Order > lim.MaxOrder {
 		return nil, fmt.Errorf("monomial: Config.Order %d exceeds the limit %d (Limits.MaxOrder)", cfg.Order, lim.MaxOrder)
 	}
-	s := &session{src: src, list: list, order: cfg.Order, lim: lim, index: map[string]int{}, guard: newGuard(lim)}
+	s := &session{src: src, list: list, order: cfg.Order, lim: lim, index: map[string]int{}, guard: newGuard(lim), rguard: newGuard(lim)}
 	if len(cfg.Vars) > lim.MaxVars {
 		return nil, fmt.Errorf("monomial: Config.Vars has %d variables, more than the limit %d (Limits.MaxVars)", len(cfg.Vars), lim.MaxVars)
 	}
@@ -430,7 +444,12 @@ func (p *parser) item() (*Expansion, *Error) {
 	default:
 		return nil, p.expected("operator or end of expression")
 	}
-	return &Expansion{Poly: v.p, Order: p.order, Truncated: !v.exact}, nil
+	e := &Expansion{Poly: v.p, Order: p.order}
+	if v.rem != nil && !v.rem.IsZero() {
+		e.Remainder = v.rem.Support()
+		e.Truncated = true
+	}
+	return e, nil
 }
 
 // parser parses expressions, computing their values as it goes. It reads
@@ -448,14 +467,21 @@ type parser struct {
 }
 
 // value is the value of a subexpression: its polynomial, whether that is
-// exact, and its source span. When exact is false (series mode only) the
-// true value minus p is a power series with terms of total degree > order
-// only; p may still hold terms above the order that come from exact
-// summands (a sum keeps them), but every other operation with an inexact
-// operand truncates its result at the order.
+// exact, its remainder and its source span. When exact is false (series
+// mode only) the true value minus p is a power series with terms of total
+// degree > order only; p may still hold terms above the order that come
+// from exact summands (a sum keeps them), but every other operation with an
+// inexact operand truncates its result at the order. exact decides how p is
+// computed, as it always has; rem certifies the result: every term of the
+// true value minus p is a multiple of an element of the set rem (a set of
+// exponents with unit coefficients, minimal, every element of degree >
+// order), and rem is nil when the difference is zero. An exact value has a
+// nil rem; an inexact one usually has a non-nil rem, but not always (a
+// series that happens to terminate within the order).
 type value struct {
 	p        *Poly
 	exact    bool
+	rem      *Poly
 	off, end int
 }
 
@@ -496,7 +522,7 @@ func (p *parser) expr() (value, *Error) {
 	// collected and added pairwise, like a merge sort, so that a long sum
 	// costs O(T log k) rather than O(T k) for k summands with T terms in all.
 	var buf termBuf
-	var sum []*Poly
+	var sum, rems []*Poly
 	v := value{exact: true}
 	for i := 0; ; i++ {
 		neg := false
@@ -528,6 +554,9 @@ func (p *parser) expr() (value, *Error) {
 		v.exact = v.exact && w.exact
 		v.end = w.end
 		sum = append(sum, w.p)
+		if w.rem != nil {
+			rems = append(rems, w.rem)
+		}
 	}
 	if len(buf.coefs) > 0 {
 		sum = append(sum, buf.poly(p.vars))
@@ -545,6 +574,16 @@ func (p *parser) expr() (value, *Error) {
 	v.p = sum[0]
 	if v.p.Len() > p.lim.MaxTerms {
 		return v, p.tooMany(p.tok(), v)
+	}
+	if len(rems) == 1 {
+		v.rem = rems[0]
+	} else if len(rems) > 1 {
+		// Rule "Sums": the union of the remainders.
+		r, err := unionMin(p.rguard, rems...)
+		if err != nil {
+			return v, p.remErr(err, p.tok(), v)
+		}
+		v.rem = r
 	}
 	return v, nil
 }
@@ -732,6 +771,12 @@ func (p *parser) call(name string, nameTok token) (value, *Error) {
 	}
 	whole.p = res
 	whole.exact = arg.exact && u.IsZero()
+	a2, _ := seriesCoefs(name, k+2)
+	rem, rerr := composeRem(u, arg.rem, shapeOf(a2, k, false), k, p.order, p.rguard)
+	if rerr != nil {
+		return whole, p.remErr(rerr, nameTok, whole)
+	}
+	whole.rem = rem
 	return whole, nil
 }
 
@@ -744,6 +789,17 @@ func (p *parser) limitErr(err error, t token, v value) *Error {
 		return p.errAt(t, "%s: exponents of 2^62 or more are not supported", p.snippet(v))
 	}
 	return p.tooMany(t, v)
+}
+
+// remErr turns an error of the remainder bookkeeping into a parse error.
+func (p *parser) remErr(err error, t token, v value) *Error {
+	switch {
+	case errors.Is(err, errTooMuchWork):
+		return p.errSetting(t, "MaxWork", "%s: bounding the omitted terms needs more work than the limit %d allows", p.snippet(v), p.lim.MaxWork)
+	case errors.Is(err, errTooManyTerms):
+		return p.errSetting(t, "MaxTerms", "%s: bounding the omitted terms needs more than %d monomials, the limit", p.snippet(v), p.lim.MaxTerms)
+	}
+	return p.limitErr(err, t, v)
 }
 
 func (p *parser) tooMany(t token, v value) *Error {
@@ -771,13 +827,14 @@ func (p *parser) multiply(v, w value, op token) (value, *Error) {
 		}
 	}
 	// A constant factor scales every term, the exact ones above the order
-	// included, and cannot make them incomplete.
+	// included, and cannot make them incomplete. A non-zero constant keeps
+	// the remainder (rule "Sums").
 	if w.exact && w.p.IsConstant() {
-		r.p, r.exact = v.p.scale(w.p.constCoef()), v.exact
+		r.p, r.exact, r.rem = v.p.scale(w.p.constCoef()), v.exact, v.rem
 		return r, nil
 	}
 	if v.exact && v.p.IsConstant() {
-		r.p, r.exact = w.p.scale(v.p.constCoef()), w.exact
+		r.p, r.exact, r.rem = w.p.scale(v.p.constCoef()), w.exact, w.rem
 		return r, nil
 	}
 	prod, merr := p.mulTruncated(v.p, w.p)
@@ -785,6 +842,11 @@ func (p *parser) multiply(v, w value, op token) (value, *Error) {
 		return r, p.limitErr(merr, op, r)
 	}
 	r.p = prod
+	rem, rerr := productRem(v.p, v.rem, w.p, w.rem, p.order, p.rguard)
+	if rerr != nil {
+		return r, p.remErr(rerr, op, r)
+	}
+	r.rem = rem
 	return r, nil
 }
 
@@ -804,8 +866,9 @@ func (p *parser) divide(v, w value, op token) (value, *Error) {
 		if c.isZero() {
 			return r, p.errAt(op, "division by zero")
 		}
-		// Scaling keeps the exact terms above the order exact.
-		r.p, r.exact = v.p.scale(c.inv()), v.exact
+		// Scaling keeps the exact terms above the order exact, and the
+		// remainder.
+		r.p, r.exact, r.rem = v.p.scale(c.inv()), v.exact, v.rem
 		return r, nil
 	}
 	if p.order == 0 {
@@ -818,7 +881,7 @@ func (p *parser) divide(v, w value, op token) (value, *Error) {
 	if err != nil {
 		return r, err
 	}
-	return p.multiply(v, value{p: inv.p, exact: false, off: w.off, end: w.end}, op)
+	return p.multiply(v, value{p: inv.p, exact: false, rem: inv.rem, off: w.off, end: w.end}, op)
 }
 
 // raise returns base^ex; ex must be an exact constant.
@@ -883,6 +946,17 @@ func (p *parser) raise(base, ex value, op token) (value, *Error) {
 				return r, p.limitErr(perr, op, r)
 			}
 			r.p, r.exact = res, false
+			// Rule "Composition" with f(t) = t^n: res is U^n truncated
+			// at the order, which is 0 when n·m > order.
+			k := n
+			if m := base.p.MinDegree(); m > 0 {
+				k = min(n, p.order/m)
+			}
+			rem, rerr := composeRem(base.p, base.rem, powerShape(n, k), k, p.order, p.rguard)
+			if rerr != nil {
+				return r, p.remErr(rerr, op, r)
+			}
+			r.rem = rem
 			return r, nil
 		}
 		return p.seriesPower(base, e, r, op, "")
@@ -937,6 +1011,13 @@ func (p *parser) seriesPower(base value, e *big.Rat, whole value, at token, fn s
 	}
 	whole.p = res.scale(coefFromRat(ce))
 	whole.exact = base.exact && u.IsZero()
+	// The binomial series terminates when e is a natural number.
+	sh := shapeOf(binomialCoefs(e, k+2), k, e.IsInt() && e.Sign() >= 0)
+	rem, rerr := composeRem(u, base.rem, sh, k, p.order, p.rguard)
+	if rerr != nil {
+		return whole, p.remErr(rerr, at, whole)
+	}
+	whole.rem = rem
 	return whole, nil
 }
 
