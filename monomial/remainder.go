@@ -29,7 +29,7 @@ func splitDegree(p *Poly, d int) (high, low *Poly) {
 	low = p.Truncate(d)
 	i := len(p.coefs) - len(low.coefs)
 	n := len(p.vars)
-	return &Poly{vars: p.vars, exps: p.exps[:i*n : i*n], coefs: p.coefs[:i:i]}, low
+	return &Poly{vars: p.vars, exps: p.exps[: i*n : i*n], coefs: p.coefs[:i:i]}, low
 }
 
 // divTrie stores a set of exponents, each as the sequence of its non-zero
