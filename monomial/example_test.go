@@ -36,7 +36,7 @@ func ExampleParse_error() {
 	_, err = monomial.Parse("(x + y))", monomial.Config{})
 	fmt.Println(err)
 	// Output:
-	// 1:1: exp(1+x): constant term 1 would make the coefficients irrational; factor it out (exp(1)·exp(x)) or shift the variable
+	// 1:1: exp(1+x): the argument equals 1 at 0, so the Taylor coefficients would be irrational (multiples of exp(1)); factor the constant out: exp(1 + u) = exp(1)·exp(u), so write the model with exp(u)
 	// 1:8: expected operator or end of expression, found ')'
 }
 

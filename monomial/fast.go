@@ -205,6 +205,9 @@ func (p *parser) fastPrimary(depth int) (coef, bool) {
 			return coefZero, false
 		}
 		v := p.varIndex(name)
+		if p.shifted(v) {
+			return coefZero, false // a + x at the expansion point is not a monomial
+		}
 		p.fastAdvance()
 		if p.cur.kind == tLParen {
 			return coefZero, false // the general path reports the unknown function

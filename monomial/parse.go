@@ -17,13 +17,27 @@ type Config struct {
 	// is compared piecewise, runs of letters and underscores as text and
 	// runs of digits as numbers, so w2 < w10 < x < x1 < x2.
 	Vars []string
-	// Order, if > 0, asks for an expansion around 0 that is exact up to
-	// total degree Order: the parts of the expression that are series are
-	// truncated above Order, the exact polynomial parts are kept whole (see
-	// Expansion). If 0, the expression must be a polynomial, and anything
-	// else (a function, a division by a non-constant, a negative or
-	// fractional power) is an error asking for an order.
+	// Order, if > 0, asks for an expansion around 0 (or around At) that is
+	// exact up to total degree Order: the parts of the expression that are
+	// series are truncated above Order, the exact polynomial parts are kept
+	// whole (see Expansion). If 0, the expression must be a polynomial, and
+	// anything else (a function, a division by a non-constant, a negative
+	// or fractional power) is an error asking for an order.
 	Order int
+	// At, if not empty, is the expansion point: it maps variable names to
+	// exact values (absent names are 0). Every variable x of the text with
+	// a value a is read as a + x before anything is evaluated, so each
+	// function is expanded around the value of its argument at the point,
+	// and the result (with its Remainder) is a polynomial in the offsets
+	// from the point, under the same variable names. For a polynomial this
+	// gives Poly.Translate of the polynomial at the point. A function
+	// whose Taylor coefficients at the point are irrational is refused
+	// (exp, sin, cos, sinh, cosh, tanh, atan need an argument that
+	// vanishes at the point, log one that equals 1 there; see the package
+	// documentation). Every name must be a variable of the text or of
+	// Vars, and every value non-nil; otherwise Parse returns an error that
+	// is not an *Error. The map is only read.
+	At map[string]*big.Rat
 	// Limits guard against runaway expansion; zero fields take defaults.
 	Limits Limits
 }
@@ -72,10 +86,14 @@ type Error struct {
 	Msg               string
 	// Setting names what would let the input through, when something
 	// would: "Order" when the expression needs a truncation order
-	// (Config.Order > 0), or the field of Limits that was exceeded
-	// ("MaxTerms", "MaxExponent", "MaxBits", "MaxWork", "MaxVars"). It is
-	// empty for errors in the text itself. Msg does not name the setting,
-	// so that a program can say in its own terms what to change.
+	// (Config.Order > 0); "At" when it has no Taylor series at the
+	// expansion point because the argument of log, sqrt or a fractional
+	// power, a negative power's base or a divisor vanishes there, so that
+	// another point (Config.At) may lift the error; or the field of Limits
+	// that was exceeded ("MaxTerms", "MaxExponent", "MaxBits", "MaxWork",
+	// "MaxVars"). It is empty for errors in the text itself (irrational
+	// coefficients included: they ask for a rewrite). Msg does not name the
+	// setting, so that a program can say in its own terms what to change.
 	Setting string
 }
 
@@ -217,6 +235,9 @@ type session struct {
 	// names up.
 	idents []int32
 	order  int
+	// at holds the expansion point by variable index (nil when every
+	// value is 0, the origin).
+	at     []coef
 	lim    Limits
 	guard  *guard // shared by all expressions of the source
 	// rguard bounds the remainder bookkeeping with a budget of its own
@@ -296,7 +317,52 @@ func newSession(src string, cfg Config, list bool) (*session, error) {
 		}
 	}
 	s.idents = ids
+	if err := s.setPoint(cfg.At); err != nil {
+		return nil, err
+	}
 	return s, nil
+}
+
+// setPoint checks Config.At and records the non-zero values.
+func (s *session) setPoint(at map[string]*big.Rat) error {
+	if len(at) == 0 {
+		return nil
+	}
+	names := make([]string, 0, len(at))
+	for name := range at {
+		names = append(names, name)
+	}
+	slices.Sort(names) // report the first bad name in a fixed order
+	for _, name := range names {
+		a := at[name]
+		i, ok := s.index[name]
+		switch {
+		case !ok && !IsIdentifier(name):
+			return fmt.Errorf("monomial: Config.At: %q is not a valid variable name", name)
+		case !ok:
+			return fmt.Errorf("monomial: Config.At: %s is not a variable of the text or of Config.Vars", name)
+		case a == nil:
+			return fmt.Errorf("monomial: Config.At: the value of %s is nil", name)
+		case a.Sign() == 0:
+			continue
+		}
+		if s.at == nil {
+			s.at = make([]coef, len(s.vars))
+		}
+		s.at[i] = coefFromRat(a)
+	}
+	return nil
+}
+
+// shifted reports whether variable v is read as a + x with a != 0.
+func (s *session) shifted(v int) bool { return s.at != nil && !s.at[v].isZero() }
+
+// place names the expansion point in messages.
+func (s *session) place() string {
+	if s.at == nil {
+		return "0"
+	}
+	return "the expansion point"
 }
 
 // nameTable maps identifier names to int32 values, for the variable
@@ -676,7 +742,11 @@ func (p *parser) primary() (value, *Error) {
 		if p.tok().kind == tLParen {
 			return value{}, p.errAt(t, "unknown function %s", name)
 		}
-		return value{p: p.variable(v), exact: true, off: t.off, end: t.end}, nil
+		x := p.variable(v)
+		if p.shifted(v) {
+			x = x.Add(constPoly(p.vars, p.at[v])) // the point plus the offset
+		}
+		return value{p: x, exact: true, off: t.off, end: t.end}, nil
 	case tLParen:
 		if err := p.enter(); err != nil {
 			return value{}, err
@@ -736,27 +806,19 @@ func (p *parser) call(name string, nameTok token) (value, *Error) {
 	if p.order == 0 {
 		return whole, p.errSetting(nameTok, "Order", "%s is not a polynomial; it can only be expanded as a truncated power series, which needs a truncation order", p.snippet(whole))
 	}
+	// The constant term of the argument is its value at the expansion
+	// point (a remainder only has terms of positive degree).
 	c := arg.p.constCoef()
 	switch name {
 	case "sqrt":
 		return p.seriesPower(arg, big.NewRat(1, 2), whole, nameTok, "sqrt")
 	case "log":
 		if !c.isOne() {
-			switch c.sign() {
-			case 0:
-				return whole, p.errAt(nameTok, "%s: the argument vanishes at 0, where log has no Taylor series", p.snippet(whole))
-			case -1:
-				return whole, p.errAt(nameTok, "%s: the argument has negative constant term %s, where log is not real", p.snippet(whole), c.ratView().RatString())
-			}
-			return whole, p.errAt(nameTok, "%s: constant term %s would make the coefficients irrational; log needs an argument with constant term 1: write log(c+u) as log(c) + log(1+u/c)", p.snippet(whole), c.ratView().RatString())
+			return whole, p.logErr(nameTok, whole, arg, c)
 		}
 	default:
 		if !c.isZero() {
-			hint := "shift the variable so that the argument vanishes at 0"
-			if name == "exp" {
-				hint = fmt.Sprintf("factor it out (exp(%s)·exp(%s)) or shift the variable", c.ratView().RatString(), shorten(arg.p.withoutConstant().String()))
-			}
-			return whole, p.errAt(nameTok, "%s: constant term %s would make the coefficients irrational; %s", p.snippet(whole), c.ratView().RatString(), hint)
+			return whole, p.irrationalErr(nameTok, name, whole, arg, c)
 		}
 	}
 	u := arg.p.withoutConstant()
@@ -778,6 +840,70 @@ func (p *parser) call(name string, nameTok token) (value, *Error) {
 	}
 	whole.rem = rem
 	return whole, nil
+}
+
+// pointErr is errAt for an expression that has no Taylor series at the
+// expansion point because v vanishes there: Setting is "At" unless v is an
+// exact constant, which vanishes at every point.
+func (p *parser) pointErr(t token, v value, format string, args ...any) *Error {
+	e := p.errAt(t, format, args...)
+	if !(v.exact && v.p.IsConstant()) {
+		e.Setting = "At"
+	}
+	return e
+}
+
+// logErr reports log(a) where a does not equal 1 at the expansion point;
+// c is the value there.
+func (p *parser) logErr(t token, whole, arg value, c coef) *Error {
+	what, cs := p.snippet(whole), c.ratView().RatString()
+	switch c.sign() {
+	case 0:
+		return p.pointErr(t, arg, "%s: the argument vanishes at %s, where log has no Taylor series", what, p.place())
+	case -1:
+		return p.errAt(t, "%s: the argument equals %s at %s, where log is not real", what, cs, p.place())
+	}
+	a := shorten(p.src[arg.off:arg.end])
+	return p.errAt(t, "%s: the argument equals %s at %s, so the Taylor series starts with the irrational constant log(%s); since log(a) = log(%s) + log(a/%s), write the model with log(%s*(%s)), whose argument is 1 there", what, cs, p.place(), cs, cs, cs, c.inv().ratView().RatString(), a)
+}
+
+// irrationalErr reports a function other than log, sqrt and powers whose
+// argument does not vanish at the expansion point (c is its value there):
+// its Taylor coefficients there are irrational.
+func (p *parser) irrationalErr(t token, name string, whole, arg value, c coef) *Error {
+	what, cs := p.snippet(whole), c.ratView().RatString()
+	switch name {
+	case "exp":
+		return p.errAt(t, "%s: the argument equals %s at %s, so the Taylor coefficients would be irrational (multiples of exp(%s)); factor the constant out: exp(%s + u) = exp(%s)·exp(u), so write the model with exp(u)", what, cs, p.place(), cs, cs, cs)
+	case "atan":
+		a := "(" + shorten(p.src[arg.off:arg.end]) + ")"
+		num, den := offsetText("a", c)
+		rnum, rden := offsetText(a, c)
+		return p.errAt(t, "%s: the argument equals %s at %s, so the Taylor series starts with the irrational constant atan(%s); since atan(a) = atan(%s) + atan((%s)/(%s)), write the model with atan((%s)/(%s)), whose argument is 0 there", what, cs, p.place(), cs, cs, num, den, rnum, rden)
+	}
+	identity := map[string]string{
+		"sin":  "sin(%[1]s + u) = sin(%[1]s)·cos(u) + cos(%[1]s)·sin(u)",
+		"cos":  "cos(%[1]s + u) = cos(%[1]s)·cos(u) - sin(%[1]s)·sin(u)",
+		"sinh": "sinh(%[1]s + u) = cosh(%[1]s)·sinh(u) + sinh(%[1]s)·cosh(u)",
+		"cosh": "cosh(%[1]s + u) = cosh(%[1]s)·cosh(u) + sinh(%[1]s)·sinh(u)",
+		"tanh": "tanh(%[1]s + u) = (tanh(%[1]s) + tanh(u))/(1 + tanh(%[1]s)·tanh(u))",
+	}[name]
+	return p.errAt(t, "%s: the argument equals %s at %s, so the Taylor coefficients would be irrational: %s, and no rewrite has rational ones; write the model with an argument that vanishes there (shift the variable or move the constant into a parameter)", what, cs, p.place(), fmt.Sprintf(identity, cs))
+}
+
+// offsetText formats a minus c and 1 plus c times a, where a is the text
+// of an operand, for the rewrite of atan.
+func offsetText(a string, c coef) (minus, onePlus string) {
+	abs, op1, op2 := c, "-", "+"
+	if c.sign() < 0 {
+		abs, op1, op2 = c.neg(), "+", "-"
+	}
+	cs := abs.ratView().RatString()
+	factor := cs + "*"
+	if abs.isOne() {
+		factor = ""
+	}
+	return fmt.Sprintf("%s %s %s", a, op1, cs), fmt.Sprintf("1 %s %s%s", op2, factor, a)
 }
 
 // limitErr turns an error of a guarded computation into a parse error.
@@ -875,7 +1001,7 @@ func (p *parser) divide(v, w value, op token) (value, *Error) {
 		return r, p.errSetting(op, "Order", "division by %s, which is not constant, is not a polynomial; it can only be expanded as a truncated power series, which needs a truncation order", p.snippet(w))
 	}
 	if w.p.vanishesAtZero() {
-		return r, p.errAt(op, "division by %s, which vanishes at 0: the quotient has no Taylor series at 0", p.snippet(w))
+		return r, p.pointErr(op, w, "division by %s, which vanishes at %s: the quotient has no Taylor series there", p.snippet(w), p.place())
 	}
 	inv, err := p.seriesPower(w, big.NewRat(-1, 1), w, op, "")
 	if err != nil {
@@ -979,22 +1105,22 @@ func (p *parser) seriesPower(base value, e *big.Rat, whole value, at token, fn s
 	what := p.snippet(whole)
 	if c.isZero() {
 		if fn != "" {
-			return whole, p.errAt(at, "%s: the argument vanishes at 0, where %s has no Taylor series", what, fn)
+			return whole, p.pointErr(at, base, "%s: the argument vanishes at %s, where %s has no Taylor series", what, p.place(), fn)
 		}
-		return whole, p.errAt(at, "%s: the base vanishes at 0, so this power has no Taylor series at 0", what)
+		return whole, p.pointErr(at, base, "%s: the base vanishes at %s, so this power has no Taylor series there", what, p.place())
 	}
 	ce, ok := ratPow(c.ratView(), e)
 	if !ok {
 		cs := c.ratView().RatString()
 		switch {
 		case fn == "sqrt" && c.sign() < 0:
-			return whole, p.errAt(at, "%s: the argument has negative constant term %s", what, cs)
+			return whole, p.errAt(at, "%s: the argument equals %s at %s, where sqrt is not real", what, cs, p.place())
 		case fn == "sqrt":
-			return whole, p.errAt(at, "%s: constant term %s is not the square of a rational, so the coefficients would be irrational; scale the argument so that its constant term is a rational square such as 1 or 4", what, cs)
+			return whole, p.errAt(at, "%s: the argument equals %s at %s, which is not the square of a rational, so the Taylor coefficients would be irrational (multiples of sqrt(%s)); scale the argument so that its value there is a rational square such as 1 or 4 (sqrt(c*v) = sqrt(c)*sqrt(v) moves a factor out)", what, cs, p.place(), cs)
 		case c.sign() < 0 && e.Denom().Bit(0) == 0:
-			return whole, p.errAt(at, "%s: the base has negative constant term %s, so the power is not real", what, cs)
+			return whole, p.errAt(at, "%s: the base equals %s at %s, so the power is not real", what, cs, p.place())
 		default:
-			return whole, p.errAt(at, "%s: constant term %s has no rational %s-th root, so the coefficients would be irrational; scale the base so that its constant term is, for example, 1", what, cs, e.Denom())
+			return whole, p.errAt(at, "%s: the base equals %s at %s, which has no rational %s-th root, so the Taylor coefficients would be irrational; scale the base so that its value there is, for example, 1", what, cs, p.place(), e.Denom())
 		}
 	}
 	if float64(ce.Num().BitLen()+ce.Denom().BitLen()) > float64(p.lim.MaxBits) {
