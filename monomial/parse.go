@@ -237,9 +237,9 @@ type session struct {
 	order  int
 	// at holds the expansion point by variable index (nil when every
 	// value is 0, the origin).
-	at     []coef
-	lim    Limits
-	guard  *guard // shared by all expressions of the source
+	at    []coef
+	lim   Limits
+	guard *guard // shared by all expressions of the source
 	// rguard bounds the remainder bookkeeping with a budget of its own
 	// (the same limits), so that the bookkeeping does not use up the
 	// budget of the expansion.
