@@ -108,3 +108,19 @@ func ExamplePoly_Embed() {
 	// y*x [y z x] <nil>
 	// monomial: Embed: variable "y" is missing from the target list [x]
 }
+
+// ExampleExpansion_remainder shows a remainder: tanh(b) = b - b^3/3 + …
+// (Abramowitz & Stegun 1964, eq. 4.5.64, from memory), so a·tanh(b) to
+// order 4 misses only multiples of a·b^5.
+func ExampleExpansion_remainder() {
+	e, err := monomial.Parse("a*tanh(b) + c^7", monomial.Config{Order: 4})
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	fmt.Println(e.Poly, e.Poly.Vars())
+	fmt.Println(e.Remainder, e.Truncated)
+	// Output:
+	// c^7 - 1/3*a*b^3 + a*b [a b c]
+	// [[1 5 0]] true
+}

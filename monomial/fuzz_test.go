@@ -2,6 +2,7 @@ package monomial
 
 import (
 	"errors"
+	"math/big"
 	"testing"
 	"unicode/utf8"
 )
@@ -12,9 +13,14 @@ var fuzzLimits = Limits{MaxTerms: 5000, MaxExponent: 60, MaxOrder: 8, MaxBits: 5
 // FuzzParse checks that no input makes the parser panic, that errors carry
 // sane positions, that whatever parses prints and re-parses to the same
 // polynomial, that a series expansion agrees with the one of the next
-// order up to its own order (exactly, when it is not truncated), that the
-// lexer agrees with the reference lexer, and that the fast path for sums of
-// monomials gives the same result or error as the general path.
+// order up to its own order (exactly, when it is not truncated), that its
+// remainder is well formed and covers the difference with the expansion of
+// the next order (checkRemainderAgainst), that the lexer agrees with the
+// reference lexer, that the fast path for sums of monomials gives the same
+// result or error as the general path, and that an expansion around a
+// point (chosen from the order byte) either fails with a positioned error
+// or has a well-formed remainder, and equals Poly.Translate when the
+// expression is an exact polynomial.
 func FuzzParse(f *testing.F) {
 	for _, tc := range validCases {
 		f.Add(tc.src, uint8(tc.order))
@@ -22,7 +28,7 @@ func FuzzParse(f *testing.F) {
 	for _, tc := range invalidCases {
 		f.Add(tc.src, uint8(tc.order))
 	}
-	for _, s := range []string{"tanh(x*y+z)", "atan(x)^3/(1+y)", "exp(sin(x))", "(1+x+y)^(-1/2)", "x;y\nz", "((x)", "1/(1+x", "2**-1**2", "-(-(-x))^2", "(x^3)^4611686018427387904", "x^123456*y", "(-1)^99999999999"} {
+	for _, s := range []string{"a*tanh(b)", "tanh(b)^2", "x^2*(1 - cos(y))", "log(x)", "sqrt(x - 1)", "exp(x - 1/2)*y", "tanh(x*y+z)", "atan(x)^3/(1+y)", "exp(sin(x))", "(1+x+y)^(-1/2)", "x;y\nz", "((x)", "1/(1+x", "2**-1**2", "-(-(-x))^2", "(x^3)^4611686018427387904", "x^123456*y", "(-1)^99999999999"} {
 		f.Add(s, uint8(4))
 	}
 	// Shapes of the fast path for sums of monomials, and where it declines.
@@ -39,6 +45,8 @@ func FuzzParse(f *testing.F) {
 			checkErrorPosition(t, src, err)
 		} else {
 			roundTrip(t, src, e)
+			checkRemainderShape(t, src, e)
+			checkAtPoint(t, src, cfg, e, order)
 			if cfg.Order > 0 {
 				next := cfg
 				next.Order++
@@ -54,6 +62,7 @@ func FuzzParse(f *testing.F) {
 		} else {
 			for _, e := range list {
 				roundTrip(t, src, e)
+				checkRemainderShape(t, src, e)
 			}
 		}
 		if r, err := ParseRat(src); err == nil {
@@ -120,5 +129,37 @@ func checkOrders(t *testing.T, src string, lo, hi *Expansion) {
 	}
 	if !lo.Truncated && !hi.Truncated && !lo.Poly.Equal(hi.Poly) {
 		t.Fatalf("%q: exact at orders %d and %d but %v != %v", src, lo.Order, hi.Order, lo.Poly, hi.Poly)
+	}
+	checkRemainderAgainst(t, src, lo, hi)
+}
+
+// checkAtPoint parses src again around a point where the first variable
+// of e has a value chosen by the order byte (in -2, -3/2, …, 2), and checks
+// the result: a positioned error, or a well-formed remainder, and for an
+// exact polynomial e with an exact result, e translated to the point.
+func checkAtPoint(t *testing.T, src string, cfg Config, e *Expansion, order uint8) {
+	t.Helper()
+	vars := e.Poly.Vars()
+	if len(vars) == 0 {
+		return
+	}
+	a := big.NewRat(int64(order/9%9)-4, 2)
+	cfg.At = map[string]*big.Rat{vars[0]: a}
+	cfg.Vars = vars
+	ea, err := Parse(src, cfg)
+	if err != nil {
+		checkErrorPosition(t, src, err)
+		return
+	}
+	checkRemainderShape(t, src, ea)
+	if !e.Truncated && !ea.Truncated {
+		point := make([]*big.Rat, len(vars))
+		for i := range point {
+			point[i] = new(big.Rat)
+		}
+		point[0] = a
+		if want := e.Poly.Translate(point); !ea.Poly.Equal(want) {
+			t.Fatalf("%q at %s = %s: %v, want the translate %v", src, vars[0], a.RatString(), ea.Poly, want)
+		}
 	}
 }
