@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"math/big"
 	"math/rand/v2"
+	"strings"
 	"testing"
 )
 
@@ -220,5 +221,48 @@ func BenchmarkParse(b *testing.B) {
 			b.ReportMetric(float64(b.Elapsed().Nanoseconds())/float64(b.N)/float64(in.terms), "ns/term")
 			b.ReportMetric(float64(e.Poly.Len()), "result-terms")
 		})
+	}
+}
+
+// tanhNetwork returns Σ_{p=1..3} (Σ_{k=1..3} a_k·tanh(x_p·b_k))², the
+// divergence of a one-hidden-layer tanh network with three units at three
+// inputs; with numbers the inputs x_p are the numbers 1/2, 1, 3/2 instead
+// of variables.
+func tanhNetwork(numbers bool) string {
+	var outer []string
+	for p := 1; p <= 3; p++ {
+		x := fmt.Sprintf("x%d", p)
+		if numbers {
+			x = []string{"1/2", "1", "3/2"}[p-1]
+		}
+		var inner []string
+		for k := 1; k <= 3; k++ {
+			inner = append(inner, fmt.Sprintf("a%d*tanh(%s*b%d)", k, x, k))
+		}
+		outer = append(outer, "("+strings.Join(inner, " + ")+")^2")
+	}
+	return strings.Join(outer, " + ")
+}
+
+// BenchmarkTanhNetwork expands the tanh network of tanhNetwork at orders
+// 8, 10 and 12, with its remainder. It reports the terms of the
+// expansion and the generators of the remainder.
+func BenchmarkTanhNetwork(b *testing.B) {
+	for _, numbers := range []bool{false, true} {
+		src := tanhNetwork(numbers)
+		for _, d := range []int{8, 10, 12} {
+			b.Run(fmt.Sprintf("inputs=%s/order=%d", map[bool]string{false: "vars", true: "numbers"}[numbers], d), func(b *testing.B) {
+				var e *Expansion
+				b.ReportAllocs()
+				for b.Loop() {
+					var err error
+					if e, err = Parse(src, Config{Order: d}); err != nil {
+						b.Fatal(err)
+					}
+				}
+				b.ReportMetric(float64(e.Poly.Len()), "terms")
+				b.ReportMetric(float64(len(e.Remainder)), "generators")
+			})
+		}
 	}
 }

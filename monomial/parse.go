@@ -254,7 +254,10 @@ func newSession(src string, cfg Config, list bool) (*session, error) {
 	if cfg.Order > lim.MaxOrder {
 		return nil, fmt.Errorf("monomial: Config.Order %d exceeds the limit %d (Limits.MaxOrder)", cfg.Order, lim.MaxOrder)
 	}
-	s := &session{src: src, list: list, order: cfg.Order, lim: lim, index: map[string]int{}, guard: newGuard(lim), rguard: newGuard(lim)}
+	s := &session{src: src, list: list, order: cfg.Order, lim: lim, index: map[string]int{}, guard: newGuard(lim)}
+	if cfg.Order > 0 {
+		s.rguard = newGuard(lim) // remainders only arise in series mode
+	}
 	if len(cfg.Vars) > lim.MaxVars {
 		return nil, fmt.Errorf("monomial: Config.Vars has %d variables, more than the limit %d (Limits.MaxVars)", len(cfg.Vars), lim.MaxVars)
 	}

@@ -198,6 +198,7 @@ func TestRemainderTightness(t *testing.T) {
 		{"tanh(b)", 4}, {"tanh(b)", 3}, {"a*tanh(b)", 4}, {"a*tanh(b)", 6}, {"tanh(b)^2", 4}, {"tanh(b)^2", 8},
 		{"x^2*(1 - cos(y))", 4}, {"x^2*(1 - cos(y))", 7}, {"tanh(x*y + z)", 3}, {"exp(x+y)", 2},
 		{"(tanh(x) + y^10)^2", 4}, {"x/(1+y)", 2}, {"log(1 + x*y)", 3}, {"sqrt(4+x)", 5},
+		{tanhNetwork(false), 8}, {tanhNetwork(false), 12},
 	} {
 		lo, err := Parse(tc.src, Config{Order: tc.order})
 		if err != nil {
