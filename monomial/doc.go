@@ -67,9 +67,10 @@
 // With Order = D > 0 the expression may also involve series, and the
 // result is exact up to total degree D. Precisely: the value of the
 // expression minus [Expansion].Poly is a power series all of whose terms
-// have total degree > D, and [Expansion].Truncated is true exactly when
-// that difference may be non-zero. The parser keeps, for every
-// subexpression, whether its polynomial is exact:
+// have total degree > D and are multiples of a monomial of
+// [Expansion].Remainder (see Remainders below), and [Expansion].Truncated
+// is true exactly when the remainder is not empty. The parser keeps, for
+// every subexpression, whether its polynomial is exact:
 //
 //   - Exact values are never truncated (but see the last point). Numbers, variables, and sums,
 //     products and non-negative integer powers of exact values are expanded
@@ -95,17 +96,158 @@
 //     mode.
 //
 // Functions are composed with their argument by one general mechanism: the
-// univariate Taylor coefficients of the function (exact rationals) are
-// composed with the argument minus its constant term by Horner's scheme
+// univariate Taylor coefficients of the function at the value c of the
+// argument at the expansion point (the constant term of the argument's
+// polynomial) are composed with the argument minus c by Horner's scheme
 // with truncation. The Taylor coefficients are rational only for suitable
-// constant terms, so
+// values c, so
 //
 //   - exp, sin, cos, sinh, cosh, tanh and atan need an argument vanishing
-//     at 0 (exp(1+x) is refused: exp(1) is irrational);
-//   - log needs constant term exactly 1, as in log(1+u);
+//     at the point (exp(1+x) at 0 is refused: exp(1) is irrational; for
+//     atan and log only the constant term would be irrational, and the
+//     message gives the rewrite atan(a) = atan(c) + atan((a - c)/(1 + c*a))
+//     or log(a) = log(c) + log(a/c));
+//   - log needs an argument equal to 1 at the point, as in log(1+u);
 //   - sqrt(c+u) and (c+u)^(p/q) need c^(p/q) rational (c = 1, or 4 for
 //     sqrt), and negative integer powers and divisions need c != 0; they use
 //     the binomial series of (1+u/c)^(p/q).
+//
+// A refusal is an [*Error] at the function (or the operator) that names the
+// function, the value of its argument at the point and how to rewrite the
+// model. When the argument (or the base, or the divisor) vanishes at the
+// point, so that there is no Taylor series there at all, Error.Setting is
+// "At" (unless it is an exact constant): another expansion point may lift
+// the error.
+//
+// # Expansion at a point
+//
+// [Config].At gives an expansion point: every variable x with a value a is
+// read as a + x before anything is evaluated, so the result is the Taylor
+// expansion at the point, written in the offsets from it under the same
+// variable names. For a polynomial this is [Poly.Translate] at the point
+// (and exact); tanh(x - 1) at x = 1 is tanh(x) at 0. Sums of monomials in
+// variables with a non-zero value are read by the general rules instead of
+// the fast path (a + x is not a monomial), so long such sums are slower to
+// read than at 0.
+//
+// # Remainders
+//
+// Every value carries, next to its polynomial P, a remainder: a finite set
+// R of exponents such that every term of V - P is a multiple of x^r for
+// some r in R, where V is the value (its Taylor series at the point, a
+// formal power series). This section gives the rules and proves them.
+//
+// Notation. For a finite set R of exponents, I(R) is the set of formal
+// power series all of whose terms are multiples of some x^r, r in R
+// (I(∅) = {0}); supp P is the set of exponents of P; R + T = {r + t};
+// Min(R) is the set of elements of R that are not multiples of another
+// element; |e| is the total degree; T_D(P) is P without its terms of degree
+// > D. Checking one coefficient at a time (a finite sum) gives:
+//
+//	(a) I(R) is closed under sums, also infinite ones in which each exponent
+//	    receives finitely many contributions, and under multiplication by
+//	    any power series.
+//	(b) I(R)·I(T) ⊆ I(R + T).
+//	(c) I(R) + I(T) = I(R ∪ T).
+//	(d) If every element of R is a multiple of an element of T, then
+//	    I(R) ⊆ I(T). In particular I(Min(R)) = I(R).
+//
+// The parser keeps, for every subexpression v, its polynomial P_v and a
+// minimal set R_v with V_v - P_v in I(R_v), and every element of R_v has
+// degree > D (so the terms of P_v of degree <= D are Taylor coefficients).
+// Let S_v = Min(supp P_v ∪ R_v); then V_v = P_v + (V_v - P_v) lies in
+// I(S_v). The rules, each with its proof:
+//
+//  1. Exact values (numbers, variables, and what is computed from exact
+//     values without truncation): R = ∅.
+//  2. Sums, differences, sign changes, products with and divisions by a
+//     non-zero exact constant compute P without truncation, so
+//     V - P = (V1 - P1) ± (V2 - P2) lies in I(R1 ∪ R2) by (c), and a
+//     constant factor leaves I(R) as it is: R = Min(R1 ∪ R2).
+//  3. Products truncated at D (an inexact factor, or an exact product beyond
+//     the Limits): P = T_D(P1·P2) and
+//     V1·V2 - P = (V1 - P1)·V2 + P1·(V2 - P2) + (P1·P2 - T_D(P1·P2)).
+//     The first part lies in I(R1 + S2) and the second in I(S1 + R2) by
+//     (b); the third has its terms at exponents e1 + e2 (e1 in supp P1, e2
+//     in supp P2) of degree > D, and each of those is a multiple of e2 + e1'
+//     with e1' a minimal exponent of P1 of degree >= D + 1 - |e2|; call the
+//     set of these Drop. So R = Min((R1 + S2) ∪ (S1 + R2) ∪ Drop) by (c),
+//     (d).
+//  4. Compositions f(a), where f(c + t) = Σ a_j t^j with rational a_j: the
+//     functions, the binomial series (c + t)^r = c^r Σ C(r, j) (t/c)^j of
+//     sqrt, rational and negative powers and of 1/a, and t^n for an integer
+//     power of a value that vanishes at the point. Here c is the constant
+//     term of P_a, which is the value of a at the point because no element
+//     of R_a has degree 0. Write u = V_a - c and U = P_a - c (divided by c
+//     for the binomial series, which changes no support), m the least
+//     degree in U, k = ⌊D/m⌋, A = {j >= 1 : a_j != 0}, j1 = min A, and j0
+//     the least element of A above k (none when f is a polynomial of degree
+//     <= k). Horner's scheme with truncation computes P = T_D(Σ_{j<=k} a_j
+//     U^j), and
+//     f(V_a) - P = Σ_{j∈A} a_j (u^j - U^j) + [Σ_{j∈A} a_j U^j - P],
+//     where both sums converge formally (u and U have no constant term).
+//     First part: u^j - U^j = (u - U)·Σ_{i<j} u^i U^(j-1-i) lies in
+//     I(R_a + S^(j-1)) by (b), where S = Min(supp U ∪ R_a) (so u, U lie in
+//     I(S)) and S^(i) = Min of the i-fold sums of S (S^(0) = {0}); for j >=
+//     j1 every (j-1)-fold sum is a multiple of a (j1-1)-fold one, so the
+//     whole part lies in I(R_a + S^(j1-1)), which is I(R_a) when j1 = 1
+//     (exp, log, sin, sinh, tanh, atan, binomial series) and I(R_a + S) for
+//     cos and cosh. Second part: let G = supp U, PS_j the set of j-fold
+//     sums of G (which contains supp U^j), L_0 = {0}, H_0 = ∅, and
+//     L_j = the elements of L_(j-1) + G of degree <= D,
+//     H_j = Min(the elements of L_(j-1) + G of degree > D ∪ (H_(j-1) + G)).
+//     By induction every element of PS_j of degree <= D is in L_j and
+//     every one of degree > D is a multiple of an element of H_j (write it
+//     m + g with m in PS_(j-1): if |m| <= D it lies in L_(j-1) + G, else it
+//     is a multiple of an element of H_(j-1) + G). The terms of Σ_{j∈A} a_j
+//     U^j of degree <= D come from j <= k only (U^j has degree >= j·m > D
+//     otherwise), and P is exactly those, so the bracket is the part of
+//     degree > D of Σ_{j∈A, j<=k} a_j U^j plus Σ_{j∈A, j>k} a_j U^j. For
+//     j >= j0 every element of PS_j is a multiple of one of PS_j0 (PS_j =
+//     PS_j0 + PS_(j-j0)), all of degree > D. So the bracket lies in
+//     I(⋃_{j∈A, j<=k} H_j ∪ H_j0), and
+//     R = Min((R_a + S^(j1-1)) ∪ ⋃_{j∈A, j<=k} H_j ∪ H_j0).
+//     Whether a_j = 0 is read off the exact coefficients; j0 is found among
+//     k+1 and k+2 (every coefficient of exp and log(1+t) is non-zero, every
+//     odd one of sin, sinh, tanh and atan and every even one of cos and
+//     cosh; C(r, j) = 0 only for a natural number r < j), and k+1 is used
+//     if neither is non-zero, which is sound by the remark below.
+//     Coarsenings. Each part may be replaced by a set whose ideal is
+//     larger, by (d), and the parser does so where it saves work: it
+//     removes from H_j the multiples of generators already found (the
+//     induction goes through with those generators added to H_j); it uses
+//     H_i for some k < i <= j0 in place of H_j0 (for j >= i > k, PS_j is
+//     made of multiples of elements of PS_i) and S^(i) for some i <= j1 - 1
+//     in place of S^(j1-1). Beyond k+1 all of PS_j has degree > D, so
+//     H_j0 is computed as Min(H_(k+1) + Min PS_(j0-k-1)), the last factor
+//     by binary powering of sets (Min(A + B) of Min PS_a and Min PS_b is
+//     Min PS_(a+b)); when a set would exceed 4096 elements or a small work
+//     budget (only for large integer powers) the powering stops at a
+//     smaller count, which is one of the coarsenings above. So the
+//     remainder of (x+y+z)^5000 at order 3, a power that the Limits keep
+//     from being expanded, is the set of all monomials of one degree
+//     between 4 and 5000.
+//  5. Integer powers: v^0 = 1 exactly; powers of exact values within the
+//     Limits are exact (rule 1); a power of an inexact value, or of an
+//     exact one beyond the Limits, is rule 4 with t^n when it vanishes at
+//     the point (A = {n}) and with the binomial series otherwise.
+//  6. Divisions by a non-constant: v/w = v·w^(-1), rule 4 for w^(-1) and
+//     then rule 3.
+//
+// Every element that the rules introduce has degree > D: those of Drop and
+// of H_j by definition, and those of R + S are multiples of elements of R.
+//
+// The rules look at supports and not at coefficients, so a remainder can
+// be larger than the least possible one when coefficients cancel, but they
+// keep the monomial factors of a value: to order 4, tanh(b) = b - b^3/3 has
+// remainder {b^5}, a·tanh(b) has {a·b^5} and tanh(b)^2 = b^2 - 2/3·b^4 has
+// {b^6} (to order 3 these are {b^5}, {a·b^3} and {b^4}: the truncation of
+// the product drops the true terms -a·b^3/3 and -2/3·b^4). Likewise
+// x^2·(1 - cos(y)) to order 4 is x^2·y^2/2 with remainder {x^2·y^4}, not
+// {x^2·y^5}: the truncated product lacks the true term -x^2·y^4/24. The
+// bookkeeping works on exponents only, with a work budget of its own of
+// Limits.MaxWork units and the MaxTerms limit on intermediate sets; an
+// error there is reported like the other limit errors.
 //
 // # Limits
 //

@@ -45,15 +45,17 @@ type Config struct {
 // Expansion is the result of parsing one expression.
 //
 // With Order = 0, Poly is the value of the expression. With Order = D > 0
-// the value of the expression minus Poly is a power series all of whose
-// terms have total degree > D, and Truncated is true exactly when that
-// difference may be non-zero. So Poly always has the Taylor coefficients of
-// the value for every degree <= D; it also keeps, above D, every term of
-// the exact polynomial parts of the expression (x^2 + y^10 with Order 8
-// gives both terms and Truncated = false). When Truncated is true, a term
-// of Poly above D need not be the Taylor coefficient of the value: in
-// tanh(x) + x^11 with Order 4, Poly = x - 1/3*x^3 + x^11 while the x^11
-// coefficient of the value also has a contribution from tanh(x).
+// the value of the expression (its Taylor series at Config.At, or at 0)
+// minus Poly is a power series all of whose terms have total degree > D
+// and are multiples of a monomial of Remainder, and Truncated is true
+// exactly when Remainder is not empty. So Poly always has the Taylor
+// coefficients of the value for every degree <= D; it also keeps, above D,
+// every term of the exact polynomial parts of the expression (x^2 + y^10
+// with Order 8 gives both terms and Truncated = false). When Truncated is
+// true, a term of Poly above D need not be the Taylor coefficient of the
+// value, but only at a multiple of a monomial of Remainder: in tanh(x) +
+// x^11 with Order 4, Poly = x - 1/3*x^3 + x^11 with Remainder {x^5}, and the
+// x^11 coefficient of the value also has a contribution from tanh(x).
 type Expansion struct {
 	// Poly is the expansion described above.
 	Poly *Poly
