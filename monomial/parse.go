@@ -831,15 +831,16 @@ func (p *parser) call(name string, nameTok token) (value, *Error) {
 	if !u.IsZero() {
 		k = p.order / u.MinDegree()
 	}
-	a, _ := seriesCoefs(name, k)
-	res, cerr := compose(a, u, p.order, p.guard)
+	// Two more coefficients than the expansion needs tell the remainder
+	// where the omitted part starts.
+	a, _ := seriesCoefs(name, k+2)
+	res, cerr := compose(a[:k+1], u, p.order, p.guard)
 	if cerr != nil {
 		return whole, p.limitErr(cerr, nameTok, whole)
 	}
 	whole.p = res
 	whole.exact = arg.exact && u.IsZero()
-	a2, _ := seriesCoefs(name, k+2)
-	rem, rerr := composeRem(u, arg.rem, shapeOf(a2, k, false), k, p.order, p.rguard)
+	rem, rerr := composeRem(u, arg.rem, shapeOf(a, k, false), k, p.order, p.rguard)
 	if rerr != nil {
 		return whole, p.remErr(rerr, nameTok, whole)
 	}
@@ -1136,14 +1137,15 @@ func (p *parser) seriesPower(base value, e *big.Rat, whole value, at token, fn s
 	if !u.IsZero() {
 		k = p.order / u.MinDegree()
 	}
-	res, cerr := compose(binomialCoefs(e, k), u, p.order, p.guard)
+	a := binomialCoefs(e, k+2) // two more for the remainder
+	res, cerr := compose(a[:k+1], u, p.order, p.guard)
 	if cerr != nil {
 		return whole, p.limitErr(cerr, at, whole)
 	}
 	whole.p = res.scale(coefFromRat(ce))
 	whole.exact = base.exact && u.IsZero()
 	// The binomial series terminates when e is a natural number.
-	sh := shapeOf(binomialCoefs(e, k+2), k, e.IsInt() && e.Sign() >= 0)
+	sh := shapeOf(a, k, e.IsInt() && e.Sign() >= 0)
 	rem, rerr := composeRem(u, base.rem, sh, k, p.order, p.rguard)
 	if rerr != nil {
 		return whole, p.remErr(rerr, at, whole)

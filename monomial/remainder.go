@@ -1,6 +1,7 @@
 package monomial
 
 import (
+	"errors"
 	"math/big"
 	"math/bits"
 )
@@ -46,7 +47,10 @@ type trieNode struct {
 	end   bool       // an exponent ends here
 }
 
-type trieEdge struct{ v, e, child int32 }
+type trieEdge struct {
+	e        int // exponents reach 2^62
+	v, child int32
+}
 
 func newDivTrie() *divTrie { return &divTrie{nodes: make([]trieNode, 1, 64)} }
 
@@ -61,13 +65,13 @@ func (t *divTrie) insert(x []int) {
 		lo, hi := 0, len(edges)
 		for lo < hi {
 			mid := (lo + hi) / 2
-			if ed := edges[mid]; ed.v < int32(v) || (ed.v == int32(v) && ed.e < int32(e)) {
+			if ed := edges[mid]; ed.v < int32(v) || (ed.v == int32(v) && ed.e < e) {
 				lo = mid + 1
 			} else {
 				hi = mid
 			}
 		}
-		if lo < len(edges) && edges[lo].v == int32(v) && edges[lo].e == int32(e) {
+		if lo < len(edges) && edges[lo].v == int32(v) && edges[lo].e == e {
 			n = edges[lo].child
 			continue
 		}
@@ -75,7 +79,7 @@ func (t *divTrie) insert(x []int) {
 		t.nodes = append(t.nodes, trieNode{})
 		edges = append(edges, trieEdge{})
 		copy(edges[lo+1:], edges[lo:])
-		edges[lo] = trieEdge{int32(v), int32(e), child}
+		edges[lo] = trieEdge{e: e, v: int32(v), child: child}
 		t.nodes[n].edges = edges
 		n = child
 	}
@@ -92,7 +96,7 @@ func (t *divTrie) walk(n int32, x []int) bool {
 	}
 	for _, ed := range nd.edges {
 		t.visits++
-		if x[ed.v] >= int(ed.e) && t.walk(ed.child, x) {
+		if x[ed.v] >= ed.e && t.walk(ed.child, x) {
 			return true
 		}
 	}
@@ -186,13 +190,57 @@ func unionMin(g *guard, sets ...*Poly) (*Poly, error) {
 	return minimal(u, g)
 }
 
-// sumSet returns the minimal elements of {a + b : a in A, b in B}.
+// sumSet returns the minimal elements of {a + b : a in A, b in B}, where
+// a sum that would have an exponent of 2^62 or more is replaced by the
+// summand with the larger entry there (see sumSupport).
 func sumSet(a, b *Poly, g *guard) (*Poly, error) {
-	s, err := mul(unitSet(a), unitSet(b), -1, g)
+	s, err := sumSupport(a, b, g)
 	if err != nil {
 		return nil, err
 	}
 	return minimal(s, g)
+}
+
+// sumSupport returns the set {a + b : a in A, b in B}. Exponents must stay
+// below 2^62; a sum with an entry that would not is replaced by the summand
+// whose entry there is at least 2^61, which divides the sum: so the result
+// still divides every sum, and the replacement has an entry (and so a
+// degree) above any truncation order.
+func sumSupport(a, b *Poly, g *guard) (*Poly, error) {
+	s, err := mul(unitSet(a), unitSet(b), -1, g)
+	if err == nil {
+		return unitSet(s), nil
+	}
+	if !errors.Is(err, errExponentOverflow) {
+		return nil, err
+	}
+	n := len(a.vars)
+	acc := newAccumulator(a.vars)
+	e := make([]int, n)
+	for i := range a.coefs {
+		ea := a.exp(i)
+		for j := range b.coefs {
+			eb := b.exp(j)
+			var big []int
+			for v := range e {
+				e[v] = ea[v] + eb[v]
+				if big == nil && e[v] >= 1<<62 {
+					big = ea
+					if eb[v] > ea[v] {
+						big = eb
+					}
+				}
+			}
+			if big != nil {
+				copy(e, big)
+			}
+			acc.add(e, coefOne)
+		}
+		if g.tooMany(acc.len()) {
+			return nil, errTooManyTerms
+		}
+	}
+	return unitSet(acc.poly()), nil
 }
 
 // span returns S(v), the minimal elements of supp(p) ∪ rem: the true value
@@ -287,7 +335,7 @@ func droppedProducts(p1, p2 *Poly, d int, g *guard) (*Poly, error) {
 		if mins == nil {
 			continue
 		}
-		s, err := mul(mins, unitSet(class), -1, g)
+		s, err := sumSupport(mins, class, g)
 		if err != nil {
 			return nil, err
 		}
@@ -464,17 +512,20 @@ func setPower(s *Poly, m int, g *guard) *Poly {
 // minimal elements of the part of degree > d of L_{j-1} + G and of
 // H_{j-1} + G, without the multiples of elements of acc.
 func powerSupportStep(low, high, gen *Poly, d int, acc *Poly, g *guard) (h, l *Poly, err error) {
-	t, err := mul(low, gen, -1, g)
+	t, err := sumSupport(low, gen, g)
 	if err != nil {
 		return nil, nil, err
 	}
-	cand, l := splitDegree(unitSet(t), d)
+	cand, l := splitDegree(t, d)
 	if !high.IsZero() {
-		s, err := mul(high, gen, -1, g)
+		s, err := sumSupport(high, gen, g)
 		if err != nil {
 			return nil, nil, err
 		}
-		cand = merge(cand, unitSet(s), false)
+		cand = merge(cand, s, false)
+	}
+	if cand.IsZero() {
+		return cand, l, nil
 	}
 	if h, err = minimal(cand, g); err != nil {
 		return nil, nil, err

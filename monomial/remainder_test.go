@@ -302,6 +302,32 @@ func TestRemainderLargePowers(t *testing.T) {
 	}
 }
 
+// TestRemainderHugeExponents: where a sum of exponents in the bookkeeping
+// would reach 2^62, the summand with the large entry (which divides the
+// sum) takes its place, and the expansion succeeds as it does without
+// remainders. tanh(x + y^B) = (x + y^B) - (x + y^B)^3/3 + 2(x + y^B)^5/15
+// - … (A&S 4.5.64, from memory): to order 3 the rest is covered by y^B and
+// x^5.
+func TestRemainderHugeExponents(t *testing.T) {
+	const b = "4611686018427387903" // 2^62 - 1
+	for _, tc := range []struct{ src, poly, rem string }{
+		{"tanh(x + y^" + b + ")", "-1/3*x^3 + x", "{y^" + b + ", x^5}"},
+		{"tanh(x^2305843009213693952)*tanh(x^2305843009213693952)", "0", "{x^2305843009213693952}"},
+		{"cos(x^" + b + ")", "1", "{x^" + b + "}"},
+		{"(x^" + b + " + tanh(y))*(x^" + b + " + z)", "y*z", "{x^" + b + ", y^3*z}"},
+	} {
+		e, err := Parse(tc.src, Config{Order: 3})
+		if err != nil {
+			t.Errorf("%q: %v", tc.src, err)
+			continue
+		}
+		checkRemainderShape(t, tc.src, e)
+		if got := remString(e.Poly.Vars(), e.Remainder); e.Poly.String() != tc.poly || got != tc.rem {
+			t.Errorf("%q = %v with remainder %s, want %s with remainder %s", tc.src, e.Poly, got, tc.poly, tc.rem)
+		}
+	}
+}
+
 // TestRemainderFastPath: a sum of monomials read by the fast path is exact
 // whatever the order, and the general path agrees.
 func TestRemainderFastPath(t *testing.T) {
