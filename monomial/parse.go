@@ -242,6 +242,8 @@ type session struct {
 	at    []coef
 	lim   Limits
 	guard *guard // shared by all expressions of the source
+	// series caches the Taylor coefficients of the functions (coefsOf).
+	series map[seriesKey][]*big.Rat
 	// rguard bounds the remainder bookkeeping with a budget of its own
 	// (the same limits), so that the bookkeeping does not use up the
 	// budget of the expansion.
@@ -833,7 +835,7 @@ func (p *parser) call(name string, nameTok token) (value, *Error) {
 	}
 	// Two more coefficients than the expansion needs tell the remainder
 	// where the omitted part starts.
-	a, _ := seriesCoefs(name, k+2)
+	a := p.coefsOf(name, k+2)
 	res, cerr := compose(a[:k+1], u, p.order, p.guard)
 	if cerr != nil {
 		return whole, p.limitErr(cerr, nameTok, whole)
@@ -910,6 +912,28 @@ func offsetText(a string, c coef) (minus, onePlus string) {
 		factor = ""
 	}
 	return fmt.Sprintf("%s %s %s", a, op1, cs), fmt.Sprintf("1 %s %s%s", op2, factor, a)
+}
+
+// coefsOf returns seriesCoefs(name, k), computed once per source: a model
+// often applies one function many times at one order. The result is shared
+// and must not be modified.
+func (p *parser) coefsOf(name string, k int) []*big.Rat {
+	key := seriesKey{name, k}
+	if a, ok := p.series[key]; ok {
+		return a
+	}
+	a, _ := seriesCoefs(name, k)
+	if p.series == nil {
+		p.series = map[seriesKey][]*big.Rat{}
+	}
+	p.series[key] = a
+	return a
+}
+
+// seriesKey identifies the Taylor coefficients of a function up to t^k.
+type seriesKey struct {
+	name string
+	k    int
 }
 
 // limitErr turns an error of a guarded computation into a parse error.

@@ -122,24 +122,39 @@ func minimal(p *Poly, g *guard) (*Poly, error) {
 	if Exponent(p.exp(len(p.coefs)-1)).Degree() == 0 {
 		return constPoly(p.vars, coefOne), nil
 	}
-	t := newDivTrie()
 	keep := make([]int, 0, 16)
 	// From the lowest degree up: an exponent can only be divided by one of
-	// lower degree, which is already in the trie if it is minimal.
-	for i := len(p.coefs) - 1; i >= 0; i-- {
-		e := p.exp(i)
-		if !t.covers(e) {
-			t.insert(e)
-			keep = append(keep, i)
-		}
-		if t.visits > 4096 {
-			if err := t.chargeVisits(g); err != nil {
-				return nil, err
+	// lower degree, which is already kept if it is minimal.
+	if len(p.coefs) <= smallSet {
+		for i := len(p.coefs) - 1; i >= 0; i-- {
+			e := p.exp(i)
+			covered := false
+			for _, j := range keep {
+				if covered = dividesExp(p.exp(j), e); covered {
+					break
+				}
+			}
+			if !covered {
+				keep = append(keep, i)
 			}
 		}
-	}
-	if err := t.chargeVisits(g); err != nil {
-		return nil, err
+	} else {
+		t := newDivTrie()
+		for i := len(p.coefs) - 1; i >= 0; i-- {
+			e := p.exp(i)
+			if !t.covers(e) {
+				t.insert(e)
+				keep = append(keep, i)
+			}
+			if t.visits > 4096 {
+				if err := t.chargeVisits(g); err != nil {
+					return nil, err
+				}
+			}
+		}
+		if err := t.chargeVisits(g); err != nil {
+			return nil, err
+		}
 	}
 	r := &Poly{vars: p.vars, exps: make([]int, 0, len(keep)*n), coefs: make([]coef, len(keep))}
 	for j := len(keep) - 1; j >= 0; j-- {
@@ -157,18 +172,47 @@ func prune(h, by *Poly, g *guard) (*Poly, error) {
 	if by == nil || by.IsZero() || h.IsZero() {
 		return h, nil
 	}
-	t := newDivTrie()
-	for i := range by.coefs {
-		t.insert(by.exp(i))
+	covers := func(e []int) bool {
+		for i := range by.coefs {
+			if dividesExp(by.exp(i), e) {
+				return true
+			}
+		}
+		return false
+	}
+	var t *divTrie
+	if len(by.coefs) > smallSet {
+		t = newDivTrie()
+		for i := range by.coefs {
+			t.insert(by.exp(i))
+		}
+		covers = t.covers
 	}
 	r := &Poly{vars: h.vars}
 	for i := range h.coefs {
-		if !t.covers(h.exp(i)) {
+		if !covers(h.exp(i)) {
 			r.exps = append(r.exps, h.exp(i)...)
 			r.coefs = append(r.coefs, coefOne)
 		}
 	}
+	if t == nil {
+		return r, g.charge(float64(len(h.coefs)*len(by.coefs)) / 4)
+	}
 	return r, t.chargeVisits(g)
+}
+
+// smallSet is the size up to which minimal and prune compare exponents
+// pairwise instead of building a trie.
+const smallSet = 24
+
+// dividesExp reports whether a <= b entrywise.
+func dividesExp(a, b []int) bool {
+	for i, x := range a {
+		if x > b[i] {
+			return false
+		}
+	}
+	return true
 }
 
 // unionMin returns the minimal elements of the union of the sets (nil
@@ -433,6 +477,9 @@ func composeRem(u, ra *Poly, sh seriesShape, k, d int, g *guard) (*Poly, error) 
 	if u.IsZero() {
 		return acc, nil
 	}
+	if u.Len() == 1 {
+		return monomialComposeRem(u, acc, sh, k, g)
+	}
 	gen := unitSet(u)
 	low := constPoly(u.vars, coefOne) // L_0 = {0}
 	high := &Poly{vars: u.vars}       // H_0 = ∅
@@ -469,6 +516,32 @@ func composeRem(u, ra *Poly, sh seriesShape, k, d int, g *guard) (*Poly, error) 
 	}
 	g.settle(tail, tailWork/2)
 	return unionMin(g, acc, best)
+}
+
+// monomialComposeRem is the second part of composeRem when U is a single
+// term c·x^e: then PS_j = {j·e}, which has degree <= d exactly for j <= k,
+// so every H_j with j <= k is empty and H_j = {j·e} beyond; the result
+// is acc with next·e added (or i·e for the largest i in k+1..next that
+// keeps the exponents below 2^62).
+func monomialComposeRem(u, acc *Poly, sh seriesShape, k int, g *guard) (*Poly, error) {
+	if sh.next == 0 {
+		return acc, nil
+	}
+	e := u.exp(0)
+	top := 0
+	for _, x := range e {
+		top = max(top, x)
+	}
+	i := sh.next
+	if top > 0 {
+		i = max(k+1, min(i, (1<<62-1)/top))
+	}
+	m := make([]int, len(e))
+	for v, x := range e {
+		m[v] = i * x
+	}
+	h := &Poly{vars: u.vars, exps: m, coefs: []coef{coefOne}}
+	return unionMin(g, acc, h)
 }
 
 // setPower returns the minimal elements of the m-fold sums of the set s
