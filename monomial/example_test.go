@@ -124,3 +124,20 @@ func ExampleExpansion_remainder() {
 	// c^7 - 1/3*a*b^3 + a*b [a b c]
 	// [[1 5 0]] true
 }
+
+func ExampleConfig_at() {
+	// Around x = 4, sqrt(x) = 2·(1 + u/4)^(1/2) with u = x - 4.
+	at := map[string]*big.Rat{"x": big.NewRat(4, 1)}
+	e, err := monomial.Parse("sqrt(x)", monomial.Config{Order: 2, At: at})
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	fmt.Println(e.Poly, e.Remainder)
+	// exp(x) around x = 1/4 would have irrational coefficients.
+	_, err = monomial.Parse("exp(x)", monomial.Config{Order: 2, At: map[string]*big.Rat{"x": big.NewRat(1, 4)}})
+	fmt.Println(err)
+	// Output:
+	// -1/64*x^2 + 1/4*x + 2 [[3]]
+	// 1:1: exp(x): the argument equals 1/4 at the expansion point, so the Taylor coefficients would be irrational (multiples of exp(1/4)); factor the constant out: exp(1/4 + u) = exp(1/4)·exp(u), so write the model with exp(u)
+}

@@ -218,20 +218,27 @@ func dividesExp(a, b []int) bool {
 // unionMin returns the minimal elements of the union of the sets (nil
 // entries are skipped), or nil when the union is empty.
 func unionMin(g *guard, sets ...*Poly) (*Poly, error) {
-	var u *Poly
+	var live []*Poly
 	for _, s := range sets {
-		switch {
-		case s == nil || s.IsZero():
-		case u == nil:
-			u = s
-		default:
-			u = merge(u, s, false)
+		if s != nil && !s.IsZero() {
+			live = append(live, s)
 		}
 	}
-	if u == nil {
+	if len(live) == 0 {
 		return nil, nil
 	}
-	return minimal(u, g)
+	// Merge pairwise, so that many small sets cost O(T log k).
+	for len(live) > 1 {
+		half := live[:0]
+		for i := 0; i+1 < len(live); i += 2 {
+			half = append(half, merge(live[i], live[i+1], false))
+		}
+		if len(live)%2 == 1 {
+			half = append(half, live[len(live)-1])
+		}
+		live = half
+	}
+	return minimal(live[0], g)
 }
 
 // sumSet returns the minimal elements of {a + b : a in A, b in B}, where

@@ -292,6 +292,19 @@ func TestRemainderLargePowers(t *testing.T) {
 			t.Fatalf("(x+y+z)^5000: generator %v of degree %d, want %d", g, g.Degree(), j)
 		}
 	}
+	// An exact product beyond MaxTerms is truncated at the order, and the
+	// terms it drops enter the remainder: (1+x+y+z)^3 has 20 terms, its
+	// square 84 > 30, so to order 2 the product keeps the 10 terms of
+	// degree <= 2 and the rest is covered by the 10 monomials of degree 3
+	// (every term of the square of degree >= 3 is a multiple of one).
+	e, err = Parse("(1+x+y+z)^3*(1+x+y+z)^3", Config{Order: 2, Limits: Limits{MaxTerms: 30}})
+	if err != nil {
+		t.Fatal(err)
+	}
+	checkRemainderShape(t, "(1+x+y+z)^3*(1+x+y+z)^3", e)
+	if e.Poly.String() != "15*x^2 + 30*x*y + 30*x*z + 15*y^2 + 30*y*z + 15*z^2 + 6*x + 6*y + 6*z + 1" || len(e.Remainder) != 10 || e.Remainder[0].Degree() != 3 || e.Remainder[9].Degree() != 3 {
+		t.Errorf("(1+x+y+z)^6 by a product beyond the limits: %v, remainder %s", e.Poly, remString(e.Poly.Vars(), e.Remainder))
+	}
 	e, err = Parse("(x^3)^4611686018427387904 + tanh(y)", Config{Order: 5})
 	if err != nil {
 		t.Fatal(err)
