@@ -503,14 +503,15 @@ func composeRem(u, ra *Poly, sh seriesShape, k, d int, g *guard) (*Poly, error) 
 		}
 	}
 	if sh.next <= k+1 || high.IsZero() {
-		// Done: either no omitted part beyond H_{k+1}, or everything of
-		// U^(k+1) is already a multiple of acc.
+		// Done: the first omitted index is at most k+1 (or there is
+		// none), or every element of PS_(k+1), and so of every later
+		// PS_j, is already a multiple of an element of acc.
 		return acc, nil
 	}
 	// The first omitted index is next > k+1. U^next has support in
 	// H_{k+1} + PS_{next-k-1} (up to multiples of acc), and H_{k+1} alone
-	// covers it: tighten as far as the budget allows.
-	// Half the budget for the power, half for the final sum.
+	// covers it: tighten as far as the budget allows, half of it for the
+	// power and half for the final sum.
 	best := high
 	tail := subGuard(g, tailWork/2)
 	x := setPower(gen, sh.next-k-1, tail)
