@@ -58,10 +58,12 @@ var (
 	flagHints = map[string]string{
 		"Order":    "give --order D to expand it as a power series truncated at total degree D",
 		"MaxTerms": "raise --max-terms to allow larger expansions",
+		"At":       "each function is expanded around its argument's value at the point, the origin unless --at moves it; rewrite it as the message says",
 	}
 	recordHints = map[string]string{
 		"Order":    `set "order" in the record to expand it as a power series truncated at that total degree`,
 		"MaxTerms": "raise batch's --max-terms to allow larger expansions",
+		"At":       `each function is expanded around its argument's value at the point, the origin unless "at" moves it; rewrite it as the message says`,
 	}
 )
 
