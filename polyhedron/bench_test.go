@@ -70,11 +70,11 @@ func BenchmarkNewDistance(b *testing.B) {
 				if err != nil {
 					b.Fatal(err)
 				}
-				if h, err = n.Distance(ones(in.D)); err != nil {
+				if h, err = n.Distance(context.Background(), ones(in.D)); err != nil {
 					b.Fatal(err)
 				}
 			}
-			b.ReportMetric(float64(len(n.Vertices())), "vertices")
+			b.ReportMetric(float64(len(mustVertices(b, n))), "vertices")
 			b.ReportMetric(float64(h.pivots), "pivots/op")
 			b.ReportMetric(float64(h.Face.Codim(in.D)), "codim")
 		})
@@ -93,7 +93,7 @@ func BenchmarkDistance(b *testing.B) {
 			b.ReportAllocs()
 			var h *Hit
 			for b.Loop() {
-				if h, err = n.Distance(ones(in.D)); err != nil {
+				if h, err = n.Distance(context.Background(), ones(in.D)); err != nil {
 					b.Fatal(err)
 				}
 			}
@@ -122,7 +122,7 @@ func BenchmarkFacets(b *testing.B) {
 			var fs []Facet
 			for b.Loop() {
 				n := &Newton{d: base.d, minimal: base.minimal, vertices: base.vertices, limits: base.limits}
-				if fs, err = n.Facets(); err != nil {
+				if fs, err = n.Facets(context.Background()); err != nil {
 					b.Fatal(err)
 				}
 			}
@@ -145,7 +145,7 @@ func BenchmarkCompactFaces(b *testing.B) {
 			var lat *Lattice
 			for b.Loop() {
 				n := &Newton{d: base.d, minimal: base.minimal, vertices: base.vertices, limits: base.limits}
-				if lat, err = n.CompactFaces(); err != nil {
+				if lat, err = n.CompactFaces(context.Background()); err != nil {
 					b.Fatal(err)
 				}
 			}
@@ -165,12 +165,12 @@ func BenchmarkCovers(b *testing.B) {
 			b.Fatal(err)
 		}
 		var vf []*Face
-		for _, v := range n.Vertices() {
+		for _, v := range mustVertices(b, n) {
 			x := make([]*big.Rat, in.D)
 			for i := range x {
 				x[i] = big.NewRat(int64(v[i]), 1)
 			}
-			f, err := n.FaceAt(x)
+			f, err := n.FaceAt(context.Background(), x)
 			if err != nil {
 				b.Fatal(err)
 			}
@@ -189,17 +189,17 @@ func BenchmarkCovers(b *testing.B) {
 					covers += len(cs)
 				}
 			}
-			b.ReportMetric(float64(len(n.Vertices())), "vertices")
+			b.ReportMetric(float64(len(mustVertices(b, n))), "vertices")
 			b.ReportMetric(float64(covers), "edges")
 		})
 	}
 }
 
-// BenchmarkNew measures New (Pareto filter and vertex filter) alone and
-// reports the vertex filter's LPs per op (float LPs over known vertices plus
+// BenchmarkVertices measures New followed by Vertices (the Pareto filter
+// and the vertex filter) and reports the vertex filter's LPs per op (float LPs over known vertices plus
 // points decided by the exact fallback), the exact fallbacks alone, and the
 // exact pricing passes over all minimal points.
-func BenchmarkNew(b *testing.B) {
+func BenchmarkVertices(b *testing.B) {
 	for _, name := range []string{"degree_d8_D5", "degree_d10_D10", "dense_d6_n10000", "dense_d10_n10000",
 		"random_d10_n10000", "random_d20_n100000", "lowrank_5_5_4"} {
 		in := loadInstance(b, name)
@@ -213,8 +213,8 @@ func BenchmarkNew(b *testing.B) {
 					b.Fatal(err)
 				}
 			}
-			b.ReportMetric(float64(len(n.Vertices())), "vertices")
-			b.ReportMetric(float64(len(n.Minimal())), "minimal")
+			b.ReportMetric(float64(len(mustVertices(b, n))), "vertices")
+			b.ReportMetric(float64(len(mustMinimal(b, n))), "minimal")
 			b.ReportMetric(float64(st.floatLPs+st.exactLPs), "LPs/op")
 			b.ReportMetric(float64(st.exactLPs), "exactLPs/op")
 			b.ReportMetric(float64(st.pricings), "pricings/op")
@@ -222,10 +222,14 @@ func BenchmarkNew(b *testing.B) {
 	}
 }
 
-// newWithStats is New with the vertex filter's work counters.
+// newWithStats is New followed by the vertex computation, with the vertex
+// filter's work counters.
 func newWithStats(d int, points [][]int) (*Newton, vertexCounts, error) {
 	var st vertexStats
-	n, err := build(d, points, Limits{}, &st)
+	n, err := New(d, points)
+	if err == nil {
+		err = n.ensureVerticesStats(context.Background(), &st)
+	}
 	return n, vertexCounts{floatLPs: st.floatLPs.Load(), exactLPs: st.exactLPs.Load(), pricings: st.pricings.Load()}, err
 }
 
@@ -243,10 +247,11 @@ func BenchmarkNormalConeMin(b *testing.B) {
 			b.Fatal(err)
 		}
 		var faces []*Face
-		nv := len(n.Vertices())
+		vi := vertexIndexList(b, n)
+		nv := len(vi)
 		for k := 0; k < 20 && k+1 < nv; k++ {
-			x := n.centroid([]int{k, (7*k + 3) % nv})
-			if f, err := n.FaceAt(x); err == nil && len(f.Rays) < in.D {
+			x := n.centroid([]int{vi[k], vi[(7*k+3)%nv]})
+			if f, err := n.FaceAt(context.Background(), x); err == nil && len(f.Rays) < in.D {
 				faces = append(faces, f)
 			}
 		}
@@ -286,9 +291,10 @@ func BenchmarkCompactFaceAt(b *testing.B) {
 			b.Fatal(err)
 		}
 		var xs [][]*big.Rat
-		nv := len(n.Vertices())
+		vi := vertexIndexList(b, n)
+		nv := len(vi)
 		for k := 0; k < 20 && k+1 < nv; k++ {
-			x := n.centroid([]int{k, (7*k + 3) % nv})
+			x := n.centroid([]int{vi[k], vi[(7*k+3)%nv]})
 			xs = append(xs, x)
 			y := slices.Clone(x)
 			y[k%in.D] = new(big.Rat).Add(y[k%in.D], big.NewRat(1, 1))

@@ -6,7 +6,7 @@ import (
 )
 
 // contextErr returns nil while ctx (possibly nil) is live, and an error
-// wrapping ctx.Err() once it is done; see Limits.Context.
+// wrapping ctx.Err() once it is done.
 func contextErr(ctx context.Context) error {
 	if ctx == nil {
 		return nil

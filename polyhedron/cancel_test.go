@@ -26,57 +26,56 @@ func lowRankSupport(m, n, h int) (int, [][]int) {
 	return d, pts
 }
 
-func TestLimitsContext(t *testing.T) {
+func TestContextStopsEnumerations(t *testing.T) {
 	d, pts := lowRankSupport(3, 2, 2)
 	plain, err := New(d, pts)
 	if err != nil {
 		t.Fatal(err)
 	}
-	wantFacets, err := plain.Facets()
+	wantFacets, err := plain.Facets(context.Background())
 	if err != nil {
 		t.Fatal(err)
 	}
-	wantFaces, err := plain.CompactFaces()
+	wantFaces, err := plain.CompactFaces(context.Background())
 	if err != nil {
 		t.Fatal(err)
 	}
 
-	// A live context changes nothing.
-	live, err := NewWithLimits(d, pts, Limits{Context: context.Background()})
-	if err != nil {
-		t.Fatal(err)
-	}
-	fs, err := live.Facets()
-	if err != nil || len(fs) != len(wantFacets) {
-		t.Fatalf("live context: %d facets, error %v; want %d", len(fs), err, len(wantFacets))
-	}
-	lat, err := live.CompactFaces()
-	if err != nil || len(lat.Faces) != len(wantFaces.Faces) {
-		t.Fatalf("live context: %d faces, error %v; want %d", len(lat.Faces), err, len(wantFaces.Faces))
-	}
-
-	// A cancelled context stops New, and both enumerations of a Newton
-	// built before the cancellation; the error is kept.
+	// A cancelled context stops the vertices, both enumerations and the
+	// face operations that need the vertices; nothing is cached, so a live
+	// context afterwards gets the full answer.
 	ctx, cancel := context.WithCancel(context.Background())
-	stopped, err := NewWithLimits(d, pts, Limits{Context: ctx})
+	cancel()
+	n, err := New(d, pts)
 	if err != nil {
 		t.Fatal(err)
-	}
-	cancel()
-	if _, err := NewWithLimits(d, pts, Limits{Context: ctx}); !errors.Is(err, context.Canceled) {
-		t.Errorf("New with a cancelled context: error %v, want context.Canceled", err)
 	}
 	for range 2 {
-		if _, err := stopped.Facets(); !errors.Is(err, context.Canceled) {
+		if _, err := n.Vertices(ctx); !errors.Is(err, context.Canceled) {
+			t.Errorf("Vertices with a cancelled context: error %v, want context.Canceled", err)
+		}
+		if _, err := n.Facets(ctx); !errors.Is(err, context.Canceled) {
 			t.Errorf("Facets with a cancelled context: error %v, want context.Canceled", err)
 		}
-		if _, err := stopped.CompactFaces(); !errors.Is(err, context.Canceled) {
+		if _, err := n.CompactFaces(ctx); !errors.Is(err, context.Canceled) {
 			t.Errorf("CompactFaces with a cancelled context: error %v, want context.Canceled", err)
 		}
+		if _, err := n.CompactFaceAt(ctx, allOnes(d)); !errors.Is(err, context.Canceled) {
+			t.Errorf("CompactFaceAt with a cancelled context: error %v, want context.Canceled", err)
+		}
 	}
-	// Distance does not enumerate and does not look at the context.
-	if _, err := stopped.Distance(allOnes(d)); err != nil {
-		t.Errorf("Distance with a cancelled context: %v", err)
+	// The distance needs no vertex when the face hit has a single tight
+	// point; here it does not look at the context at all.
+	if _, err := n.Distance(context.Background(), allOnes(d)); err != nil {
+		t.Errorf("Distance: %v", err)
+	}
+	fs, err := n.Facets(context.Background())
+	if err != nil || len(fs) != len(wantFacets) {
+		t.Fatalf("after a cancelled call: %d facets, error %v; want %d", len(fs), err, len(wantFacets))
+	}
+	lat, err := n.CompactFaces(context.Background())
+	if err != nil || len(lat.Faces) != len(wantFaces.Faces) {
+		t.Fatalf("after a cancelled call: %d faces, error %v; want %d", len(lat.Faces), err, len(wantFaces.Faces))
 	}
 }
 

@@ -61,7 +61,7 @@ func (n *Newton) Covers(ctx context.Context, f *Face) ([]*Face, error) {
 	if f != nil && len(f.Rays) > 0 {
 		return nil, fmt.Errorf("%w: face with rays %v is not compact", ErrFace, f.Rays)
 	}
-	a, b, err := n.checkFace(f)
+	a, b, err := n.checkFace(ctx, f)
 	if err != nil {
 		return nil, err
 	}
@@ -99,7 +99,10 @@ func (n *Newton) Covers(ctx context.Context, f *Face) ([]*Face, error) {
 			}
 		}
 		// Exact method for this group.
-		h, sign := n.faceHolding(cs.midpoint(u))
+		h, sign, err := n.faceHolding(ctx, cs.midpoint(u))
+		if err != nil {
+			return nil, err
+		}
 		if sign == 0 && h.Compact() && h.Dim == f.Dim+1 {
 			add(h)
 		}
@@ -196,7 +199,7 @@ type quotient struct {
 
 func newCoverSearch(n *Newton, f *Face, a []*big.Int, b *big.Int) *coverSearch {
 	d := n.d
-	cs := &coverSearch{n: n, f: f, a: a, b: b, k: int64(len(f.Vertices)), inF: make([]bool, len(n.vertices))}
+	cs := &coverSearch{n: n, f: f, a: a, b: b, k: int64(len(f.Vertices)), inF: make([]bool, len(n.points))}
 	for _, j := range f.Vertices {
 		cs.inF[j] = true
 	}
@@ -204,7 +207,7 @@ func newCoverSearch(n *Newton, f *Face, a []*big.Int, b *big.Int) *coverSearch {
 	for i := range cs.sum {
 		cs.sum[i] = new(big.Int)
 		for _, j := range f.Vertices {
-			cs.sum[i].Add(cs.sum[i], big.NewInt(int64(n.vertices[j][i])))
+			cs.sum[i].Add(cs.sum[i], big.NewInt(int64(n.points[j][i])))
 		}
 	}
 	cs.small = n.maxCoord <= math.MaxInt64/(4*cs.k)
@@ -215,7 +218,7 @@ func newCoverSearch(n *Newton, f *Face, a []*big.Int, b *big.Int) *coverSearch {
 	if cs.quot == nil {
 		// one group per vertex, decided by the exact method
 		cs.groups = cs.groups[:0]
-		for j := range n.vertices {
+		for _, j := range n.vertexIdx {
 			if !cs.inF[j] {
 				cs.groups = append(cs.groups, coverGroup{verts: []int{j}})
 			}
@@ -228,12 +231,12 @@ func newCoverSearch(n *Newton, f *Face, a []*big.Int, b *big.Int) *coverSearch {
 // integer does not fit in int64.
 func newQuotient(n *Newton, f *Face) *quotient {
 	d := n.d
-	w0 := n.vertices[f.Vertices[0]]
+	w0 := n.points[f.Vertices[0]]
 	var rows [][]*big.Rat
 	for _, j := range f.Vertices[1:] {
 		r := make([]*big.Rat, d)
 		for i := range r {
-			r[i] = new(big.Rat).SetInt64(int64(n.vertices[j][i]) - int64(w0[i]))
+			r[i] = new(big.Rat).SetInt64(int64(n.points[j][i]) - int64(w0[i]))
 		}
 		rows = append(rows, r)
 	}
@@ -365,7 +368,7 @@ func (cs *coverSearch) buildGroups() bool {
 	n, q := cs.n, cs.quot
 	d := n.d
 	m := len(q.free)
-	w0 := n.vertices[cs.f.Vertices[0]]
+	w0 := n.points[cs.f.Vertices[0]]
 	index := map[string]int{}
 	r := make([]int64, d)
 	addGen := func(y []int64, s int64, vertex int) {
@@ -384,10 +387,11 @@ func (cs *coverSearch) buildGroups() bool {
 	}
 	dt := newDotter(cs.a)
 	y := make([]int64, m)
-	for j, v := range n.vertices {
+	for _, j := range n.vertexIdx {
 		if cs.inF[j] {
 			continue
 		}
+		v := n.points[j]
 		for i := range r {
 			r[i] = int64(v[i]) - int64(w0[i])
 		}
@@ -446,7 +450,7 @@ func (cs *coverSearch) midpoint(u int) []*big.Rat {
 	x := make([]*big.Rat, cs.n.d)
 	den := big.NewInt(2 * cs.k)
 	for i := range x {
-		num := new(big.Int).Mul(big.NewInt(cs.k), big.NewInt(int64(cs.n.vertices[u][i])))
+		num := new(big.Int).Mul(big.NewInt(cs.k), big.NewInt(int64(cs.n.points[u][i])))
 		num.Add(num, cs.sum[i])
 		x[i] = new(big.Rat).SetFrac(num, den)
 	}
@@ -468,7 +472,7 @@ func (cs *coverSearch) midpointDominates(u int) bool {
 	for _, w := range n.vertices {
 		ok := true
 		for i, wi := range w {
-			if s*int64(wi) > cs.sum[i].Int64()+cs.k*int64(n.vertices[u][i]) {
+			if s*int64(wi) > cs.sum[i].Int64()+cs.k*int64(n.points[u][i]) {
 				ok = false
 				break
 			}
@@ -582,9 +586,9 @@ func (cs *coverSearch) classify(gi int) (*Face, coverVerdict) {
 	verts := append(slices.Clone(cs.f.Vertices), g.verts...)
 	slices.Sort(verts)
 	face := &Face{Vertices: verts, Dim: cs.f.Dim + 1}
-	face.Normal, face.RHS = primitive(N, newDotter(N).dot(n.vertices[verts[0]]))
+	face.Normal, face.RHS = primitive(N, newDotter(N).dot(n.points[verts[0]]))
 	face.RHS = new(big.Int).Set(face.RHS)
-	if !n.Exposes(face) || n.faceDim(verts, nil) != face.Dim {
+	if !n.exposes(face) || n.faceDim(verts, nil) != face.Dim {
 		return nil, undecided
 	}
 	n.attachFacets(face)

@@ -2,6 +2,7 @@ package polyhedron
 
 import (
 	"bufio"
+	"context"
 	"fmt"
 	"math/big"
 	"math/rand/v2"
@@ -61,6 +62,9 @@ func faceByFacets(fs []Facet, verts [][]int, d int, x []*big.Rat) (vs, rays []in
 		}
 	}
 	for j, v := range verts {
+		if v == nil {
+			continue // a point that is no vertex
+		}
 		ok := true
 		for _, k := range tight {
 			if dotInt(fs[k].Normal, v).Cmp(fs[k].RHS) != 0 {
@@ -96,7 +100,7 @@ func faceByFacets(fs []Facet, verts [][]int, d int, x []*big.Rat) (vs, rays []in
 func checkFacets(t *testing.T, n *Newton, points [][]int) []Facet {
 	t.Helper()
 	d := n.Dim()
-	fs, err := n.Facets()
+	fs, err := n.Facets(context.Background())
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -118,7 +122,7 @@ func checkFacets(t *testing.T, n *Newton, points [][]int) []Facet {
 			}
 		}
 		var tv, tr []int
-		for j, v := range n.Vertices() {
+		for j, v := range vertexSeq(t, n) {
 			if dotInt(f.Normal, v).Cmp(f.RHS) == 0 {
 				tv = append(tv, j)
 			}
@@ -135,14 +139,14 @@ func checkFacets(t *testing.T, n *Newton, points [][]int) []Facet {
 			t.Errorf("facet %v >= %v is tight on a face of dimension %d, want %d", f.Normal, f.RHS, dim, d-1)
 		}
 	}
-	for _, p := range n.Minimal() {
+	for _, p := range mustMinimal(t, n) {
 		var tight []int
 		for k, f := range fs {
 			if dotInt(f.Normal, p).Cmp(f.RHS) == 0 {
 				tight = append(tight, k)
 			}
 		}
-		isV := slices.ContainsFunc(n.Vertices(), func(v []int) bool { return slices.Equal(v, p) })
+		isV := slices.ContainsFunc(mustVertices(t, n), func(v []int) bool { return slices.Equal(v, p) })
 		// A vertex lies on at least d facets. The coordinate inequalities
 		// x_i >= 0 count only when they are facets of P (they are in the
 		// list then); a vertex with v_i = 0 for which x_i >= 0 is not a
@@ -173,7 +177,7 @@ func TestRandomCrossCheck(t *testing.T) {
 			t.Fatal(err)
 		}
 		fs := checkFacets(t, n, points)
-		lat, err := n.CompactFaces()
+		lat, err := n.CompactFaces(context.Background())
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -183,7 +187,7 @@ func TestRandomCrossCheck(t *testing.T) {
 			for i := range tau {
 				tau[i] = big.NewRat(int64(1+rng.IntN(5)), int64(1+rng.IntN(3)))
 			}
-			h, err := n.Distance(tau)
+			h, err := n.Distance(context.Background(), tau)
 			if err != nil {
 				t.Fatal(err)
 			}
@@ -196,7 +200,7 @@ func TestRandomCrossCheck(t *testing.T) {
 			}
 			checkFace(t, n, fs, lat, h.Point, h.Face)
 			// FaceAt at the same point must agree.
-			f2, err := n.FaceAt(h.Point)
+			f2, err := n.FaceAt(context.Background(), h.Point)
 			if err != nil {
 				t.Errorf("FaceAt(hit point): %v", err)
 			} else if !slices.Equal(f2.Vertices, h.Face.Vertices) || !slices.Equal(f2.Rays, h.Face.Rays) || f2.Dim != h.Face.Dim {
@@ -204,12 +208,12 @@ func TestRandomCrossCheck(t *testing.T) {
 			}
 		}
 		// FaceAt at vertices, at vertex + unit steps, and interior/outside points.
-		for j, v := range n.Vertices() {
+		for j, v := range vertexSeq(t, n) {
 			x := make([]*big.Rat, d)
 			for i := range x {
 				x[i] = big.NewRat(int64(v[i]), 1)
 			}
-			f, err := n.FaceAt(x)
+			f, err := n.FaceAt(context.Background(), x)
 			if err != nil {
 				t.Fatalf("FaceAt(vertex %v): %v", v, err)
 			}
@@ -219,7 +223,7 @@ func TestRandomCrossCheck(t *testing.T) {
 			}
 			i := rng.IntN(d)
 			x[i] = new(big.Rat).Add(x[i], big.NewRat(int64(1+rng.IntN(3)), 2))
-			if f, err := n.FaceAt(x); err == nil {
+			if f, err := n.FaceAt(context.Background(), x); err == nil {
 				checkFace(t, n, fs, lat, x, f)
 			} else {
 				// x must then be interior: strictly inside every facet.
@@ -234,7 +238,7 @@ func TestRandomCrossCheck(t *testing.T) {
 		for i := range out {
 			out[i] = big.NewRat(-1, 1)
 		}
-		if _, err := n.FaceAt(out); err == nil {
+		if _, err := n.FaceAt(context.Background(), out); err == nil {
 			t.Errorf("FaceAt(outside point) returned no error")
 		}
 	}
@@ -245,7 +249,7 @@ func TestRandomCrossCheck(t *testing.T) {
 func checkFace(t *testing.T, n *Newton, fs []Facet, lat *Lattice, x []*big.Rat, f *Face) {
 	t.Helper()
 	d := n.Dim()
-	vs, rays, dim := faceByFacets(fs, n.Vertices(), d, x)
+	vs, rays, dim := faceByFacets(fs, vertexSlice(t, n), d, x)
 	if !slices.Equal(vs, f.Vertices) || !slices.Equal(rays, f.Rays) || dim != f.Dim {
 		t.Errorf("face at %v: got vertices %v rays %v dim %d, facets give %v %v %d", x, f.Vertices, f.Rays, f.Dim, vs, rays, dim)
 		return
@@ -254,7 +258,7 @@ func checkFace(t *testing.T, n *Newton, fs []Facet, lat *Lattice, x []*big.Rat, 
 		t.Errorf("affine rank of vertices+rays %d, facet rank gives %d", got, dim)
 	}
 	// The normal must expose exactly this face.
-	for j, v := range n.Vertices() {
+	for j, v := range vertexSeq(t, n) {
 		c := dotInt(f.Normal, v).Cmp(f.RHS)
 		if c < 0 || (c == 0) != slices.Contains(f.Vertices, j) {
 			t.Errorf("face normal %v >= %v does not expose vertices %v", f.Normal, f.RHS, f.Vertices)
@@ -280,7 +284,7 @@ func checkFace(t *testing.T, n *Newton, fs []Facet, lat *Lattice, x []*big.Rat, 
 func checkLattice(t *testing.T, n *Newton, fs []Facet, lat *Lattice) {
 	t.Helper()
 	d := n.Dim()
-	nv := len(n.Vertices())
+	nv := len(mustVertices(t, n))
 	if len(lat.Faces) != len(lat.Sub) {
 		t.Fatalf("lattice has %d faces and %d Sub lists", len(lat.Faces), len(lat.Sub))
 	}
@@ -297,7 +301,7 @@ func checkLattice(t *testing.T, n *Newton, fs []Facet, lat *Lattice) {
 			}
 		}
 		var tv []int
-		for j, v := range n.Vertices() {
+		for j, v := range vertexSeq(t, n) {
 			c := dotInt(f.Normal, v).Cmp(f.RHS)
 			if c < 0 {
 				t.Errorf("face normal violated")
@@ -335,12 +339,13 @@ func checkLattice(t *testing.T, n *Newton, fs []Facet, lat *Lattice) {
 	}
 	// Brute force: a vertex set S is a compact face iff S equals the set of
 	// vertices on all facets containing S and no ray lies on all of them.
+	vi := vertexIndexList(t, n) // faces list indices into Points()
 	var want [][]int
 	for mask := 1; mask < 1<<nv; mask++ {
 		var s []int
 		for j := 0; j < nv; j++ {
 			if mask&(1<<j) != 0 {
-				s = append(s, j)
+				s = append(s, vi[j])
 			}
 		}
 		var tight []int
@@ -350,7 +355,7 @@ func checkLattice(t *testing.T, n *Newton, fs []Facet, lat *Lattice) {
 			}
 		}
 		var cl []int
-		for j := 0; j < nv; j++ {
+		for _, j := range vi {
 			if !slices.ContainsFunc(tight, func(k int) bool { return !slices.Contains(fs[k].Vertices, j) }) {
 				cl = append(cl, j)
 			}
@@ -528,7 +533,7 @@ func TestAgainstReferenceTools(t *testing.T) {
 				}
 				dir := t.TempDir()
 				file := filepath.Join(dir, "p.ext")
-				if err := writeExt(file, c.d, n.Vertices()); err != nil {
+				if err := writeExt(file, c.d, mustVertices(t, n)); err != nil {
 					t.Fatal(err)
 				}
 				text, err := tool.run(dir, file)
@@ -539,7 +544,7 @@ func TestAgainstReferenceTools(t *testing.T) {
 				if err != nil {
 					t.Fatal(err)
 				}
-				fs, err := n.Facets()
+				fs, err := n.Facets(context.Background())
 				if err != nil {
 					t.Fatal(err)
 				}

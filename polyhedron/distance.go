@@ -1,6 +1,7 @@
 package polyhedron
 
 import (
+	"context"
 	"fmt"
 	"math"
 	"math/big"
@@ -11,20 +12,20 @@ import (
 // with a certificate that can be checked on its own with exact arithmetic
 // (see Check).
 type Hit struct {
-	T       *big.Rat   // t_τ
-	Point   []*big.Rat // t_τ·τ
-	Weights []*big.Rat // convex weights on Vertices() (len = #vertices, >= 0, sum 1) ...
-	Slack   []*big.Rat // ... and orthant part >= 0 with Point = Σ Weights[j]·Vertices()[j] + Slack
-	Normal  []*big.Rat // supporting hyperplane Normal·x >= RHS with Normal >= 0, Normal·Point == RHS,
-	RHS     *big.Rat   //   and Normal·v >= RHS for every input point v
-	Face    *Face      // the face of P holding Point in its relative interior
+	T       *big.Rat         // t_τ
+	Point   []*big.Rat       // t_τ·τ
+	Weights map[int]*big.Rat // positive convex weights (sum 1) keyed by index into Points() ...
+	Slack   []*big.Rat       // ... and orthant part >= 0 with Point = Σ Weights[j]·Points()[j] + Slack
+	Normal  []*big.Rat       // supporting hyperplane Normal·x >= RHS with Normal >= 0, Normal·Point == RHS,
+	RHS     *big.Rat         //   and Normal·v >= RHS for every input point v
+	Face    *Face            // the face of P holding Point in its relative interior
 
 	pivots int // exact simplex pivots (for benchmarks)
 }
 
-// Face is a face of P = conv(Vertices()) + R^d_{>=0}.
+// Face is a face of P = conv(A) + R^d_{>=0}.
 type Face struct {
-	Vertices []int // indices into Vertices() of the vertices of the face, ascending
+	Vertices []int // indices into Points() of the vertices of the face (vertices of P), ascending
 	Rays     []int // coordinates i such that e_i is in the face's recession cone, ascending
 	Dim      int   // dimension of the face
 	// Normal a >= 0 (primitive integer) and RHS b with a·x >= b on P and
@@ -51,19 +52,21 @@ func (f *Face) Codim(d int) int { return d - f.Dim }
 // Distance returns t_τ = min{t : t·τ ∈ P} for a direction τ of d positive
 // rationals, with an exact certificate and the face of P that holds t_τ·τ in
 // its relative interior. It returns an error wrapping ErrDirection for a bad
-// τ.
+// τ, and one wrapping ctx.Err() when ctx is done while the face's vertices
+// are computed (the only step whose cost is not a few small LPs).
 //
 // Method: t_τ is the optimum of the ray-shooting LP
 //
 //	minimise t  subject to  Σ_j λ_j v_j + s = t·τ,  Σ_j λ_j = 1,  λ, s >= 0
 //
-// over the vertices v_j; it is solved by column generation with an exact
-// simplex master (see LP) and exact integer pricing of every vertex, so the
-// optimal dual (a, b) with a >= 0, a·τ = 1, a·v >= b for all vertices is the
-// certificate Normal, RHS. The face is then found without enumerating facets
-// (see FaceAt). Cost: a few small exact LPs with d+1 rows plus O(N·d) integer
-// work per pricing round for N vertices.
-func (n *Newton) Distance(tau []*big.Rat) (*Hit, error) {
+// over the input points v_j (points that are not vertices change nothing);
+// it is solved by column generation with an exact simplex master (see LP)
+// and exact integer pricing of every point, so the optimal dual (a, b) with
+// a >= 0, a·τ = 1, a·v >= b for all points is the certificate Normal, RHS.
+// The face is then found without enumerating facets (see FaceAt). Cost: a
+// few small exact LPs with d+1 rows plus O(N·d) integer work per pricing
+// round for N points, plus the vertices of the face hit (see FaceAt).
+func (n *Newton) Distance(ctx context.Context, tau []*big.Rat) (*Hit, error) {
 	if len(tau) != n.d {
 		return nil, fmt.Errorf("%w: got %d entries, want %d", ErrDirection, len(tau), n.d)
 	}
@@ -76,21 +79,14 @@ func (n *Newton) Distance(tau []*big.Rat) (*Hit, error) {
 	for i := range x0 {
 		x0[i] = new(big.Rat)
 	}
-	s := shoot(n.vertices, x0, tau)
+	s := n.shoot(x0, tau)
 	h := &Hit{T: s.t, Slack: s.slack, Normal: s.a, RHS: s.b, pivots: s.pivots}
 	h.Point = make([]*big.Rat, n.d)
 	for i := range h.Point {
 		h.Point[i] = new(big.Rat).Mul(s.t, tau[i])
 	}
-	h.Weights = make([]*big.Rat, len(n.vertices))
-	for j := range h.Weights {
-		if w, ok := s.weights[j]; ok {
-			h.Weights[j] = w
-		} else {
-			h.Weights[j] = new(big.Rat)
-		}
-	}
-	f, err := n.faceFromShot(h.Point, s)
+	h.Weights = s.weights
+	f, err := n.faceFromShot(ctx, h.Point, s)
 	if err != nil {
 		return nil, err
 	}
@@ -100,13 +96,17 @@ func (n *Newton) Distance(tau []*big.Rat) (*Hit, error) {
 
 // FaceAt returns the face of P that holds the boundary point x in its
 // relative interior, or an error wrapping ErrNotBoundary if x is in the
-// interior of P or outside P (or ErrDimension if len(x) != d).
+// interior of P or outside P (or ErrDimension if len(x) != d, or one
+// wrapping ctx.Err() as for Distance).
 //
 // Method: the ray-shooting LP from x along (1,…,1) gives t0 = min{t : x +
 // t·1 ∈ P}, and x is on the boundary exactly when t0 = 0 (for an interior x,
 // t0 < 0; outside P, t0 > 0). Its optimal dual (a, b) is a supporting
 // hyperplane at x; the face sought lies in P ∩ {a·y = b}, whose generators
-// are the vertices with a·v = b and the rays e_i with a_i = 0. Among those,
+// are the vertices with a·v = b and the rays e_i with a_i = 0: the vertices
+// of the Newton polyhedron of the points with a·v = b, which are found by
+// the vertex filter (see Vertices) on those points alone, or read off the
+// cached vertices when they are known. Among those,
 // a generator belongs to the face holding x in its relative interior iff it
 // has a positive coefficient in some representation of x (common practice:
 // the generators of the minimal face are exactly the ones used by some
@@ -118,7 +118,7 @@ func (n *Newton) Distance(tau []*big.Rat) (*Hit, error) {
 // the last one separates the remaining generators and gives, combined with
 // (a, b), an exposing normal (see faceFromShot). The dimension is the exact
 // affine rank of the vertices plus rays.
-func (n *Newton) FaceAt(x []*big.Rat) (*Face, error) {
+func (n *Newton) FaceAt(ctx context.Context, x []*big.Rat) (*Face, error) {
 	if len(x) != n.d {
 		return nil, fmt.Errorf("%w: point has %d coordinates, want %d", ErrDimension, len(x), n.d)
 	}
@@ -126,21 +126,21 @@ func (n *Newton) FaceAt(x []*big.Rat) (*Face, error) {
 	for i := range tau {
 		tau[i] = big.NewRat(1, 1)
 	}
-	s := shoot(n.vertices, x, tau)
+	s := n.shoot(x, tau)
 	switch s.t.Sign() {
 	case -1:
 		return nil, fmt.Errorf("%w: it is in the interior of P", ErrNotBoundary)
 	case 1:
 		return nil, fmt.Errorf("%w: it is outside P", ErrNotBoundary)
 	}
-	return n.faceFromShot(x, s)
+	return n.faceFromShot(ctx, x, s)
 }
 
 // faceFromShot computes the face holding x in its relative interior, given
 // an optimal ray-shooting solution whose hit point is x.
 //
 // The optimal dual (a, b) exposes a face F_a ⊇ F whose generators T are the
-// tight vertices and the rays e_i with a_i = 0. One exact tableau over T
+// tight vertices (see tightVertices) and the rays e_i with a_i = 0. One exact tableau over T
 // (rows: x = Σ w_g g, Σ_v w_v = 1) is reused with changing objectives: each
 // round maximises the total weight of the generators not yet seen positive
 // (U). When that maximum is 0, F is the set of generators seen positive, and
@@ -149,7 +149,7 @@ func (n *Newton) FaceAt(x []*big.Rat) (*Face, error) {
 // tight on F. The face normal is K·a + a” with the least integer K >= 1
 // that makes it positive where a is and strict on every vertex outside
 // F_a, which exposes exactly F.
-func (n *Newton) faceFromShot(x []*big.Rat, s *shot) (*Face, error) {
+func (n *Newton) faceFromShot(ctx context.Context, x []*big.Rat, s *shot) (*Face, error) {
 	d := n.d
 	var rays []int
 	for i, ai := range s.a {
@@ -157,7 +157,10 @@ func (n *Newton) faceFromShot(x []*big.Rat, s *shot) (*Face, error) {
 			rays = append(rays, i)
 		}
 	}
-	verts := s.tight
+	verts, err := n.tightVertices(ctx, s.tight)
+	if err != nil {
+		return nil, err
+	}
 	nc := len(verts) + len(rays)
 	known := make([]bool, nc)
 	for k, j := range verts {
@@ -186,7 +189,7 @@ func (n *Newton) faceFromShot(x []*big.Rat, s *shot) (*Face, error) {
 	zero := new(big.Rat)
 	for _, j := range verts {
 		for i := 0; i < d; i++ {
-			col[i] = new(big.Rat).SetInt64(int64(n.vertices[j][i]))
+			col[i] = new(big.Rat).SetInt64(int64(n.points[j][i]))
 		}
 		col[d] = ratOne
 		t.addColumn(col, zero)
@@ -254,6 +257,43 @@ func (n *Newton) faceFromShot(x []*big.Rat, s *shot) (*Face, error) {
 	return f, nil
 }
 
+// tightVertices returns the vertices of P among the points tight (indices
+// into Points(), ascending): all points on one face F_a of P. A point of F_a
+// is a vertex of P iff it is a vertex of conv(tight) + R^d_{>=0}: that set
+// lies in P, and a point of the face that is the midpoint of two points of
+// P has both in F_a ⊆ conv(tight) + R^d_{>=0}. So the vertex filter runs
+// on the tight points only; when the vertices of P are already known they
+// are simply looked up.
+func (n *Newton) tightVertices(ctx context.Context, tight []int) ([]int, error) {
+	if n.vertsDone.Load() {
+		var out []int
+		for _, j := range tight {
+			if n.isVertex[j] {
+				out = append(out, j)
+			}
+		}
+		return out, nil
+	}
+	if len(tight) == 1 {
+		return slices.Clone(tight), nil
+	}
+	pts := make([][]int, len(tight))
+	for k, j := range tight {
+		pts[k] = n.points[j]
+	}
+	minimal := paretoMinimal(n.d, pts)
+	verts, err := vertexFilter(ctx, n.d, minimal, nil)
+	if err != nil {
+		return nil, err
+	}
+	out := make([]int, len(verts))
+	for k, v := range verts {
+		out[k] = n.pointIndex(v)
+	}
+	slices.Sort(out)
+	return out, nil
+}
+
 // faceDim returns the dimension of conv(vertices) + cone(e_i : i in rays):
 // the rank of {v − v_0} ∪ {e_i}.
 func (n *Newton) faceDim(verts, rays []int) int {
@@ -261,11 +301,11 @@ func (n *Newton) faceDim(verts, rays []int) int {
 		return -1
 	}
 	var rows [][]int64
-	v0 := n.vertices[verts[0]]
+	v0 := n.points[verts[0]]
 	for _, j := range verts[1:] {
 		r := make([]int64, n.d)
 		for i := range r {
-			r[i] = int64(n.vertices[j][i]) - int64(v0[i])
+			r[i] = int64(n.points[j][i]) - int64(v0[i])
 		}
 		rows = append(rows, r)
 	}
@@ -279,8 +319,8 @@ func (n *Newton) faceDim(verts, rays []int) int {
 
 // combineNormals returns the primitive form of K·(a, b) + (a2, b2) for the
 // least integer K >= 1 such that the result is > 0 wherever a is and
-// strictly above its right-hand side on every vertex not in tight (the
-// vertices with a·v == b). a2 == nil stands for 0.
+// strictly above its right-hand side on every point not in tight (the
+// points with a·v == b). a2 == nil stands for 0.
 func (n *Newton) combineNormals(a []*big.Rat, b *big.Rat, a2 []*big.Rat, b2 *big.Rat, tight []int) ([]*big.Int, *big.Int) {
 	ai, bi := scaleToInts(a, b)
 	if a2 == nil {
@@ -304,18 +344,33 @@ func (n *Newton) combineNormals(a []*big.Rat, b *big.Rat, a2 []*big.Rat, b2 *big
 	}
 	av, cv := newDotter(ai), newDotter(ci)
 	num, den := new(big.Int), new(big.Int)
-	for j, v := range n.vertices {
-		if isTight[j] {
-			continue
-		}
+	// Over the vertices when they are known, else over all points (the
+	// bound for a point that is no vertex is implied; checking it costs
+	// only time).
+	check := func(v []int) {
 		den.Sub(av.dot(v), bi)
 		num.Sub(di, cv.dot(v))
-		if num.Sign() <= 0 {
-			continue
+		if num.Sign() <= 0 || den.Sign() <= 0 {
+			// den == 0 only for a point of F_a missing from tight, which
+			// is a combination of F_a's generators, where a2 >= b2 holds.
+			return
 		}
 		q.SetFrac(num, den)
 		if q.Cmp(best) > 0 {
 			best.Set(q)
+		}
+	}
+	if n.vertsDone.Load() {
+		for _, j := range n.vertexIdx {
+			if !isTight[j] {
+				check(n.points[j])
+			}
+		}
+	} else {
+		for j, v := range n.points {
+			if !isTight[j] {
+				check(v)
+			}
 		}
 	}
 	k := new(big.Int).Quo(best.Num(), best.Denom()) // floor (best >= 0)
@@ -404,7 +459,7 @@ func (n *Newton) interiorOfExposed(x []*big.Rat, verts, rays []int, known []bool
 	col := func(c int) []int64 {
 		v := make([]int64, m)
 		if c < len(verts) {
-			for i, e := range n.vertices[verts[c]] {
+			for i, e := range n.points[verts[c]] {
 				v[i] = int64(e)
 			}
 			v[d] = 1

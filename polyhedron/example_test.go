@@ -1,6 +1,7 @@
 package polyhedron_test
 
 import (
+	"context"
 	"fmt"
 	"math/big"
 
@@ -13,7 +14,7 @@ func ExampleNewton_Distance() {
 	if err != nil {
 		panic(err)
 	}
-	h, err := n.Distance([]*big.Rat{big.NewRat(1, 1), big.NewRat(1, 1)})
+	h, err := n.Distance(context.Background(), []*big.Rat{big.NewRat(1, 1), big.NewRat(1, 1)})
 	if err != nil {
 		panic(err)
 	}
@@ -31,25 +32,27 @@ func ExampleNewton_Distance() {
 // Facets of the Newton polyhedron of x² + xy + y²: the point (1,1) is not a
 // vertex, and the coordinate half-planes are facets too.
 func ExampleNewton_Facets() {
+	ctx := context.Background()
 	n, _ := polyhedron.New(2, [][]int{{2, 0}, {1, 1}, {0, 2}})
-	fmt.Println("minimal:", n.Minimal())
-	fmt.Println("vertices:", n.Vertices())
-	fs, _ := n.Facets()
+	fmt.Println("points:", n.Points()) // face and facet vertices index these
+	vs, _ := n.Vertices(ctx)
+	fmt.Println("vertices:", vs)
+	fs, _ := n.Facets(ctx)
 	for _, f := range fs {
 		fmt.Println(f.Normal, ">=", f.RHS, "vertices", f.Vertices, "rays", f.Rays)
 	}
 	// Output:
-	// minimal: [[0 2] [1 1] [2 0]]
+	// points: [[0 2] [1 1] [2 0]]
 	// vertices: [[0 2] [2 0]]
-	// [0 1] >= 0 vertices [1] rays [0]
+	// [0 1] >= 0 vertices [2] rays [0]
 	// [1 0] >= 0 vertices [0] rays [1]
-	// [1 1] >= 2 vertices [0 1] rays []
+	// [1 1] >= 2 vertices [0 2] rays []
 }
 
 // The compact faces of a triangle-like polyhedron in three dimensions.
 func ExampleNewton_CompactFaces() {
 	n, _ := polyhedron.New(3, [][]int{{2, 0, 0}, {0, 2, 0}, {0, 0, 2}})
-	lat, _ := n.CompactFaces()
+	lat, _ := n.CompactFaces(context.Background())
 	for i, f := range lat.Faces {
 		fmt.Println("dim", f.Dim, "vertices", f.Vertices, "contains", lat.Sub[i])
 	}

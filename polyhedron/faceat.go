@@ -36,15 +36,15 @@ func (n *Newton) compactFaceFast(x []*big.Rat) (*Face, bool) {
 	for i := range xf {
 		xf[i], _ = x[i].Float64()
 	}
-	fs, ok := shootFloat(n.vertices, xf, onesFloat(d))
+	fs, ok := shootFloat(n.vertices, xf, onesFloat(d)) // indices into n.vertices
 	if !ok || fs.t > 1e-9 {
 		return nil, false
 	}
 	if fs.t < -1e-9 {
 		// Interior: the basis solved exactly must give t < 0.
 		var verts []int
-		for j := range fs.weights {
-			verts = append(verts, j)
+		for k := range fs.weights {
+			verts = append(verts, n.vertexIdx[k])
 		}
 		slices.Sort(verts)
 		vals, okSolve := n.solveGenerators(verts, fs.slacks, fs.tBasic, xs, lx)
@@ -70,9 +70,9 @@ func (n *Newton) compactFaceFast(x []*big.Rat) (*Face, bool) {
 		return nil, false
 	}
 	var tight, rays []int
-	for j, v := range n.vertices {
+	for _, j := range n.vertexIdx {
 		s, norm := -fs.b, math.Abs(fs.b)
-		for i, e := range v {
+		for i, e := range n.points[j] {
 			s += fs.a[i] * float64(e)
 			norm += math.Abs(fs.a[i] * float64(e))
 		}
@@ -88,7 +88,7 @@ func (n *Newton) compactFaceFast(x []*big.Rat) (*Face, bool) {
 	if len(tight) == 0 {
 		return nil, false
 	}
-	ff, ok := floatFace(n.vertices, xf, tight, rays)
+	ff, ok := floatFace(n.points, xf, tight, rays)
 	if !ok {
 		return nil, false
 	}
@@ -135,9 +135,9 @@ func (n *Newton) compactFaceFast(x []*big.Rat) (*Face, bool) {
 	if N == nil {
 		return nil, false
 	}
-	face.Normal, face.RHS = primitive(N, new(big.Int).Set(newDotter(N).dot(n.vertices[S[0]])))
+	face.Normal, face.RHS = primitive(N, new(big.Int).Set(newDotter(N).dot(n.points[S[0]])))
 	face.RHS = new(big.Int).Set(face.RHS)
-	if !n.Exposes(face) {
+	if !n.exposes(face) {
 		return nil, false
 	}
 	n.attachFacets(face)
@@ -163,7 +163,7 @@ func (n *Newton) solveGenerators(verts, rays []int, withT bool, xs []int64, lx i
 	var cols [][]int64
 	for _, j := range verts {
 		c := make([]int64, m)
-		for i, e := range n.vertices[j] {
+		for i, e := range n.points[j] {
 			c[i] = int64(e)
 		}
 		c[d] = 1
@@ -309,14 +309,15 @@ func (n *Newton) floatExposingNormal(a []float64, b float64, a2 []float64, b2 fl
 			K = max(K, -a2[i]/a[i])
 		}
 	}
-	isTight := make([]bool, len(n.vertices))
+	isTight := make([]bool, len(n.points))
 	for _, j := range tight {
 		isTight[j] = true
 	}
-	for j, v := range n.vertices {
+	for _, j := range n.vertexIdx {
 		if isTight[j] {
 			continue
 		}
+		v := n.points[j]
 		av, cv := -b, b2
 		for i, e := range v {
 			av += a[i] * float64(e)

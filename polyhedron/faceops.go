@@ -103,11 +103,46 @@ func (f *Face) Equal(g *Face) bool {
 // and Normal_i == 0 exactly for the coordinates i listed in f.Rays. Then
 // f = P ∩ {Normal·x = RHS} is a face of P with those vertices and rays (a
 // check to run before trusting a face's normal, for instance one built or
-// modified by hand). f.Dim and f.Facets are not checked.
+// modified by hand). f.Dim and f.Facets are not checked. It returns an
+// error wrapping ctx.Err() when ctx is done first.
 //
 // Method: exact integer evaluation of the normal on every vertex (int64 with
-// overflow detection, math/big fallback). Cost: O(V·d) for V vertices.
-func (n *Newton) Exposes(f *Face) bool {
+// overflow detection, math/big fallback), O(V·d) for V vertices, when the
+// vertices are known. Otherwise the normal is evaluated on all N input
+// points, O(N·d), and the vertices among the points where it is tight are
+// found by the vertex filter on those points alone (see FaceAt): the
+// vertices of P are never computed for this.
+func (n *Newton) Exposes(ctx context.Context, f *Face) (bool, error) {
+	if n.vertsDone.Load() {
+		return n.exposes(f), nil
+	}
+	if !n.normalMatchesRays(f) {
+		return false, nil
+	}
+	dt := newDotter(f.Normal)
+	var tight []int
+	for j, p := range n.points {
+		switch dt.dot(p).Cmp(f.RHS) {
+		case -1:
+			return false, nil
+		case 0:
+			tight = append(tight, j)
+		}
+	}
+	if len(tight) == 0 {
+		return false, nil
+	}
+	verts, err := n.tightVertices(ctx, tight)
+	if err != nil {
+		return false, err
+	}
+	return slices.Equal(verts, f.Vertices), nil
+}
+
+// normalMatchesRays checks the parts of Exposes that concern the normal
+// alone: f has vertices, len(Normal) == d, Normal >= 0, and Normal_i == 0
+// exactly for i in f.Rays (ascending).
+func (n *Newton) normalMatchesRays(f *Face) bool {
 	if f == nil || len(f.Vertices) == 0 || len(f.Normal) != n.d || f.RHS == nil {
 		return false
 	}
@@ -124,13 +159,21 @@ func (n *Newton) Exposes(f *Face) bool {
 			return false
 		}
 	}
-	if k != len(f.Rays) {
-		return false // Rays not ascending or out of range
+	return k == len(f.Rays) // else Rays not ascending or out of range
+}
+
+// exposes is Exposes once the vertices are known.
+func (n *Newton) exposes(f *Face) bool {
+	if !n.normalMatchesRays(f) {
+		return false
 	}
 	dt := newDotter(f.Normal)
-	k = 0 // position in f.Vertices
-	for j, v := range n.vertices {
-		c := dt.dot(v).Cmp(f.RHS)
+	k := 0 // position in f.Vertices
+	for _, j := range n.vertexIdx {
+		for k < len(f.Vertices) && f.Vertices[k] < j {
+			return false // a listed point that is no vertex (vertexIdx is ascending)
+		}
+		c := dt.dot(n.points[j]).Cmp(f.RHS)
 		if c < 0 {
 			return false
 		}
@@ -160,24 +203,32 @@ func validIndices(xs []int, limit int) bool {
 // an exposing integer normal for it: f's own when it exposes f, or else the
 // one found at the relative interior point Σ_{v in f} v/k + Σ_{i in rays}
 // e_i, whose face must then be f. The dimension must match the affine rank.
-func (n *Newton) checkFace(f *Face) ([]*big.Int, *big.Int, error) {
+// It computes the vertices first if they are not known yet.
+func (n *Newton) checkFace(ctx context.Context, f *Face) ([]*big.Int, *big.Int, error) {
 	if f == nil {
 		return nil, nil, fmt.Errorf("%w: nil face", ErrFace)
 	}
-	if len(f.Vertices) == 0 || !validIndices(f.Vertices, len(n.vertices)) || !validIndices(f.Rays, n.d) {
+	if err := n.ensureVertices(ctx); err != nil {
+		return nil, nil, err
+	}
+	if len(f.Vertices) == 0 || !validIndices(f.Vertices, len(n.points)) || !validIndices(f.Rays, n.d) ||
+		slices.ContainsFunc(f.Vertices, func(j int) bool { return !n.isVertex[j] }) {
 		return nil, nil, fmt.Errorf("%w: vertices %v, rays %v", ErrFace, f.Vertices, f.Rays)
 	}
 	if dim := n.faceDim(f.Vertices, f.Rays); dim != f.Dim {
 		return nil, nil, fmt.Errorf("%w: vertices %v and rays %v span dimension %d, face says %d", ErrFace, f.Vertices, f.Rays, dim, f.Dim)
 	}
-	if n.Exposes(f) {
+	if n.exposes(f) {
 		return f.Normal, f.RHS, nil
 	}
 	x := n.centroid(f.Vertices)
 	for _, i := range f.Rays {
 		x[i].Add(x[i], ratOne)
 	}
-	g, sign := n.faceHolding(x)
+	g, sign, err := n.faceHolding(ctx, x)
+	if err != nil {
+		return nil, nil, err
+	}
 	if sign != 0 || !g.Equal(f) {
 		return nil, nil, fmt.Errorf("%w: vertices %v and rays %v are not those of a face", ErrFace, f.Vertices, f.Rays)
 	}
@@ -192,7 +243,7 @@ func (n *Newton) centroid(verts []int) []*big.Rat {
 	for i := range x {
 		s.SetInt64(0)
 		for _, j := range verts {
-			s.Add(&s, t.SetInt64(int64(n.vertices[j][i])))
+			s.Add(&s, t.SetInt64(int64(n.points[j][i])))
 		}
 		x[i] = new(big.Rat).SetFrac(&s, k)
 	}
@@ -202,16 +253,16 @@ func (n *Newton) centroid(verts []int) []*big.Rat {
 // faceHolding shoots from x along (1,…,1) and returns the sign of t0 (−1:
 // x interior, +1: x outside P) and, when t0 = 0, the face holding x in its
 // relative interior (see FaceAt).
-func (n *Newton) faceHolding(x []*big.Rat) (*Face, int) {
-	s := shoot(n.vertices, x, ratOnes(n.d))
+func (n *Newton) faceHolding(ctx context.Context, x []*big.Rat) (*Face, int, error) {
+	s := n.shoot(x, ratOnes(n.d))
 	if sign := s.t.Sign(); sign != 0 {
-		return nil, sign
+		return nil, sign, nil
 	}
-	f, err := n.faceFromShot(x, s)
-	if err != nil { // faceFromShot reports no errors today
-		panic("polyhedron: internal error: " + err.Error())
+	f, err := n.faceFromShot(ctx, x, s)
+	if err != nil {
+		return nil, 0, err
 	}
-	return f, 0
+	return f, 0, nil
 }
 
 // CompactFaceAt returns, for a point x of P, the face of P that holds x in
@@ -220,7 +271,8 @@ func (n *Newton) faceHolding(x []*big.Rat) (*Face, int) {
 // (Vertices, empty Rays, Dim, a strictly positive primitive integer Normal
 // exposing it, RHS). It returns an error wrapping ErrDimension if len(x) !=
 // d or an entry is nil, ErrNotBoundary if x is outside P, and one wrapping
-// ctx.Err() if ctx (which may be nil) is done before the LP.
+// ctx.Err() if ctx (which may be nil) is done before the LP. It computes the
+// vertices first if they are not known yet (see Vertices).
 //
 // Method: a point on a compact face dominates no other point of P (a
 // strictly positive normal would be larger on it), so x is first compared
@@ -260,6 +312,9 @@ func (n *Newton) CompactFaceAt(ctx context.Context, x []*big.Rat) (*Face, error)
 			fl[i] = math.MaxInt // m_i <= ⌊x_i⌋ still decides m_i <= x_i
 		}
 	}
+	if err := n.ensureVertices(ctx); err != nil {
+		return nil, err
+	}
 	for _, m := range n.minimal {
 		if dominates(m, fl) && !(integral && slices.Equal(m, fl)) {
 			return nil, nil // x >= m, x != m: x is on no compact face
@@ -271,7 +326,7 @@ func (n *Newton) CompactFaceAt(ctx context.Context, x []*big.Rat) (*Face, error)
 	if f, decided := n.compactFaceFast(x); decided {
 		return f, nil
 	}
-	s := shoot(n.vertices, x, ratOnes(n.d))
+	s := n.shoot(x, ratOnes(n.d))
 	switch s.t.Sign() {
 	case -1:
 		return nil, nil
@@ -283,7 +338,7 @@ func (n *Newton) CompactFaceAt(ctx context.Context, x []*big.Rat) (*Face, error)
 			return nil, nil // x = Σ λ_j v_j + s uses a ray: its face is not compact
 		}
 	}
-	f, err := n.faceFromShot(x, s)
+	f, err := n.faceFromShot(ctx, x, s)
 	if err != nil {
 		return nil, err
 	}
@@ -297,18 +352,22 @@ func (n *Newton) CompactFaceAt(ctx context.Context, x []*big.Rat) (*Face, error)
 // contain the face f (all of f's vertices lie on the facet and the facet's
 // normal vanishes on f's rays), ascending. It enumerates the facets first
 // (see Facets) and returns their error, or one wrapping ErrFace when f's
-// vertex or ray indices are out of range or not strictly ascending.
+// vertex or ray indices are out of range, not strictly ascending, or name a
+// point that is no vertex.
 //
 // Method: intersection of the per-vertex facet bitsets built with the
 // facets, then a check of the rays. Cost: O(|f.Vertices|·F/64 + F·|f.Rays|)
 // for F facets, after the enumeration.
-func (n *Newton) FacetsContaining(f *Face) ([]int, error) {
-	if f == nil || !validIndices(f.Vertices, len(n.vertices)) || !validIndices(f.Rays, n.d) {
+func (n *Newton) FacetsContaining(ctx context.Context, f *Face) ([]int, error) {
+	if f == nil || !validIndices(f.Vertices, len(n.points)) || !validIndices(f.Rays, n.d) {
 		return nil, fmt.Errorf("%w: bad vertex or ray indices", ErrFace)
 	}
-	fs, err := n.Facets()
+	fs, err := n.Facets(ctx)
 	if err != nil {
 		return nil, err
+	}
+	if slices.ContainsFunc(f.Vertices, func(j int) bool { return !n.isVertex[j] }) {
+		return nil, fmt.Errorf("%w: a listed point is no vertex", ErrFace)
 	}
 	set := make([]uint64, (len(fs)+63)/64)
 	for k := range fs {

@@ -12,8 +12,8 @@ import (
 // from a vertex, without enumerating facets.
 func ExampleNewton_Covers() {
 	n, _ := polyhedron.New(3, [][]int{{2, 0, 0}, {0, 2, 0}, {0, 0, 2}})
-	fmt.Println("vertices:", n.Vertices())
 	ctx := context.Background()
+	fmt.Println("points:", n.Points())
 	f := &polyhedron.Face{Vertices: []int{2}} // the vertex (2,0,0); a normal is not needed
 	for f != nil {
 		covers, err := n.Covers(ctx, f)
@@ -29,7 +29,7 @@ func ExampleNewton_Covers() {
 		}
 	}
 	// Output:
-	// vertices: [[0 0 2] [0 2 0] [2 0 0]]
+	// points: [[0 0 2] [0 2 0] [2 0 0]]
 	// dim 1 vertices [0 2] normal [2 3 2] >= 4
 	// dim 1 vertices [1 2] normal [2 2 3] >= 4
 	// dim 2 vertices [0 1 2] normal [1 1 1] >= 2
@@ -37,7 +37,7 @@ func ExampleNewton_Covers() {
 
 // The face holding a point of P in its relative interior, when it is
 // compact. The point (3,3) dominates the vertex (2,2), so it lies on no
-// compact face.
+// compact face. Face vertices index Points(): (0,6), (2,2), (3,3), (4,0).
 func ExampleNewton_CompactFaceAt() {
 	n, _ := polyhedron.New(2, [][]int{{4, 0}, {2, 2}, {0, 6}, {3, 3}})
 	ctx := context.Background()
@@ -57,7 +57,7 @@ func ExampleNewton_CompactFaceAt() {
 		fmt.Println(x, "vertices", f.Vertices, "dim", f.Dim, "normal", f.Normal, ">=", f.RHS)
 	}
 	// Output:
-	// [3/1 1/1] vertices [1 2] dim 1 normal [1 1] >= 4
+	// [3/1 1/1] vertices [1 3] dim 1 normal [1 1] >= 4
 	// [3/1 3/1] no compact face
 	// [5/1 0/1] no compact face
 }
@@ -88,12 +88,13 @@ func ExampleNewton_NormalConeMin() {
 func ExampleFace_Side() {
 	n, _ := polyhedron.New(2, [][]int{{4, 0}, {2, 2}, {0, 6}})
 	edge := &polyhedron.Face{Vertices: []int{1, 2}, Dim: 1, Normal: []*big.Int{big.NewInt(1), big.NewInt(1)}, RHS: big.NewInt(4)}
-	fmt.Println("exposes:", n.Exposes(edge))
+	ok, err := n.Exposes(context.Background(), edge)
+	fmt.Println("exposes:", ok, err)
 	for _, x := range [][]int{{3, 1}, {2, 3}, {1, 1}} {
 		fmt.Println(x, edge.Side(x), edge.Contains(x))
 	}
 	// Output:
-	// exposes: true
+	// exposes: true <nil>
 	// [3 1] 0 true
 	// [2 3] 1 false
 	// [1 1] -1 false
@@ -102,8 +103,8 @@ func ExampleFace_Side() {
 // The facets through a vertex.
 func ExampleNewton_FacetsContaining() {
 	n, _ := polyhedron.New(2, [][]int{{2, 0}, {1, 1}, {0, 2}})
-	fs, _ := n.Facets()
-	idx, err := n.FacetsContaining(&polyhedron.Face{Vertices: []int{0}})
+	fs, _ := n.Facets(context.Background())
+	idx, err := n.FacetsContaining(context.Background(), &polyhedron.Face{Vertices: []int{0}})
 	if err != nil {
 		panic(err)
 	}

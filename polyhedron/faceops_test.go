@@ -124,12 +124,41 @@ func TestExposes(t *testing.T) {
 		{"nil rhs", &Face{Vertices: []int{1}, Normal: bigs(3, 2)}, false},
 		{"nil", nil, false},
 	}
-	for _, tc := range tests {
-		t.Run(tc.name, func(t *testing.T) {
-			if got := n.Exposes(tc.f); got != tc.want {
-				t.Errorf("Exposes = %v, want %v", got, tc.want)
+	// Both paths: over the points of a fresh polyhedron, then over the
+	// vertices once they are known.
+	for _, path := range []string{"points", "vertices"} {
+		if path == "vertices" {
+			mustVertices(t, n)
+		}
+		for _, tc := range tests {
+			t.Run(path+"/"+tc.name, func(t *testing.T) {
+				got, err := n.Exposes(context.Background(), tc.f)
+				if err != nil {
+					t.Fatal(err)
+				}
+				if got != tc.want {
+					t.Errorf("Exposes = %v, want %v", got, tc.want)
+				}
+			})
+		}
+	}
+	// A point on an edge that is no vertex must not be listed: with (1,4)
+	// on the edge from (0,6) to (2,2), Points() is (0,6), (1,4), (2,2),
+	// (4,0).
+	for _, known := range []bool{false, true} {
+		m, _ := New(2, [][]int{{4, 0}, {2, 2}, {0, 6}, {1, 4}})
+		if known {
+			mustVertices(t, m)
+		}
+		for _, tc := range []struct {
+			verts []int
+			want  bool
+		}{{[]int{0, 2}, true}, {[]int{0, 1, 2}, false}, {[]int{1}, false}} {
+			f := &Face{Vertices: tc.verts, Dim: 1, Normal: bigs(2, 1), RHS: big.NewInt(6)}
+			if got, err := m.Exposes(context.Background(), f); err != nil || got != tc.want {
+				t.Errorf("vertices known %v: Exposes(%v) = %v, %v; want %v", known, tc.verts, got, err, tc.want)
 			}
-		})
+		}
 	}
 }
 
@@ -157,8 +186,9 @@ func facetsContainingBrute(fs []Facet, verts [][]int, f *Face) []int {
 }
 
 func TestFacetsContaining(t *testing.T) {
-	// x² + xy + y²: facets [0 1]>=0 (vertex 1 = (2,0), ray 0), [1 0]>=0
-	// (vertex 0 = (0,2), ray 1), [1 1]>=2 (both); see ExampleNewton_Facets.
+	// x² + xy + y²: Points() (0,2), (1,1), (2,0); facets [0 1]>=0
+	// (point 2 = (2,0), ray 0), [1 0]>=0 (point 0 = (0,2), ray 1), [1 1]>=2
+	// (both); see ExampleNewton_Facets.
 	n, _ := New(2, [][]int{{2, 0}, {1, 1}, {0, 2}})
 	tests := []struct {
 		name string
@@ -166,14 +196,14 @@ func TestFacetsContaining(t *testing.T) {
 		want []int
 	}{
 		{"vertex (0,2)", &Face{Vertices: []int{0}}, []int{1, 2}},
-		{"vertex (2,0)", &Face{Vertices: []int{1}}, []int{0, 2}},
-		{"edge", &Face{Vertices: []int{0, 1}, Dim: 1}, []int{2}},
-		{"ray face", &Face{Vertices: []int{1}, Rays: []int{0}, Dim: 1}, []int{0}},
-		{"P itself", &Face{Vertices: []int{0, 1}, Rays: []int{0, 1}, Dim: 2}, []int{}},
+		{"vertex (2,0)", &Face{Vertices: []int{2}}, []int{0, 2}},
+		{"edge", &Face{Vertices: []int{0, 2}, Dim: 1}, []int{2}},
+		{"ray face", &Face{Vertices: []int{2}, Rays: []int{0}, Dim: 1}, []int{0}},
+		{"P itself", &Face{Vertices: []int{0, 2}, Rays: []int{0, 1}, Dim: 2}, []int{}},
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
-			got, err := n.FacetsContaining(tc.f)
+			got, err := n.FacetsContaining(context.Background(), tc.f)
 			if err != nil {
 				t.Fatal(err)
 			}
@@ -182,8 +212,8 @@ func TestFacetsContaining(t *testing.T) {
 			}
 		})
 	}
-	for _, bad := range []*Face{nil, {Vertices: []int{2}}, {Vertices: []int{1, 0}}, {Vertices: []int{0}, Rays: []int{2}}} {
-		if _, err := n.FacetsContaining(bad); !errors.Is(err, ErrFace) {
+	for _, bad := range []*Face{nil, {Vertices: []int{3}}, {Vertices: []int{1}}, {Vertices: []int{2, 0}}, {Vertices: []int{0}, Rays: []int{2}}} {
+		if _, err := n.FacetsContaining(context.Background(), bad); !errors.Is(err, ErrFace) {
 			t.Errorf("FacetsContaining(%v): err = %v, want ErrFace", bad, err)
 		}
 	}
@@ -196,11 +226,11 @@ func TestFacetsContaining(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		fs, err := n.Facets()
+		fs, err := n.Facets(context.Background())
 		if err != nil {
 			t.Fatal(err)
 		}
-		lat, err := n.CompactFaces()
+		lat, err := n.CompactFaces(context.Background())
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -209,11 +239,11 @@ func TestFacetsContaining(t *testing.T) {
 			faces = append(faces, &Face{Vertices: fs[k].Vertices, Rays: fs[k].Rays})
 		}
 		for _, f := range faces {
-			got, err := n.FacetsContaining(f)
+			got, err := n.FacetsContaining(context.Background(), f)
 			if err != nil {
 				t.Fatal(err)
 			}
-			if want := facetsContainingBrute(fs, n.Vertices(), f); !slices.Equal(got, want) {
+			if want := facetsContainingBrute(fs, n.Points(), f); !slices.Equal(got, want) {
 				t.Errorf("trial %d face %v rays %v: FacetsContaining = %v, brute force %v", trial, f.Vertices, f.Rays, got, want)
 			}
 		}
@@ -276,7 +306,7 @@ func coversFromLattice(lat *Lattice) [][]int {
 
 func checkCoversAgainstLattice(t *testing.T, name string, n *Newton) {
 	t.Helper()
-	lat, err := n.CompactFaces()
+	lat, err := n.CompactFaces(context.Background())
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -383,11 +413,11 @@ func TestCompactFaceAtRandom(t *testing.T) {
 			t.Fatal(err)
 		}
 		d := in.D
-		fs, err := n.Facets()
+		fs, err := n.Facets(context.Background())
 		if err != nil {
 			t.Fatal(err)
 		}
-		lat, err := n.CompactFaces()
+		lat, err := n.CompactFaces(context.Background())
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -407,7 +437,8 @@ func TestCompactFaceAtRandom(t *testing.T) {
 		// Random points of P: a random convex combination of a few
 		// vertices, sometimes plus a step along a coordinate, compared with
 		// the face that the facets give.
-		verts := n.Vertices()
+		verts := mustVertices(t, n)
+		byPoint := vertexSlice(t, n)
 		for k := 0; k < 10; k++ {
 			x := make([]*big.Rat, d)
 			for i := range x {
@@ -433,7 +464,7 @@ func TestCompactFaceAtRandom(t *testing.T) {
 			if err != nil {
 				t.Fatal(err)
 			}
-			vs, rays, dim := faceByFacets(fs, verts, d, x)
+			vs, rays, dim := faceByFacets(fs, byPoint, d, x)
 			onBoundary := slices.ContainsFunc(fs, func(fc Facet) bool {
 				return dotRat(fc.Normal, x).Cmp(new(big.Rat).SetInt(fc.RHS)) == 0
 			})
@@ -463,6 +494,7 @@ func TestCompactFaceAtRandom(t *testing.T) {
 
 func TestCompactFaceAt(t *testing.T) {
 	// x⁴ + x²y² + y⁶ + x³y³: vertices (0,6), (2,2), (4,0); (3,3) dominates (2,2).
+	// Points(): (0,6), (2,2), (3,3), (4,0); vertices all but (3,3).
 	n, _ := New(2, [][]int{{4, 0}, {2, 2}, {0, 6}, {3, 3}})
 	r := func(num, den int64) *big.Rat { return big.NewRat(num, den) }
 	tests := []struct {
@@ -473,8 +505,8 @@ func TestCompactFaceAt(t *testing.T) {
 	}{
 		{"vertex", []*big.Rat{r(2, 1), r(2, 1)}, []int{1}, nil},
 		{"edge midpoint", []*big.Rat{r(1, 1), r(4, 1)}, []int{0, 1}, nil},
-		{"edge point", []*big.Rat{r(3, 1), r(1, 1)}, []int{1, 2}, nil},
-		{"rational edge point", []*big.Rat{r(5, 2), r(3, 2)}, []int{1, 2}, nil},
+		{"edge point", []*big.Rat{r(3, 1), r(1, 1)}, []int{1, 3}, nil},
+		{"rational edge point", []*big.Rat{r(5, 2), r(3, 2)}, []int{1, 3}, nil},
 		{"minimal non-vertex", []*big.Rat{r(3, 1), r(3, 1)}, nil, nil},
 		{"on a ray", []*big.Rat{r(5, 1), r(0, 1)}, nil, nil},
 		{"on a ray, rational", []*big.Rat{r(9, 2), r(0, 1)}, nil, nil},
@@ -559,8 +591,8 @@ func checkNormalConeY(t *testing.T, n *Newton, f *Face, tau, y []*big.Rat) {
 			t.Errorf("y = %v nonzero on ray %d", y, i)
 		}
 	}
-	b := dot(n.Vertices()[f.Vertices[0]])
-	for j, v := range n.Vertices() {
+	b := dot(n.Points()[f.Vertices[0]])
+	for j, v := range vertexSeq(t, n) {
 		c := dot(v).Cmp(b)
 		if c < 0 || (c != 0 && slices.Contains(f.Vertices, j)) {
 			t.Errorf("y = %v is not minimised on face %v (vertex %v)", y, f.Vertices, v)
@@ -582,11 +614,11 @@ func TestNormalConeMin(t *testing.T) {
 			t.Fatal(err)
 		}
 		d := in.D
-		fs, err := n.Facets()
+		fs, err := n.Facets(context.Background())
 		if err != nil {
 			t.Fatal(err)
 		}
-		lat, err := n.CompactFaces()
+		lat, err := n.CompactFaces(context.Background())
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -595,13 +627,13 @@ func TestNormalConeMin(t *testing.T) {
 			faces = append(faces, &Face{Vertices: fs[k].Vertices, Rays: fs[k].Rays, Dim: d - 1})
 		}
 		// faces with rays: at random vertex + e_i points
-		for j, v := range n.Vertices() {
+		for j, v := range vertexSeq(t, n) {
 			x := make([]*big.Rat, d)
 			for i := range x {
 				x[i] = big.NewRat(int64(v[i]), 1)
 			}
 			x[rng.IntN(d)].Add(x[rng.IntN(d)], ratOne)
-			if f, err := n.FaceAt(x); err == nil && len(f.Rays) < d {
+			if f, err := n.FaceAt(context.Background(), x); err == nil && len(f.Rays) < d {
 				faces = append(faces, f)
 			}
 			_ = j
@@ -613,7 +645,7 @@ func TestNormalConeMin(t *testing.T) {
 				tau[i] = big.NewRat(int64(1+rng.IntN(4)), int64(1+rng.IntN(3)))
 				c[i] = big.NewRat(int64(rng.IntN(7)-2), int64(1+rng.IntN(2)))
 			}
-			containing := facetsContainingBrute(fs, n.Vertices(), f)
+			containing := facetsContainingBrute(fs, n.Points(), f)
 			objectives := [][]*big.Rat{c}
 			for i := 0; i < d; i++ { // the caller's use: c = e_i
 				e := make([]*big.Rat, d)
@@ -764,7 +796,7 @@ func testCoversScaled(t *testing.T, K int) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		lat, err := n0.CompactFaces()
+		lat, err := n0.CompactFaces(context.Background())
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -815,7 +847,7 @@ func TestNormalConeMinHuge(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		lat, err := n0.CompactFaces()
+		lat, err := n0.CompactFaces(context.Background())
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -865,7 +897,7 @@ func TestCompactFaceAtHuge(t *testing.T) {
 		if err != nil {
 			t.Fatal(err)
 		}
-		lat, err := n0.CompactFaces()
+		lat, err := n0.CompactFaces(context.Background())
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -920,7 +952,7 @@ func TestFaceOpsHugeExponents(t *testing.T) {
 			e0[i] = new(big.Rat)
 		}
 		e0[0].SetInt64(1)
-		for j, v := range n.Vertices() {
+		for j, v := range vertexSeq(t, n) {
 			f := &Face{Vertices: []int{j}}
 			want, err := n0.Covers(ctx, f)
 			if err != nil {

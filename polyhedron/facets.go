@@ -15,14 +15,16 @@ import (
 type Facet struct {
 	Normal   []*big.Int // a
 	RHS      *big.Int   // b
-	Vertices []int      // indices into Vertices() of the vertices on the facet, ascending
+	Vertices []int      // indices into Points() of the vertices on the facet, ascending
 	Rays     []int      // coordinates i with a_i = 0 (e_i lies in the facet's recession cone), ascending
 }
 
 // Facets returns all facets of P, sorted by normal (lexicographically) and
 // then by right-hand side. The result is computed once and shared; the
 // caller must not modify it. It returns an error wrapping ErrTooLarge when
-// the number of intermediate rays exceeds Limits.MaxRays.
+// the number of intermediate rays exceeds Limits.MaxRays (cached: later
+// calls return it too), and one wrapping ctx.Err() when ctx is done first
+// (not cached; ctx is checked before each vertex constraint is added).
 //
 // Algorithm: the inequalities a·x >= b valid on P are the cone
 // C = {(a, b) : a_i >= 0, a·v − b >= 0 for every vertex v} in R^{d+1}, which
@@ -40,18 +42,45 @@ type Facet struct {
 // computation per candidate pair; R can grow exponentially with d in the
 // worst case (bounded by Limits.MaxRays), and is typically a small multiple
 // of the final facet count.
-func (n *Newton) Facets() ([]Facet, error) {
-	n.facetsOnce.Do(func() {
-		n.facets, n.vertexFacets, n.facetsErr = enumerateFacets(n.d, n.vertices, n.limits.MaxRays, n.limits.Context)
-		n.facetsDone.Store(n.facetsErr == nil)
-	})
+func (n *Newton) Facets(ctx context.Context) ([]Facet, error) {
+	if n.facetsDone.Load() {
+		return n.facets, n.facetsErr
+	}
+	if err := n.ensureVertices(ctx); err != nil {
+		return nil, err
+	}
+	n.facetsMu.Lock()
+	defer n.facetsMu.Unlock()
+	if n.facetsDone.Load() {
+		return n.facets, n.facetsErr
+	}
+	facets, byVertex, err := enumerateFacets(ctx, n.d, n.vertices, n.limits.MaxRays)
+	if err != nil && !errors.Is(err, ErrTooLarge) {
+		return nil, err
+	}
+	if err == nil {
+		// Vertex indices of the enumeration refer to n.vertices; the
+		// API's refer to Points().
+		for k := range facets {
+			for i, v := range facets[k].Vertices {
+				facets[k].Vertices[i] = n.vertexIdx[v]
+			}
+		}
+		n.vertexFacets = make([][]uint64, len(n.points))
+		for k, set := range byVertex {
+			n.vertexFacets[n.vertexIdx[k]] = set
+		}
+		n.facets = facets
+	}
+	n.facetsErr = err
+	n.facetsDone.Store(true)
 	return n.facets, n.facetsErr
 }
 
 // attachFacets fills f.Facets when the facets have already been enumerated
 // without error.
 func (n *Newton) attachFacets(f *Face) {
-	if !n.facetsDone.Load() || len(f.Vertices) == 0 {
+	if !n.facetsDone.Load() || n.facetsErr != nil || len(f.Vertices) == 0 {
 		return
 	}
 	set := slices.Clone(n.vertexFacets[f.Vertices[0]])
@@ -85,12 +114,12 @@ type ddState struct {
 	useBig  bool
 	tight   [][]uint64 // tight constraint sets
 	maxRays int
-	// ctx is Limits.Context, checked before each added constraint.
+	// ctx is the caller's context, checked before each added constraint.
 	ctx     context.Context
 	zobrist []uint64 // random word per constraint (hashing of tight sets)
 }
 
-func enumerateFacets(d int, verts [][]int, maxRays int, ctx context.Context) ([]Facet, [][]uint64, error) {
+func enumerateFacets(ctx context.Context, d int, verts [][]int, maxRays int) ([]Facet, [][]uint64, error) {
 	st := &ddState{d: d, dim: d + 1, verts: verts, words: (d + len(verts) + 63) / 64, maxRays: maxRays, ctx: ctx}
 	err := st.run()
 	if errors.Is(err, errOverflow) {

@@ -1,6 +1,7 @@
 package polyhedron
 
 import (
+	"context"
 	"math/big"
 	"testing"
 )
@@ -164,7 +165,7 @@ func FuzzHull(f *testing.F) {
 			t.Fatal(err)
 		}
 		fs := checkFacets(t, n, points)
-		lat, err := n.CompactFaces()
+		lat, err := n.CompactFaces(context.Background())
 		if err != nil {
 			t.Fatal(err)
 		}
@@ -173,7 +174,7 @@ func FuzzHull(f *testing.F) {
 		for i := range tau {
 			tau[i] = big.NewRat(int64(1+r.next(4)), int64(1+r.next(3)))
 		}
-		h, err := n.Distance(tau)
+		h, err := n.Distance(context.Background(), tau)
 		if err != nil {
 			t.Fatal(err)
 		}

@@ -1,6 +1,8 @@
 package polyhedron
 
 import (
+	"context"
+	"errors"
 	"fmt"
 	"math/big"
 	"math/bits"
@@ -16,8 +18,10 @@ type Lattice struct {
 
 // CompactFaces returns the compact faces of P with their inclusions. It
 // enumerates the facets first (see Facets) and returns their error, or an
-// error wrapping ErrTooLarge when more than Limits.MaxFaces faces arise. The
-// result is computed once and shared; the caller must not modify it.
+// error wrapping ErrTooLarge when more than Limits.MaxFaces faces arise
+// (cached), or one wrapping ctx.Err() when ctx is done first (not cached;
+// ctx is checked before each face is extended). The result is computed
+// once and shared; the caller must not modify it.
 //
 // Algorithm: a face is identified by its closure, the set of facets
 // containing it; the vertices and rays of a face are those common to all
@@ -28,20 +32,41 @@ type Lattice struct {
 // in G) that are compact and of dimension k+1; dimensions are exact ranks.
 // Cost: O(F·V·(V/64 + #facets/64)) bitset work for F compact faces and V
 // vertices, plus one small rank per candidate.
-func (n *Newton) CompactFaces() (*Lattice, error) {
-	n.latticeOnce.Do(func() {
-		n.lattice, n.latticeErr = n.buildLattice()
-	})
-	return n.lattice, n.latticeErr
+func (n *Newton) CompactFaces(ctx context.Context) (*Lattice, error) {
+	n.latticeMu.Lock()
+	defer n.latticeMu.Unlock()
+	if n.latticeDone {
+		return n.lattice, n.latticeErr
+	}
+	lat, err := n.buildLattice(ctx)
+	if err != nil && !errors.Is(err, ErrTooLarge) {
+		return nil, err
+	}
+	n.lattice, n.latticeErr, n.latticeDone = lat, err, true
+	return lat, err
 }
 
-func (n *Newton) buildLattice() (*Lattice, error) {
-	fs, err := n.Facets()
+// buildLattice works with indices into n.vertices (0 … nv−1) and turns
+// them into indices into Points() for the faces it returns.
+func (n *Newton) buildLattice(ctx context.Context) (*Lattice, error) {
+	fs, err := n.Facets(ctx)
 	if err != nil {
 		return nil, err
 	}
 	d := n.d
 	nv := len(n.vertices)
+	vertexPos := make(map[int]int, nv) // index into Points() -> index into n.vertices
+	for k, j := range n.vertexIdx {
+		vertexPos[j] = k
+	}
+	facetsOf := func(k int) []uint64 { return n.vertexFacets[n.vertexIdx[k]] }
+	toPoints := func(list []int) []int {
+		out := make([]int, len(list))
+		for i, k := range list {
+			out[i] = n.vertexIdx[k]
+		}
+		return out
+	}
 	vw := (nv + 63) / 64
 	fw := (len(fs) + 63) / 64
 	// Per facet: vertex bitset. Per vertex: facet bitset (n.vertexFacets).
@@ -49,7 +74,7 @@ func (n *Newton) buildLattice() (*Lattice, error) {
 	for k, f := range fs {
 		facetVerts[k] = make([]uint64, vw)
 		for _, j := range f.Vertices {
-			setBit(facetVerts[k], j)
+			setBit(facetVerts[k], vertexPos[j])
 		}
 	}
 	// raysOf(facetSet) is empty iff for every coordinate some facet has a_i > 0.
@@ -118,7 +143,7 @@ func (n *Newton) buildLattice() (*Lattice, error) {
 	for j := 0; j < nv; j++ {
 		vs := make([]uint64, vw)
 		setBit(vs, j)
-		level = append(level, &node{verts: vs, fset: slices.Clone(n.vertexFacets[j]), list: []int{j}, dim: 0})
+		level = append(level, &node{verts: vs, fset: slices.Clone(facetsOf(j)), list: []int{j}, dim: 0})
 	}
 	subs := [][][]int{make([][]int, nv)}
 	total := nv
@@ -128,7 +153,7 @@ func (n *Newton) buildLattice() (*Lattice, error) {
 		var next []*node
 		var nextSub [][]int
 		for gi, g := range level {
-			if err := contextErr(n.limits.Context); err != nil {
+			if err := contextErr(ctx); err != nil {
 				return nil, err
 			}
 			for u := 0; u < nv; u++ {
@@ -137,7 +162,7 @@ func (n *Newton) buildLattice() (*Lattice, error) {
 				}
 				fset := make([]uint64, fw)
 				for w := range fset {
-					fset[w] = g.fset[w] & n.vertexFacets[u][w]
+					fset[w] = g.fset[w] & facetsOf(u)[w]
 				}
 				if !compact(fset) {
 					continue
@@ -151,7 +176,7 @@ func (n *Newton) buildLattice() (*Lattice, error) {
 					continue
 				}
 				list := listOf(vs)
-				if n.faceDim(list, nil) != g.dim+1 {
+				if n.faceDim(toPoints(list), nil) != g.dim+1 {
 					index[key] = -1
 					continue
 				}
@@ -183,7 +208,7 @@ func (n *Newton) buildLattice() (*Lattice, error) {
 		}
 		for _, k := range order {
 			g := lv[k]
-			f := &Face{Vertices: g.list, Dim: g.dim}
+			f := &Face{Vertices: toPoints(g.list), Dim: g.dim}
 			// Normal: sum of the normals of the facets containing the face.
 			sum := make([]*big.Int, d)
 			for i := range sum {

@@ -30,25 +30,41 @@ var (
 )
 
 // Newton is the Newton polyhedron P = conv(A) + R^d_{>=0} of a finite set A of
-// exponent vectors. It is built once by New and then queried; all methods are
-// safe for concurrent use (the facet enumeration is computed once, lazily).
+// exponent vectors. New only validates and sorts A; everything else is
+// computed when a question needs it: Distance and FaceAt work over the
+// points directly, and the vertices, facets and compact faces are computed
+// once on first use and cached. All methods are safe for concurrent use.
 type Newton struct {
 	d        int
-	minimal  [][]int // Pareto-minimal points, sorted lexicographically
-	vertices [][]int // vertices of P, sorted lexicographically
-	maxCoord int64   // largest coordinate of any vertex
+	points   [][]int // the input points without duplicates, sorted lexicographically
+	maxCoord int64   // largest coordinate of any point
 	limits   Limits
 
-	facetsOnce sync.Once
-	facets     []Facet
-	facetsErr  error
-	facetsDone atomic.Bool // set after facets and vertexFacets are final
-	// incidence data computed with the facets
-	vertexFacets [][]uint64 // per vertex: bitset over facets containing it
+	// The Pareto-minimal points and the vertices, computed on first use by
+	// ensureVertices under mu (not a sync.Once: a cancelled computation is
+	// not cached, so a later call with a live context can finish it).
+	mu        sync.Mutex
+	vertsDone atomic.Bool
+	minimal   [][]int // Pareto-minimal points, sorted lexicographically
+	vertices  [][]int // vertices of P, sorted lexicographically
+	vertexIdx []int   // vertexIdx[k]: index into points of vertices[k]
+	isVertex  []bool  // per point
 
-	latticeOnce sync.Once
+	// The facets and the compact faces, computed on first use under
+	// their own locks; a work-limit error is cached with them, a
+	// cancelled computation is not.
+	facetsMu   sync.Mutex
+	facetsDone atomic.Bool // set after facets and vertexFacets are final
+	facets     []Facet
+	facetsErr  error // ErrTooLarge, cached
+	// vertexFacets[j] is, for the vertex Points()[j], the bitset over
+	// Facets() of the facets containing it (nil for other points).
+	vertexFacets [][]uint64
+
+	latticeMu   sync.Mutex
+	latticeDone bool
 	lattice     *Lattice
-	latticeErr  error
+	latticeErr  error // ErrTooLarge, cached
 }
 
 // Limits bounds the work of the full enumerations (Facets, CompactFaces).
@@ -60,16 +76,6 @@ type Limits struct {
 	// MaxFaces bounds the number of compact faces built by CompactFaces
 	// (default 1,000,000).
 	MaxFaces int
-	// Context, if non-nil, lets the caller stop long work: NewWithLimits
-	// checks it before each vertex test (an LP), Facets before each
-	// vertex constraint it adds, and CompactFaces before extending each
-	// face of the level it is on. Once the context is done they return an
-	// error wrapping ctx.Err() (test with errors.Is(err,
-	// context.DeadlineExceeded), for instance). The results of Facets and
-	// CompactFaces are cached, so later calls on the same Newton return
-	// that error too: build a new Newton to retry. Distance and FaceAt do
-	// not check it (they solve a few small LPs).
-	Context context.Context
 }
 
 const (
@@ -81,44 +87,19 @@ const (
 // are copied. It returns an error wrapping ErrEmpty, ErrDimension or
 // ErrNegative (naming the offending point and coordinate) for bad input.
 //
-// New computes the Pareto-minimal points (a skyline filter: sort by
-// coordinate sum, then test each point only against minimal points with a
-// smaller sum and a support contained in its own) and then the vertices of P:
-// a minimal point p is a vertex of P exactly when it is a vertex of the
-// Newton polyhedron of the minimal points whose support lies in supp(p)
-// (a face of P). The vertex filter keeps a growing set of certified
-// vertices, seeded with the unique minimisers of a few positive linear
-// orders, and decides each point by a float64 LP over the known vertices
-// with support in supp(p) only: a point found inside is accepted as a
-// non-vertex only with an exact certificate (the LP basis solved exactly in
-// integers, or a basis cached from a point of the same support); a point
-// found outside gives a separating normal whose exact minimisers over all
-// candidate points, ties broken lexicographically, are a new vertex for the
-// set or prove that p is one. On small inputs, cheap LP-free tests come
-// first (unique minimiser of a linear order; lying above a segment between
-// two other points); whatever the float LPs cannot certify is decided by
-// the exact LP over all candidates.
-//
-// Cost: O(N log N) for sorting plus, per point, either a lookup of the
-// 2^|supp| support subsets (sparse points) or a scan of the minimal points
-// with smaller sums; then about one small float LP (d' + 1 rows for support
-// size d', columns the known vertices) per minimal point, fewer when points
-// of one support share a basis, plus an O(M·d) exact pricing pass over the
-// M minimal points about twice per vertex; run on all cores. On the 2-core
-// development machine: the 92,378 points of degree 10 in d = 10 (10
-// vertices) take about 0.15 s, 3,018 minimal points in d = 10 (934
-// vertices) about 0.13 s, 10^5 sparse points in d = 20 about 0.13 s.
+// New only checks, copies and sorts the points (duplicates removed): its
+// cost is O(N log N) comparisons for N points. Nothing that a question may
+// not need is computed here: Distance and FaceAt solve their LPs over the
+// points themselves (a point that is no vertex never changes an LP over P),
+// and the vertices are computed only for the faces they report (see
+// FaceAt) or when Vertices, Minimal, Facets, CompactFaces or the face
+// operations ask for them.
 func New(d int, points [][]int) (*Newton, error) {
 	return NewWithLimits(d, points, Limits{})
 }
 
 // NewWithLimits is New with explicit work limits for the enumerations.
 func NewWithLimits(d int, points [][]int, lim Limits) (*Newton, error) {
-	return build(d, points, lim, nil)
-}
-
-// build is NewWithLimits with optional work counters for the vertex filter.
-func build(d int, points [][]int, lim Limits, st *vertexStats) (*Newton, error) {
 	if d < 1 {
 		return nil, fmt.Errorf("%w: d = %d, want d >= 1", ErrDimension, d)
 	}
@@ -142,30 +123,127 @@ func build(d int, points [][]int, lim Limits, st *vertexStats) (*Newton, error) 
 		lim.MaxFaces = defaultMaxFaces
 	}
 	n := &Newton{d: d, limits: lim}
-	n.minimal = paretoMinimal(d, points)
-	var err error
-	if n.vertices, err = vertexFilter(d, n.minimal, lim.Context, st); err != nil {
-		return nil, err
-	}
-	for _, v := range n.vertices {
-		for _, x := range v {
+	flat := make([]int, len(points)*d) // one allocation for all copies
+	n.points = make([][]int, len(points))
+	for k, p := range points {
+		q := flat[k*d : (k+1)*d : (k+1)*d]
+		copy(q, p)
+		n.points[k] = q
+		for _, x := range q {
 			n.maxCoord = max(n.maxCoord, int64(x))
 		}
 	}
+	slices.SortFunc(n.points, slices.Compare)
+	n.points = slices.CompactFunc(n.points, slices.Equal)
 	return n, nil
+}
+
+// ensureVertices computes the Pareto-minimal points and the vertices once
+// (the Pareto filter, then the vertex filter described at Vertices). It
+// returns an error wrapping ctx.Err() when ctx is done first; nothing is
+// cached then.
+func (n *Newton) ensureVertices(ctx context.Context) error {
+	return n.ensureVerticesStats(ctx, nil)
+}
+
+// ensureVerticesStats is ensureVertices with optional work counters.
+func (n *Newton) ensureVerticesStats(ctx context.Context, st *vertexStats) error {
+	if n.vertsDone.Load() {
+		return nil
+	}
+	n.mu.Lock()
+	defer n.mu.Unlock()
+	if n.vertsDone.Load() {
+		return nil
+	}
+	if err := contextErr(ctx); err != nil {
+		return err
+	}
+	minimal := paretoMinimal(n.d, n.points)
+	vertices, err := vertexFilter(ctx, n.d, minimal, st)
+	if err != nil {
+		return err
+	}
+	n.minimal, n.vertices = minimal, vertices
+	n.vertexIdx = make([]int, len(vertices))
+	n.isVertex = make([]bool, len(n.points))
+	for k, v := range vertices {
+		j := n.pointIndex(v)
+		if j < 0 {
+			panic("polyhedron: internal error: a vertex is not an input point")
+		}
+		n.vertexIdx[k] = j
+		n.isVertex[j] = true
+	}
+	n.vertsDone.Store(true)
+	return nil
+}
+
+// pointIndex returns the index of p in Points(), or -1.
+func (n *Newton) pointIndex(p []int) int {
+	j, ok := slices.BinarySearchFunc(n.points, p, slices.Compare)
+	if !ok {
+		return -1
+	}
+	return j
 }
 
 // Dim returns the dimension d of the ambient space.
 func (n *Newton) Dim() int { return n.d }
 
-// Minimal returns the Pareto-minimal input points (those not dominated
-// coordinatewise by another input point), without duplicates, sorted
-// lexicographically. The caller must not modify the result.
-func (n *Newton) Minimal() [][]int { return n.minimal }
+// Points returns the input points without duplicates, sorted
+// lexicographically. Indices in Hit, Face and Facet refer to this slice.
+// The caller must not modify the result.
+func (n *Newton) Points() [][]int { return n.points }
 
-// Vertices returns the vertices of P sorted lexicographically. Indices in Hit,
-// Face and Facet refer to this slice. The caller must not modify the result.
-func (n *Newton) Vertices() [][]int { return n.vertices }
+// Minimal returns the Pareto-minimal input points (those not dominated
+// coordinatewise by another input point), sorted lexicographically. They
+// are computed on first use (see Vertices). It returns an error wrapping
+// ctx.Err() when ctx is done first. The caller must not modify the result.
+func (n *Newton) Minimal(ctx context.Context) ([][]int, error) {
+	if err := n.ensureVertices(ctx); err != nil {
+		return nil, err
+	}
+	return n.minimal, nil
+}
+
+// Vertices returns the vertices of P sorted lexicographically (each is one
+// of Points()). They are computed once, on first use by this or another
+// method that needs them, and cached; when ctx is done first, the error
+// wraps ctx.Err() and a later call starts again.
+//
+// Method: the Pareto-minimal points first (a skyline filter: sort by
+// coordinate sum, then test each point only against minimal points with a
+// smaller sum and a support contained in its own); then a minimal point p
+// is a vertex of P exactly when it is a vertex of the Newton polyhedron of
+// the minimal points whose support lies in supp(p) (a face of P). The
+// vertex filter keeps a growing set of certified vertices, seeded with the
+// unique minimisers of a few positive linear orders, and decides each point
+// by a float64 LP over the known vertices with support in supp(p) only: a
+// point found inside is accepted as a non-vertex only with an exact
+// certificate (the LP basis solved exactly in integers, or a basis cached
+// from a point of the same support); a point found outside gives a
+// separating normal whose exact minimisers over all candidate points, ties
+// broken lexicographically, are a new vertex for the set or prove that p is
+// one. On small inputs, cheap LP-free tests come first (unique minimiser of
+// a linear order; lying above a segment between two other points); whatever
+// the float LPs cannot certify is decided by the exact LP over all
+// candidates.
+//
+// Cost: about one small float LP (d' + 1 rows for support size d', columns
+// the known vertices) per minimal point, fewer when points of one support
+// share a basis, plus an O(M·d) exact pricing pass over the M minimal points
+// about twice per vertex; run on all cores. On the 2-core development
+// machine: the 92,378 points of degree 10 in d = 10 (10 vertices) take
+// about 0.15 s; 10^5 random points in d = 20 with exponents up to 12 (about
+// 78,000 minimal, 32,000 vertices) about 24 s, which is why nothing that
+// does not need the vertices computes them.
+func (n *Newton) Vertices(ctx context.Context) ([][]int, error) {
+	if err := n.ensureVertices(ctx); err != nil {
+		return nil, err
+	}
+	return n.vertices, nil
+}
 
 // support returns the bitset of nonzero coordinates of p.
 func support(p []int, words int) []uint64 {

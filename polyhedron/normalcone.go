@@ -37,7 +37,8 @@ import (
 // Should any of this fail, the same column generation runs on the exact
 // simplex tableau (see LP), starting from the float basis' columns, and its
 // optimal duals are y. Cost: one float LP with d − |f.Rays| rows and O(V·d)
-// work per pricing round for V vertices, plus a few exact integer solves of
+// work per pricing round for N input points (any point that is no vertex
+// only costs time), plus a few exact integer solves of
 // that size; a few exact LPs in the rare fallback.
 func (n *Newton) NormalConeMin(ctx context.Context, f *Face, tau, c []*big.Rat) (*big.Rat, []*big.Rat, error) {
 	d := n.d
@@ -57,7 +58,7 @@ func (n *Newton) NormalConeMin(ctx context.Context, f *Face, tau, c []*big.Rat) 
 			return nil, nil, fmt.Errorf("%w: objective entry %d is nil", ErrDimension, i)
 		}
 	}
-	if _, _, err := n.checkFace(f); err != nil {
+	if _, _, err := n.checkFace(ctx, f); err != nil {
 		return nil, nil, err
 	}
 	var cols []int // coordinates not in f.Rays: the rows of the dual
@@ -75,13 +76,13 @@ func (n *Newton) NormalConeMin(ctx context.Context, f *Face, tau, c []*big.Rat) 
 	for i := range sum {
 		sum[i] = new(big.Int)
 		for _, j := range f.Vertices {
-			sum[i].Add(sum[i], big.NewInt(int64(n.vertices[j][i])))
+			sum[i].Add(sum[i], big.NewInt(int64(n.points[j][i])))
 		}
 	}
 	// The float64 run of the column generation proposes an optimal basis;
 	// when the exact check fails, its vertex columns start the exact loop,
 	// which then usually needs a single round.
-	nf := &ncFloat{verts: n.vertices, own: f.Vertices, cols: cols, k: k, sum: sum, tau: tau, c: c}
+	nf := &ncFloat{verts: n.points, own: f.Vertices, cols: cols, k: k, sum: sum, tau: tau, c: c}
 	basis, floatOK := nf.solve()
 	if floatOK {
 		if val, y, ok := nf.verify(basis, d); ok {
@@ -113,11 +114,11 @@ func (n *Newton) NormalConeMin(ctx context.Context, f *Face, tau, c []*big.Rat) 
 		col[r] = new(big.Rat).Neg(tau[i])
 	}
 	t.addColumn(col, ratOne) // z⁻
-	added := make([]bool, len(n.vertices))
+	added := make([]bool, len(n.points))
 	addVertex := func(j int) {
 		added[j] = true
 		for r, i := range cols {
-			g := new(big.Int).Mul(big.NewInt(k), big.NewInt(int64(n.vertices[j][i])))
+			g := new(big.Int).Mul(big.NewInt(k), big.NewInt(int64(n.points[j][i])))
 			col[r] = new(big.Rat).SetInt(g.Sub(g, sum[i]))
 		}
 		t.addColumn(col, zero)
@@ -156,7 +157,7 @@ func (n *Newton) NormalConeMin(ctx context.Context, f *Face, tau, c []*big.Rat) 
 			b.Add(b, new(big.Rat).Mul(y[i], new(big.Rat).SetInt(sum[i])))
 		}
 		b.Quo(b, big.NewRat(k, 1))
-		viol := pr.price(n.vertices, y, b, 2*m)
+		viol := pr.price(n.points, y, b, 2*m)
 		if len(viol) == 0 {
 			break
 		}

@@ -136,6 +136,25 @@ func shoot(pts [][]int, x0, tau []*big.Rat) *shot {
 	return res
 }
 
+// shoot solves the ray-shooting LP from x0 along tau over the vertices
+// when they are known (fewer columns to price) and over all points
+// otherwise; either way the indices in the result refer to Points().
+func (n *Newton) shoot(x0, tau []*big.Rat) *shot {
+	if !n.vertsDone.Load() {
+		return shoot(n.points, x0, tau)
+	}
+	s := shoot(n.vertices, x0, tau)
+	w := make(map[int]*big.Rat, len(s.weights))
+	for k, v := range s.weights {
+		w[n.vertexIdx[k]] = v
+	}
+	s.weights = w
+	for i, k := range s.tight {
+		s.tight[i] = n.vertexIdx[k]
+	}
+	return s
+}
+
 // pricer evaluates a·v − b over all points exactly.
 type pricer struct {
 	tight []int

@@ -54,7 +54,7 @@ const (
 // Every answer is exact. The number of pricing passes is at most about two
 // per vertex, so the work is about one small LP over known vertices per
 // minimal point.
-func vertexFilter(d int, pts [][]int, ctx context.Context, st *vertexStats) ([][]int, error) {
+func vertexFilter(ctx context.Context, d int, pts [][]int, st *vertexStats) ([][]int, error) {
 	vf := &vfilter{d: d, pts: pts, st: st, words: (d + 63) / 64}
 	vf.supp = make([][]uint64, len(pts))
 	for k, p := range pts {

@@ -63,13 +63,13 @@ func checkVerticesByLP(t *testing.T, name string, d int, points [][]int) {
 		t.Fatal(err)
 	}
 	var want [][]int
-	for _, p := range n.Minimal() {
-		if isVertexByLP(p, n.Minimal()) {
+	for _, p := range mustMinimal(t, n) {
+		if isVertexByLP(p, mustMinimal(t, n)) {
 			want = append(want, p)
 		}
 	}
-	if !slices.EqualFunc(n.Vertices(), want, slices.Equal) {
-		t.Errorf("%s: vertices %v, the LP by definition gives %v", name, n.Vertices(), want)
+	if !slices.EqualFunc(mustVertices(t, n), want, slices.Equal) {
+		t.Errorf("%s: vertices %v, the LP by definition gives %v", name, mustVertices(t, n), want)
 	}
 }
 
@@ -114,8 +114,8 @@ func TestVerticesDegree(t *testing.T) {
 			if err != nil {
 				t.Fatal(err)
 			}
-			if len(n.Minimal()) != len(in.Points) {
-				t.Errorf("%d minimal points, want all %d", len(n.Minimal()), len(in.Points))
+			if len(mustMinimal(t, n)) != len(in.Points) {
+				t.Errorf("%d minimal points, want all %d", len(mustMinimal(t, n)), len(in.Points))
 			}
 			var want [][]int
 			for i := tc.d - 1; i >= 0; i-- { // lexicographic order
@@ -123,8 +123,8 @@ func TestVerticesDegree(t *testing.T) {
 				v[i] = tc.deg
 				want = append(want, v)
 			}
-			if !slices.EqualFunc(n.Vertices(), want, slices.Equal) {
-				t.Errorf("vertices %v, want %v", n.Vertices(), want)
+			if !slices.EqualFunc(mustVertices(t, n), want, slices.Equal) {
+				t.Errorf("vertices %v, want %v", mustVertices(t, n), want)
 			}
 		})
 	}
@@ -178,7 +178,11 @@ func TestVertexFilterContext(t *testing.T) {
 	ctx, cancel := context.WithCancel(context.Background())
 	cancel()
 	in := instances.Degree(6, 6)
-	if _, err := NewWithLimits(in.D, in.Points, Limits{Context: ctx}); !errors.Is(err, context.Canceled) {
+	n, err := New(in.D, in.Points)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if _, err := n.Vertices(ctx); !errors.Is(err, context.Canceled) {
 		t.Errorf("err = %v, want context.Canceled", err)
 	}
 }

@@ -224,9 +224,6 @@ func Bound(ctx context.Context, p *Problem, opt *Options) (*Result, error) {
 		}
 	}
 	lim := opt.Limits
-	if lim.Context == nil {
-		lim.Context = ctx
-	}
 	if lim.MaxFaces == 0 {
 		lim.MaxFaces = opt.maxFaces()
 	}
@@ -239,7 +236,7 @@ func Bound(ctx context.Context, p *Problem, opt *Options) (*Result, error) {
 		res.scale, res.Form = 2, "sum-of-squares"
 	}
 	an := newAnalysis(res, polys, sos, opt)
-	hit, err := newton.Distance(tau)
+	hit, err := newton.Distance(ctx, tau)
 	if err != nil {
 		return nil, err
 	}

@@ -7,7 +7,7 @@ import (
 )
 
 // stopped returns nil while ctx (possibly nil) is live, and an error
-// wrapping ctx.Err() once it is done; see Options.Context.
+// wrapping ctx.Err() once it is done.
 func stopped(ctx context.Context) error {
 	if ctx == nil {
 		return nil

@@ -103,14 +103,21 @@ func (an *analysis) certify(ctx context.Context, principal *polyhedron.Face) err
 	an.res.Certificate = cert
 	s := &search{an: an, ctx: ctx, cert: cert, principal: principal, seen: map[string]bool{}, queued: map[string]bool{}}
 	if !an.sos {
-		if err := an.checkVertexSigns(); err != nil {
-			return err
+		if err := an.checkVertexSigns(ctx); err != nil {
+			if !isStop(err) {
+				return err
+			}
+			if err := s.interrupted(err); err != nil {
+				return err
+			}
 		}
 	}
 	var err error
-	if an.opt.AllFaces {
+	switch {
+	case s.done:
+	case an.opt.AllFaces:
 		err = s.allFaces()
-	} else {
+	default:
 		err = s.run()
 	}
 	if err != nil {
@@ -125,7 +132,10 @@ func (an *analysis) certify(ctx context.Context, principal *polyhedron.Face) err
 // dimension first.
 func (s *search) run() error {
 	an := s.an
-	unsafe, ok := an.unsafePoints()
+	unsafe, ok, err := an.unsafePoints(s.ctx)
+	if err != nil {
+		return s.interrupted(err)
+	}
 	s.cert.Unsafe = len(unsafe)
 	// The principal face is examined first (one face, and it often
 	// settles the status); the faces above it are climbed only when it
@@ -178,7 +188,7 @@ func (s *search) run() error {
 // status never depends on the option.
 func (s *search) allFaces() error {
 	an := s.an
-	lattice, err := an.res.newton.CompactFaces()
+	lattice, err := an.res.newton.CompactFaces(s.ctx)
 	if err != nil {
 		if isStop(err) {
 			return s.interrupted(err)
@@ -187,7 +197,10 @@ func (s *search) allFaces() error {
 		an.opt = &Options{MaxFaces: an.opt.MaxFaces, Limits: an.opt.Limits}
 		return s.run()
 	}
-	unsafe, _ := an.unsafePoints()
+	unsafe, _, err := an.unsafePoints(s.ctx)
+	if err != nil {
+		return s.interrupted(err)
+	}
 	s.cert.Unsafe = len(unsafe)
 	for _, f := range lattice.Faces {
 		if err := s.check(); err != nil {
@@ -252,8 +265,11 @@ func (s *search) visit(f *polyhedron.Face, climb bool) error {
 		return err
 	}
 	s.seen[key] = true
-	fr, err := s.an.examine(f)
+	fr, err := s.an.examine(s.ctx, f)
 	if err != nil {
+		if isStop(err) {
+			return s.interrupted(err)
+		}
 		return err
 	}
 	fr.Principal = f.Equal(s.principal)
@@ -313,10 +329,14 @@ func (s *search) finish() {
 // examine decides one compact face: it first looks for a torus point where
 // the face polynomial is negative (polynomial form), which makes K negative
 // near the point and is an error, then applies the rules.
-func (an *analysis) examine(f *polyhedron.Face) (*FaceReport, error) {
+func (an *analysis) examine(ctx context.Context, f *polyhedron.Face) (*FaceReport, error) {
 	parts := an.parts(f)
 	fr := an.report(f, parts)
-	if !an.res.newton.Exposes(f) || !f.Compact() {
+	exposes, err := an.res.newton.Exposes(ctx, f)
+	if err != nil {
+		return nil, err
+	}
+	if !exposes || !f.Compact() {
 		// The face polynomials are read off with the face's normal; if
 		// that normal does not cut out exactly this face, no verdict
 		// built on them can be trusted.
@@ -324,7 +344,7 @@ func (an *analysis) examine(f *polyhedron.Face) (*FaceReport, error) {
 		fr.Reason = "internal check failed: the face's normal does not expose exactly its vertices"
 		return &fr, nil
 	}
-	fc := &faceCase{face: f, parts: parts, sos: an.sos, vars: an.vars, verts: an.res.newton.Vertices()}
+	fc := &faceCase{face: f, parts: parts, sos: an.sos, vars: an.vars, verts: an.res.newton.Points()}
 	if !an.sos {
 		if neg := negativePoint(fc); neg != nil {
 			return nil, fmt.Errorf("%w: the face polynomial %s of the face with vertices %s is %s at %s, so K is negative along w_i = s^{a_i}·(that point) for small s > 0, with a = (%s) the face's normal",
@@ -341,7 +361,7 @@ func (an *analysis) examine(f *polyhedron.Face) (*FaceReport, error) {
 // an odd exponent (or a negative coefficient) makes K negative arbitrarily
 // close to the point. Only unsafe terms are looked up, so this costs
 // nothing for a K whose terms are all even-positive.
-func (an *analysis) checkVertexSigns() error {
+func (an *analysis) checkVertexSigns(ctx context.Context) error {
 	var unsafe []monomial.Exponent
 	for e, c := range an.polys[0].All() {
 		if c.Sign() < 0 || !allEven(e) {
@@ -351,7 +371,10 @@ func (an *analysis) checkVertexSigns() error {
 	if len(unsafe) == 0 {
 		return nil
 	}
-	verts := an.res.newton.Vertices()
+	verts, err := an.res.newton.Vertices(ctx)
+	if err != nil {
+		return err
+	}
 	isVertex := make(map[string]bool, len(verts))
 	for _, v := range verts {
 		isVertex[intsKey(v)] = true
@@ -386,7 +409,7 @@ func (u unsafePoint) point() []*big.Rat { return ratVector(u.sum, u.den) }
 // unsafePoints returns the points that can make a face polynomial vanish
 // on the torus (see Certificate), restricted to those that could lie on a
 // compact face; ok is false when there are more than maxUnsafe.
-func (an *analysis) unsafePoints() (pts []unsafePoint, ok bool) {
+func (an *analysis) unsafePoints(ctx context.Context) (pts []unsafePoint, ok bool, err error) {
 	// A point of a compact face dominates no other point of P, so an unsafe
 	// term must be Pareto-minimal, and so must both ends of a midpoint. The
 	// minimal points are looked up only when there is a candidate.
@@ -394,7 +417,11 @@ func (an *analysis) unsafePoints() (pts []unsafePoint, ok bool) {
 	isMinimal := func(e []int) bool {
 		if minimal == nil {
 			minimal = map[string]bool{}
-			for _, m := range an.res.newton.Minimal() {
+			var ms [][]int
+			if ms, err = an.res.newton.Minimal(ctx); err != nil {
+				return false
+			}
+			for _, m := range ms {
 				minimal[intsKey(m)] = true
 			}
 		}
@@ -406,11 +433,11 @@ func (an *analysis) unsafePoints() (pts []unsafePoint, ok bool) {
 				continue
 			}
 			if len(pts) >= maxUnsafe {
-				return pts, false
+				return pts, false, err
 			}
 			pts = append(pts, unsafePoint{[]int(e), 1})
 		}
-		return pts, true
+		return pts, true, err
 	}
 	seen := map[string]bool{}
 	sum := make([]int, len(an.vars))
@@ -434,14 +461,14 @@ func (an *analysis) unsafePoints() (pts []unsafePoint, ok bool) {
 					continue
 				}
 				if len(pts) >= maxUnsafe {
-					return pts, false
+					return pts, false, err
 				}
 				seen[key] = true
 				pts = append(pts, unsafePoint{slices.Clone(sum), 2})
 			}
 		}
 	}
-	return pts, true
+	return pts, true, err
 }
 
 // ratVector returns e/den as rationals.

@@ -92,18 +92,21 @@ func Describe(ctx context.Context, p *Problem, opt *Options) (*Description, erro
 			polys[i] = q.Translate(res.Point)
 		}
 	}
-	facets, err := res.newton.Facets()
+	facets, err := res.newton.Facets(ctx)
 	if err != nil {
 		return nil, fmt.Errorf("listing the facets of the Newton polyhedron: %w", err)
 	}
 	d := &Description{Result: res}
 	scale := res.scale
-	verts := res.newton.Vertices()
+	verts, err := res.newton.Vertices(ctx)
+	if err != nil {
+		return nil, err
+	}
 	for _, v := range verts {
 		d.Vertices = append(d.Vertices, vertexReport(res.Vars, polys, v, p.Generators != nil, scale))
 	}
 	for _, f := range facets {
-		d.Facets = append(d.Facets, facetReport(res.Vars, verts, f, scale))
+		d.Facets = append(d.Facets, facetReport(res.Vars, res.newton.Points(), f, scale))
 	}
 	d.Support = scaledSupport(polys, scale)
 	for _, w := range res.Weights {

@@ -79,14 +79,14 @@ type faceCase struct {
 	parts []*monomial.Poly // K's part, or each generator's part
 	sos   bool
 	vars  []string
-	verts [][]int // the vertices of the base polyhedron
+	verts [][]int // the points of the base polyhedron (Newton.Points), indexed by face.Vertices
 }
 
 // report describes face f of the base polyhedron in P(K) coordinates, with
 // the face polynomial printed from parts (nil: computed here).
 func (an *analysis) report(f *polyhedron.Face, parts []*monomial.Poly) FaceReport {
 	d := len(an.vars)
-	verts := an.res.newton.Vertices()
+	verts := an.res.newton.Points()
 	fr := FaceReport{Dim: f.Dim, Codim: f.Codim(d), Compact: f.Compact(), Normal: f.Normal}
 	fr.RHS = new(big.Int).Mul(f.RHS, big.NewInt(int64(an.res.scale)))
 	for _, j := range f.Vertices {
