@@ -288,7 +288,11 @@ func numberCoef(s string) coef {
 func (b *termBuf) add(fac []varPower, c coef, neg bool) bool {
 	at := len(b.facs)
 	if len(fac) > cap(b.facs)-at {
-		b.facs = slices.Grow(b.facs, max(len(fac), cap(b.facs))) // doubling
+		// Double by hand: slices.Grow would zero and copy a temporary of
+		// the same size as well, which dominates the cost of long sums.
+		grown := make([]uint64, at, max(2*cap(b.facs), at+len(fac), 64))
+		copy(grown, b.facs)
+		b.facs = grown
 	}
 	for _, f := range fac {
 		if f.e > 0 {
@@ -325,10 +329,6 @@ func (b *termBuf) add(fac []varPower, c coef, neg bool) bool {
 	}
 	if neg {
 		c = c.neg()
-	}
-	if len(b.coefs) == cap(b.coefs) {
-		b.coefs = slices.Grow(b.coefs, max(1, cap(b.coefs)))
-		b.starts = slices.Grow(b.starts, max(1, cap(b.starts)))
 	}
 	b.starts = append(b.starts, at)
 	b.coefs = append(b.coefs, c)
