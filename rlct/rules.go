@@ -46,6 +46,16 @@ const (
 	// univariate; a real root of p (of the gcd of the p_i in sum-of-squares
 	// form) was sought exactly with Sturm sequences.
 	RuleEdge = "edge-sturm"
+	// RuleSplit: the face polynomial is a sum of parts in disjoint sets of
+	// variables, each decided exactly (relies on K ≥ 0 in polynomial form).
+	RuleSplit = "split-variables"
+	// RuleQuadratic: the face polynomial is a quadratic form in monomials,
+	// decided by an exact symmetric elimination over Q.
+	RuleQuadratic = "quadratic-form"
+	// RulePlane: on a 2-dimensional face the polynomial is, after a
+	// unimodular monomial change, a polynomial in two variables whose
+	// torus zeros were sought exactly (discriminant, Sturm sequences).
+	RulePlane = "plane-decomposition"
 	// RuleNone: no rule applies; the face is Undetermined.
 	RuleNone = "none"
 )
@@ -56,6 +66,9 @@ var faceRules = []faceRule{
 	evenPositiveRule,
 	generatorRule,
 	edgeRule,
+	splitRule,
+	quadraticRule,
+	planeRule,
 }
 
 // decideFace applies the rules in order and fills in the verdict of fr.
