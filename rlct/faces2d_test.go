@@ -210,7 +210,11 @@ func TestQuadraticFaceEndToEnd(t *testing.T) {
 		status Status
 		rule   string
 	}{
-		{Spec{K: "x^2 + x*y + y^2 + z^2"}, "3/2", Exact, RuleQuadratic},
+		// The face splits into x² + xy + y² and z², each without torus zero.
+		{Spec{K: "x^2 + x*y + y^2 + z^2"}, "3/2", Exact, RuleSplit},
+		// [[1, 1/2, 0], [1/2, 1, 1/2], [0, 1/2, 1]]: pivots 1, 3/4, 2/3 (hand),
+		// positive definite, so λ = 3/2 as above.
+		{Spec{K: "x^2 + x*y + y^2 + y*z + z^2"}, "3/2", Exact, RuleQuadratic},
 		{Spec{SOS: []string{"x + y", "x - y + z", "z"}}, "3/2", Exact, ""},
 		// (x − y)² + z⁴: λ ≤ 1/t = 3/4? The plain Newton value is 5/4 with
 		// a degenerate edge (x − y)²: upper bound (issue 13).
