@@ -34,6 +34,29 @@ const maxBisections = 4000
 type realAlg struct {
 	m      upoly
 	lo, hi *big.Rat
+	seq    []upoly // the Sturm sequence of m, or nil when m changed
+}
+
+// mRootsIn returns the number of roots of m in (lo, hi], as rootsIn does,
+// with the Sturm sequence of m computed once per m.
+func (a *realAlg) mRootsIn(lo, hi *big.Rat) int {
+	if a.seq == nil || a.seq[0].deg() != a.m.deg() || !sameUpoly(a.seq[0], a.m) {
+		a.seq = sturm(a.m)
+	}
+	return changesAt(a.seq, lo) - changesAt(a.seq, hi)
+}
+
+func sameUpoly(p, q upoly) bool {
+	p, q = p.trim(), q.trim()
+	if len(p) != len(q) {
+		return false
+	}
+	for k := range p {
+		if p[k].Cmp(q[k]) != 0 {
+			return false
+		}
+	}
+	return true
 }
 
 // newRealAlg returns α from a root of p isolated in iv (p non-constant).
@@ -44,7 +67,46 @@ func newRealAlg(p upoly, iv interval) *realAlg {
 	}
 	g := gcd(p, p.derivative())
 	sf, _ := p.divMod(g)
-	return &realAlg{m: sf.monic(), lo: new(big.Rat).Set(iv.Lo), hi: new(big.Rat).Set(iv.Hi)}
+	a := &realAlg{m: sf.monic(), lo: new(big.Rat).Set(iv.Lo), hi: new(big.Rat).Set(iv.Hi)}
+	// isolateRoots may return (lo, hi] with hi a neighbouring root already
+	// recorded (an interval that is open at hi): narrow it until it holds
+	// exactly one root, the one inside.
+	for range maxBisections {
+		if _, ok := a.rational(); ok || a.m.signAt(a.lo) != 0 {
+			break
+		}
+		// lo is a neighbouring root (allowed by isolateRoots): move it in.
+		mid := new(big.Rat).Add(a.lo, a.hi)
+		mid.Quo(mid, big.NewRat(2, 1))
+		if a.m.signAt(mid) == 0 && a.m.signAt(a.hi) != 0 && rootsIn(a.m, mid, a.hi) == 0 {
+			a.lo, a.hi = mid, new(big.Rat).Set(mid)
+			a.m = upoly{new(big.Rat).Neg(mid), big.NewRat(1, 1)}
+			break
+		}
+		if rootsIn(a.m, mid, a.hi) >= 1 {
+			a.lo = mid
+		} else {
+			a.hi = mid
+		}
+	}
+	for range maxBisections {
+		if _, ok := a.rational(); ok || a.m.signAt(a.hi) != 0 {
+			break
+		}
+		mid := new(big.Rat).Add(a.lo, a.hi)
+		mid.Quo(mid, big.NewRat(2, 1))
+		if a.m.signAt(mid) == 0 {
+			a.lo, a.hi = mid, new(big.Rat).Set(mid)
+			a.m = upoly{new(big.Rat).Neg(mid), big.NewRat(1, 1)}
+			break
+		}
+		if rootsIn(a.m, a.lo, mid) == 1 {
+			a.hi = mid
+		} else {
+			a.lo = mid
+		}
+	}
+	return a
 }
 
 // rational reports whether α is known to be rational, and its value.
@@ -77,7 +139,7 @@ func (a *realAlg) bisect() {
 		a.m = upoly{new(big.Rat).Neg(mid), big.NewRat(1, 1)}
 		return
 	}
-	if rootsIn(a.m, a.lo, mid) == 1 {
+	if a.mRootsIn(a.lo, mid) == 1 {
 		a.hi = mid
 	} else {
 		a.lo = mid

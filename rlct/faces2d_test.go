@@ -233,3 +233,21 @@ func TestQuadraticFaceEndToEnd(t *testing.T) {
 		}
 	}
 }
+
+// isolateRoots on s·(5s + 1)²: two distinct roots, −1/5 and 0 (hand). The
+// bisection meets 0 as a midpoint and then isolates −1/5 in an interval
+// open at 0; it must not report 0 twice.
+func TestIsolateRootsNextToExactRoot(t *testing.T) {
+	p := upoly{new(big.Rat), big.NewRat(1, 1), big.NewRat(10, 1), big.NewRat(25, 1)}
+	ivs := isolateRoots(p, big.NewRat(1, 1))
+	if len(ivs) != 2 {
+		t.Fatalf("%d intervals, want 2", len(ivs))
+	}
+	a := newRealAlg(p, ivs[0])
+	if !a.isZero(upoly{big.NewRat(1, 5), big.NewRat(1, 1)}) {
+		t.Fatalf("first root %s, want −1/5", a)
+	}
+	if r, ok := newRealAlg(p, ivs[1]).rational(); !ok || r.Sign() != 0 {
+		t.Fatalf("second root %v, want 0", ivs[1])
+	}
+}

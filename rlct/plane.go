@@ -94,8 +94,19 @@ func decidePlane(F *monomial.Poly) (torusDecision, string, bool) {
 	}
 	crit := mul(mul(mul(disc, q[len(q)-1]), q[0]), upoly{new(big.Rat), big.NewRat(1, 1)})
 	var roots []*realAlg
-	for _, iv := range isolateRoots(crit, big.NewRat(1, 1)) {
-		roots = append(roots, newRealAlg(crit, iv))
+	ivs := isolateRoots(crit, big.NewRat(1, 1))
+	if len(ivs) != countRealRoots(crit) {
+		return torusDecision{}, "", false
+	}
+	for i, iv := range ivs {
+		a := newRealAlg(crit, iv)
+		if i > 0 && roots[i-1].hi.Cmp(a.lo) > 0 {
+			return torusDecision{}, "", false // isolation not as documented
+		}
+		if _, ok := a.rational(); !ok && (a.m.signAt(a.lo) == 0 || a.m.signAt(a.hi) == 0 || rootsIn(a.m, a.lo, a.hi) != 1) {
+			return torusDecision{}, "", false // isolation not as documented
+		}
+		roots = append(roots, a)
 	}
 	// Step 3: one rational sample in each open interval.
 	var samples []*big.Rat
@@ -166,7 +177,7 @@ func rationalFiber(q bpoly, s0 *big.Rat) (*torusPoint, bool) {
 	if countRealRoots(f) == 0 {
 		return nil, false
 	}
-	iv := isolateRoots(f, big.NewRat(1, 1<<60))[0]
+	iv := isolateRoots(f, big.NewRat(1, 1<<44))[0]
 	if iv.exact() {
 		return &torusPoint{exact: []*big.Rat{s0, iv.Lo}, approx: []float64{ratFloat(s0), ratFloat(iv.Lo)}, note: fmt.Sprintf("s = %s, t = %s", s0.RatString(), iv.Lo.RatString())}, true
 	}
@@ -194,7 +205,7 @@ func algebraicFiber(q bpoly, a *realAlg) (bool, *torusPoint, error) {
 	if err != nil || n == 0 {
 		return false, nil, err
 	}
-	iv, err := a.isolateRealRootA(P, big.NewRat(1, 1<<60))
+	iv, err := a.isolateRealRootA(P, big.NewRat(1, 1<<44))
 	if err != nil {
 		return false, nil, err
 	}

@@ -248,7 +248,9 @@ func isolateRoots(p upoly, width *big.Rat) []interval {
 		if n == 1 && new(big.Rat).Sub(hi, lo).Cmp(width) <= 0 {
 			// A rational root is most likely the simplest rational in
 			// the interval; test it exactly.
-			if r := simplest(lo, hi); r.Cmp(lo) > 0 && sf.signAt(r) == 0 {
+			// In an open interval hi is a root already recorded and
+			// must not be taken again.
+			if r := simplest(lo, hi); r.Cmp(lo) > 0 && (!open || r.Cmp(hi) < 0) && sf.signAt(r) == 0 {
 				out = append(out, interval{r, r})
 				return
 			}
