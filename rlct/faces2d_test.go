@@ -199,10 +199,10 @@ func TestRealAlgebraic(t *testing.T) {
 }
 
 // End to end: the example x² + xy + y² + z² is exact with λ = 3/2
-// (hand: a positive definite quadratic form in d = 3 variables has the
-// Newton distance 2/… — its Newton polyhedron is the standard simplex
-// scaled by 2, distance t = 2/3, λ = 1/t = 3/2, θ = 1; common practice:
-// λ = d/2 for a non-degenerate quadratic of full rank).
+// (hand: its Newton polyhedron is the standard simplex scaled by 2 plus the
+// orthant, met by the diagonal at t = 2/3, so λ = 1/t = 3/2 once the
+// triangle is nondegenerate; common practice: λ = d/2 for a quadratic form
+// of full rank in d variables).
 func TestQuadraticFaceEndToEnd(t *testing.T) {
 	cases := []struct {
 		spec   Spec
