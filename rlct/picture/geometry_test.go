@@ -289,11 +289,18 @@ func TestFlaggedFaces(t *testing.T) {
 			rlct.Degenerate: {pts(2, 0, 2, 4, 0)},
 		}},
 		// (x − y)² + z⁴: the edge (2,0,0)–(0,2,0) has (x − y)², zero at
-		// x = y; the triangle with (0,0,4) has (x − y)² + z⁴, positive on
-		// the torus but beyond the rules, so undetermined.
+		// x = y; the triangle with (0,0,4) has (x − y)² + z⁴, whose parts
+		// in disjoint variables have no common torus zero, so it is
+		// nondegenerate (the split rule) and not flagged.
 		{rlct.Spec{K: "(x - y)^2 + z^4"}, map[rlct.FaceVerdict][][][]int64{
-			rlct.Degenerate:   {pts(3, 2, 0, 0, 0, 2, 0)},
-			rlct.Undetermined: {pts(3, 2, 0, 0, 0, 2, 0, 0, 0, 4)},
+			rlct.Degenerate: {pts(3, 2, 0, 0, 0, 2, 0)},
+		}},
+		// x²⁶ + y²⁶ + z²⁶ − x¹³y⁷z⁶: positive on the torus (weighted
+		// AM–GM with weights 13/26, 7/26, 6/26 bounds the last term by
+		// x²⁶/2 + 7y²⁶/26 + 6z²⁶/26), but its triangle is beyond the
+		// degree limits of the plane rule, so undetermined.
+		{rlct.Spec{K: "x^26 + y^26 + z^26 - x^13*y^7*z^6"}, map[rlct.FaceVerdict][][][]int64{
+			rlct.Undetermined: {pts(3, 26, 0, 0, 0, 26, 0, 0, 0, 26)},
 		}},
 		// x⁴ + y⁶: nothing to mark.
 		{rlct.Spec{K: "x^4 + y^6"}, nil},
@@ -486,7 +493,7 @@ func TestMalformed(t *testing.T) {
 				}
 			}
 		}, ErrMalformed},
-		{"no facet for a flagged triangle", rlct.Spec{K: "(x - y)^2 + z^4"}, func(d *rlct.Description) {
+		{"no facet for a flagged triangle", rlct.Spec{K: "x^26 + y^26 + z^26 - x^13*y^7*z^6"}, func(d *rlct.Description) {
 			d.Facets = slices.DeleteFunc(d.Facets, func(f rlct.FacetReport) bool { return len(f.Rays) == 0 })
 		}, ErrMalformed},
 	}

@@ -221,13 +221,25 @@ var pictureCases = []struct {
 		principal: "vertex",
 	},
 	{
-		// (x − y)² + z⁴: a degenerate edge and an undetermined triangle,
-		// which is principal: 2x + 2y + z = 4 is met at t = 4/5.
+		// (x − y)² + z⁴: a degenerate edge on the principal triangle
+		// (2x + 2y + z = 4 is met at t = 4/5); the triangle itself is
+		// nondegenerate (split into parts in disjoint variables).
 		name:      "flagged",
 		spec:      rlct.Spec{K: "(x - y)^2 + z^4"},
 		vertices:  []string{"z⁴", "y²", "x²"},
 		result:    []string{"λ = 5/4", "θ = 1", "upper bound"},
-		classes:   []string{"degenerate", "undetermined"},
+		classes:   []string{"degenerate"},
+		axisNames: []string{"x", "y", "z"},
+		principal: "polygon:3:3",
+	},
+	{
+		// x²⁶ + y²⁶ + z²⁶ − x¹³y⁷z⁶: an undetermined principal triangle
+		// (x + y + z = 26 is met at t = 26/3).
+		name:      "undetermined",
+		spec:      rlct.Spec{K: "x^26 + y^26 + z^26 - x^13*y^7*z^6"},
+		vertices:  []string{"z²⁶", "y²⁶", "x²⁶"},
+		result:    []string{"λ = 3/26", "θ = 1", "upper bound"},
+		classes:   []string{"undetermined"},
 		axisNames: []string{"x", "y", "z"},
 		principal: "polygon:3:3",
 	},
@@ -418,7 +430,8 @@ func TestFlaggedMarks(t *testing.T) {
 		undetermined []string
 	}{
 		{rlct.Spec{K: "(y - x^2)^2"}, []string{"line"}, nil},
-		{rlct.Spec{K: "(x - y)^2 + z^4"}, []string{"line"}, []string{"polygon"}},
+		{rlct.Spec{K: "(x - y)^2 + z^4"}, []string{"line"}, nil},
+		{rlct.Spec{K: "x^26 + y^26 + z^26 - x^13*y^7*z^6"}, nil, []string{"polygon"}},
 		{rlct.Spec{K: "x^4 + y^6"}, nil, nil},
 	}
 	for _, tt := range tests {
