@@ -6,16 +6,15 @@ import (
 	"math"
 	"math/big"
 	"slices"
-	"strings"
 )
 
 // Config controls Parse and ParseList.
 type Config struct {
 	// Vars lists variables that come first in the variable list of the
 	// result, in this order. It may include variables absent from the text.
-	// The remaining identifiers of the text follow in natural order: text
-	// is compared piecewise, runs of letters and underscores as text and
-	// runs of digits as numbers, so w2 < w10 < x < x1 < x2.
+	// The remaining identifiers of the text follow in the order of their
+	// first appearance, so "y^2 + x^4" has the variables y, x: the order
+	// the writer chose.
 	Vars []string
 	// Order, if > 0, asks for an expansion around 0 (or around At) that is
 	// exact up to total degree Order: the parts of the expression that are
@@ -183,7 +182,7 @@ func Parse(src string, cfg Config) (*Expansion, error) {
 
 // ParseList reads several expressions separated by ';' or by newlines,
 // sharing one variable list (cfg.Vars followed by the other identifiers of
-// the whole text in natural order). A newline separates expressions only
+// the whole text in the order of their first appearance). A newline separates expressions only
 // outside parentheses and after a token that can end an expression (a
 // number, an identifier or ')'), so an expression can continue on the next
 // line after an operator or inside parentheses. Empty expressions are
@@ -275,9 +274,8 @@ func newSession(src string, cfg Config, list bool) (*session, error) {
 		s.index[v] = len(s.vars)
 		s.vars = append(s.vars, v)
 	}
-	// Find the other variables. Each identifier token gets a provisional
-	// index: its index in cfg.Vars, or len(cfg.Vars)+k for rest[k].
-	var rest []string
+	// Find the other variables, in the order of their first appearance,
+	// and the variable index of each identifier token.
 	var seen nameTable
 	for i, v := range s.vars {
 		seen.put(v, int32(i))
@@ -294,34 +292,18 @@ func newSession(src string, cfg Config, list bool) (*session, error) {
 		if !ok {
 			id = -1
 			if !isFunction(name) {
-				id = int32(len(s.vars) + len(rest))
-				rest = append(rest, name)
-				if len(s.vars)+len(rest) > lim.MaxVars {
+				if len(s.vars) >= lim.MaxVars {
 					e := errAtTok(t, "more than %d variables, the limit", lim.MaxVars)
 					e.Setting = "MaxVars"
 					return nil, e
 				}
+				id = int32(len(s.vars))
+				s.index[name] = len(s.vars)
+				s.vars = append(s.vars, name)
 			}
 			seen.put(name, id)
 		}
 		ids = append(ids, id)
-	}
-	final := make([]int32, len(rest)) // final index of rest[k]
-	order := make([]int, len(rest))
-	for k := range order {
-		order[k] = k
-	}
-	slices.SortFunc(order, func(a, b int) int { return NaturalCompare(rest[a], rest[b]) })
-	for _, k := range order {
-		final[k] = int32(len(s.vars))
-		s.index[rest[k]] = len(s.vars)
-		s.vars = append(s.vars, rest[k])
-	}
-	nv := int32(len(cfg.Vars))
-	for i, id := range ids {
-		if id >= nv {
-			ids[i] = final[id-nv]
-		}
 	}
 	s.idents = ids
 	if err := s.setPoint(cfg.At); err != nil {
@@ -432,53 +414,6 @@ func (t *nameTable) put(name string, val int32) {
 	}
 	t.slots[h] = nameSlot{name, val, true}
 	t.n++
-}
-
-// NaturalCompare compares two names in natural order: runs of digits are
-// compared by numeric value and other text character by character, so
-// "w2" < "w10". Names equal in this order (like "x01" and "x1") are
-// ordered as plain strings. It returns -1, 0 or +1.
-func NaturalCompare(a, b string) int {
-	i, j := 0, 0
-	for i < len(a) && j < len(b) {
-		ca, cb := a[i], b[j]
-		if isDigit(rune(ca)) && isDigit(rune(cb)) {
-			si, sj := i, j
-			for i < len(a) && isDigit(rune(a[i])) {
-				i++
-			}
-			for j < len(b) && isDigit(rune(b[j])) {
-				j++
-			}
-			da := strings.TrimLeft(a[si:i], "0")
-			db := strings.TrimLeft(b[sj:j], "0")
-			if len(da) != len(db) {
-				if len(da) < len(db) {
-					return -1
-				}
-				return 1
-			}
-			if c := strings.Compare(da, db); c != 0 {
-				return c
-			}
-			continue
-		}
-		if ca != cb {
-			if ca < cb {
-				return -1
-			}
-			return 1
-		}
-		i++
-		j++
-	}
-	switch {
-	case len(a)-i < len(b)-j:
-		return -1
-	case len(a)-i > len(b)-j:
-		return 1
-	}
-	return strings.Compare(a, b)
 }
 
 func (s *session) errAt(t token, format string, args ...any) *Error {

@@ -27,7 +27,7 @@ func ExampleBound() {
 
 // A degenerate divergence gives only an upper bound, with the reason.
 func ExampleBound_degenerate() {
-	ex, _ := monomial.Parse("(y - x^2)^2", monomial.Config{})
+	ex, _ := monomial.Parse("(x^2 - y)^2", monomial.Config{})
 	r, _ := rlct.Bound(context.Background(), &rlct.Problem{K: ex.Poly}, nil)
 	fmt.Println(r.Lambda.RatString(), r.Theta, r.Status)
 	fmt.Println(r.Reasons[0])

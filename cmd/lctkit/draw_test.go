@@ -20,8 +20,9 @@ var drawCases = []struct {
 	// t = 12/5, so λ = 5/12, θ = 1, exact (Howald 2001, Trans. AMS 353,
 	// halved for squares).
 	{"x4y6", []string{"x^4 + y^6"}, "K = x^4 + y^6", "λ = 5/12\u2003\u2003θ = 1\u2003\u2003exact"},
-	// (y − x²)²: the edge (0,2)–(4,0) on x + 2y = 4 is degenerate, so 3/4
-	// is only an upper bound (by hand; the true λ is 1/2, common practice).
+	// (y − x²)², drawn in (y, x), the order in which the variables first
+	// appear: the edge (2,0)–(0,4) on 2y + x = 4 is degenerate, so 3/4 is
+	// only an upper bound (by hand; the true λ is 1/2, common practice).
 	{"degenerate", []string{"(y - x^2)^2"}, "K = (y - x^2)^2", "λ = 3/4\u2003\u2003θ = 1\u2003\u2003upper bound"},
 	// x²y² + z²: λ = 1/2 + 1/2 = 1, θ = 2 + 1 − 1 = 2 (common practice:
 	// over separate variables λ adds and θ adds minus one).

@@ -15,7 +15,7 @@ type expandCmd struct {
 	Expr  string `arg:"" help:"The expression, or - to read it from standard input."`
 	Order int    `help:"Truncate power series at this total degree (needed for exp, log, sin, … and division by non-constants)." placeholder:"D"`
 	At    string `help:"Translate to this point first: the result is a polynomial in w − w*." placeholder:"x=1/2,y=0"`
-	Vars  string `help:"Variables that come first, in this order (others follow in natural order)." placeholder:"x,y,z"`
+	Vars  string `help:"Variables that come first, in this order (the others follow in the order they first appear)." placeholder:"x,y,z"`
 	JSON  bool   `help:"Print one JSON object."`
 }
 

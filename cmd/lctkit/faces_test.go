@@ -34,9 +34,9 @@ func TestFacesText(t *testing.T) {
 			},
 		},
 		{
-			// (y − x²)²: the edge (0,2)–(4,0) is degenerate, vanishing where
-			// y = x², so 3/4 is only an upper bound (by hand).
-			[]string{"(y - x^2)^2"},
+			// (y − x²)² in (x, y): the edge (0,2)–(4,0) is degenerate,
+			// vanishing where y = x², so 3/4 is only an upper bound (by hand).
+			[]string{"(y - x^2)^2", "--vars", "x,y"},
 			[]string{
 				"λ = 3/4 θ = 1 (upper bound)",
 				"x + 2*y >= 4 compact vertices (0,2) (4,0)",

@@ -191,7 +191,7 @@ func checkSidesJoinCorners(t *testing.T, sh *shape) {
 // permutations of (0,2,4), all on x + y + z = 6, a regular hexagon whose
 // neighbours differ by moving 2 between two coordinates (by hand).
 func TestCompactFacetOrder(t *testing.T) {
-	sc := sceneOf(t, rlct.Spec{K: "y^2*z^4 + y^4*z^2 + x^2*z^4 + x^4*z^2 + x^2*y^4 + x^4*y^2"})
+	sc := sceneOf(t, rlct.Spec{K: "y^2*z^4 + y^4*z^2 + x^2*z^4 + x^4*z^2 + x^2*y^4 + x^4*y^2", Vars: []string{"x", "y", "z"}})
 	around := pts(3, 0, 2, 4, 2, 0, 4, 4, 0, 2, 4, 2, 0, 2, 4, 0, 0, 4, 2)
 	got := shapeOf(t, sc, "x + y + z >= 6").corners
 	if !cyclicallyEqual(got, around) && !cyclicallyEqual(got, reversed(around)) {
@@ -285,7 +285,7 @@ func TestFlaggedFaces(t *testing.T) {
 	}{
 		// (y − x²)²: the edge (0,2)–(4,0) has the face polynomial
 		// (y − x²)², zero at x = y = 1.
-		{rlct.Spec{K: "(y - x^2)^2"}, map[rlct.FaceVerdict][][][]int64{
+		{rlct.Spec{K: "(y - x^2)^2", Vars: []string{"x", "y"}}, map[rlct.FaceVerdict][][][]int64{
 			rlct.Degenerate: {pts(2, 0, 2, 4, 0)},
 		}},
 		// (x − y)² + z⁴: the edge (2,0,0)–(0,2,0) has (x − y)², zero at

@@ -64,7 +64,7 @@ var pictureCases = []struct {
 		// (by hand); the true λ is 1/2 (y − x² is a coordinate, common
 		// practice).
 		name:      "degenerate",
-		spec:      rlct.Spec{K: "(y - x^2)^2"},
+		spec:      rlct.Spec{K: "(y - x^2)^2", Vars: []string{"x", "y"}},
 		vertices:  []string{"y²", "x⁴"},
 		result:    []string{"λ = 3/4", "θ = 1", "upper bound"},
 		caption:   []string{"(4/3, 4/3)", "Upper bound only", "degenerate"},
@@ -117,7 +117,7 @@ var pictureCases = []struct {
 		// its centre (2,2,2): λ = 1/2, θ = 1, exact (even exponents,
 		// positive coefficients; by hand).
 		name:      "hexagon",
-		spec:      rlct.Spec{K: "y^2*z^4 + y^4*z^2 + x^2*z^4 + x^4*z^2 + x^2*y^4 + x^4*y^2"},
+		spec:      rlct.Spec{K: "y^2*z^4 + y^4*z^2 + x^2*z^4 + x^4*z^2 + x^2*y^4 + x^4*y^2", Vars: []string{"x", "y", "z"}},
 		vertices:  []string{"y²z⁴", "y⁴z²", "x²z⁴", "x²y⁴", "x⁴z²", "x⁴y²"},
 		result:    []string{"λ = 1/2", "θ = 1", "exact"},
 		caption:   []string{"(2, 2, 2)"},
@@ -173,7 +173,7 @@ var pictureCases = []struct {
 		// at (1,1,1), λ = 1; only the edge and not a facet holds it, θ = 2
 		// (common practice: x²z² has λ = 1/2, θ = 2, and y² adds 1/2).
 		name:      "edge in space",
-		spec:      rlct.Spec{K: "x^2*z^2 + y^2"},
+		spec:      rlct.Spec{K: "x^2*z^2 + y^2", Vars: []string{"x", "y", "z"}},
 		vertices:  []string{"y²", "x²z²"},
 		result:    []string{"λ = 1", "θ = 2"},
 		axisNames: []string{"x", "y", "z"},
