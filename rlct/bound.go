@@ -5,7 +5,6 @@ import (
 	"fmt"
 	"math/big"
 
-	"github.com/lctkit/lctkit/monomial"
 	"github.com/lctkit/lctkit/polyhedron"
 )
 
@@ -35,40 +34,6 @@ const (
 // IsBound reports whether s certifies the pair as a bound on the true one
 // (Exact or UpperBound).
 func (s Status) IsBound() bool { return s == Exact || s == UpperBound }
-
-// Problem is one question: bound the learning coefficient of K at a point
-// under a locally monomial prior.
-type Problem struct {
-	// K is the function, for example a Kullback–Leibler divergence, or a
-	// function comparable to it near the point. Set K or Generators.
-	K *monomial.Poly
-
-	// Generators g_1, …, g_r stand for K = Σ g_i² (sum-of-squares form), or
-	// for any K comparable to it. Then P(K) = 2·P(⟨g_1, …, g_r⟩), and nothing
-	// is expanded. All generators must have the same variable list.
-	Generators []*monomial.Poly
-
-	// Order is the total degree at which K (or each generator) was
-	// truncated when it came from a power series; 0 when exact.
-	Order int
-
-	// Truncated reports that K (or a generator) differs from the true
-	// function by a power series whose terms all have total degree above
-	// Order (see monomial.Expansion).
-	Truncated bool
-
-	// Prior holds h_i for a prior density proportional to Π |w_i|^{h_i}
-	// times a smooth positive function, written in the coordinates of K
-	// (not in offsets from the point). At a point w*, the factor |w_i|^{h_i}
-	// contributes the exponent h_i where w*_i = 0 and is smooth and
-	// positive where w*_i ≠ 0, so it matters only in coordinates that
-	// vanish at the point (see Result.Weights). nil means uniform. Each h_i
-	// must exceed −1.
-	Prior []*big.Rat
-
-	// Point is w*, nil for the origin.
-	Point []*big.Rat
-}
 
 // DefaultMaxFaces is the default of Options.MaxFaces.
 const DefaultMaxFaces = 20000
@@ -111,6 +76,8 @@ type Result struct {
 	Status Status
 	// Reasons says why the status is not Exact (empty when it is).
 	Reasons []string
+	// Notes are remarks that change no value (see Local.Notes).
+	Notes []string
 	// Distance is t_τ of the Newton polyhedron of K.
 	Distance *big.Rat
 	// Vars names the variables in order.
@@ -136,8 +103,11 @@ type Result struct {
 	Faces []FaceReport
 	// Truncation is the check of a truncated series, nil when K is exact.
 	Truncation *TruncationReport
-	// Locals holds the answer at each point when several were given; the
-	// fields above are then those of the minimum over them.
+	// Locals holds the answer at each point when several were given, in
+	// the order of Problem.Points; the fields above are then those of the
+	// minimum over them, except Status and Reasons, which are those of the
+	// minimum as a bound on the learning coefficient of the whole problem
+	// (see Bound).
 	Locals []*Result
 
 	newton *polyhedron.Newton
@@ -152,17 +122,41 @@ func (r *Result) Newton() *polyhedron.Newton { return r.newton }
 // Scale is 1, or 2 in sum-of-squares form: P(K) = Scale·Newton().
 func (r *Result) Scale() int { return r.scale }
 
-// Bound computes the Newton-polyhedron value (λ, θ) of p at its point with a
-// certificate: status Exact when K is nondegenerate over the reals on every
-// compact face (Varchenko 1976), UpperBound when the value is only certified
-// to bound the truth, Uncertified when even that is unknown (a truncated
-// series); Result.Reasons says why.
+// Bound computes the Newton-polyhedron value (λ, θ) of p at each of its
+// points with a certificate: status Exact when K is nondegenerate over the
+// reals on every compact face (Varchenko 1976), UpperBound when the value is
+// only certified to bound the truth, Uncertified when even that is unknown
+// (a truncated series); Result.Reasons says why.
 //
-// ctx (nil means context.Background()) stops the work: when it is
-// cancelled, Bound returns an error wrapping ctx.Err(); when its deadline
-// passes while faces are being examined, the search ends like a reached
-// MaxFaces budget, with the value, status UpperBound and the reason.
+// With one point (or none: the origin) the result is the answer there.
+// With several it is the minimum over them in the order of Less, with every
+// point's answer in Locals, since the learning coefficient of the model is
+// the minimum over the points of the true set. The minimum is Exact only
+// when every point's answer is; it is an UpperBound when the point that
+// attains it is certified (Exact or UpperBound there), since the true
+// minimum is at most the true value there; otherwise it is Uncertified.
+//
+// Bound returns the errors of Problem.Locals, and for each point ErrZero,
+// ErrNotVanish or ErrNegative when K has no learning coefficient to bound
+// there; with several points the error names the point. ctx (nil means
+// context.Background()) stops the work: when it is cancelled, Bound returns
+// an error wrapping ctx.Err(); when its deadline passes while faces are
+// being examined, the search ends like a reached MaxFaces budget, with the
+// value, status UpperBound and the reason.
 func Bound(ctx context.Context, p *Problem, opt *Options) (*Result, error) {
+	results, _, err := boundEach(ctx, p, opt)
+	if err != nil {
+		return nil, err
+	}
+	if len(results) == 1 {
+		return results[0], nil
+	}
+	return minimum(results), nil
+}
+
+// boundEach bounds p at each of its points and returns the answers with
+// the problem at each point.
+func boundEach(ctx context.Context, p *Problem, opt *Options) ([]*Result, []*Local, error) {
 	if ctx == nil {
 		ctx = context.Background()
 	}
@@ -170,55 +164,32 @@ func Bound(ctx context.Context, p *Problem, opt *Options) (*Result, error) {
 		opt = &Options{}
 	}
 	if err := stopped(ctx); err != nil {
-		return nil, err
+		return nil, nil, err
 	}
-	vars, polys, err := p.forms()
+	locals, err := p.Locals()
 	if err != nil {
+		return nil, nil, err
+	}
+	results := make([]*Result, len(locals))
+	for k, l := range locals {
+		r, err := boundLocal(ctx, l, p.Order, p.Truncated, opt)
+		if err != nil {
+			return nil, nil, atPoint(k, len(locals), err)
+		}
+		results[k] = r
+	}
+	return results, locals, nil
+}
+
+// boundLocal bounds the problem at one point; order and truncated are
+// those of the Problem.
+func boundLocal(ctx context.Context, l *Local, order int, truncated bool, opt *Options) (*Result, error) {
+	if err := checkVanishing(l.Polys, l.SumOfSquares); err != nil {
 		return nil, err
 	}
-	d := len(vars)
-	if p.Prior != nil && len(p.Prior) != d {
-		return nil, fmt.Errorf("%w: prior has %d entries for %d variables", ErrDimension, len(p.Prior), d)
-	}
-	if p.Point != nil && len(p.Point) != d {
-		return nil, fmt.Errorf("%w: point has %d entries for %d variables", ErrDimension, len(p.Point), d)
-	}
-	prior := make([]*big.Rat, d)
-	point := make([]*big.Rat, d)
-	tau := make([]*big.Rat, d)
-	minusOne := big.NewRat(-1, 1)
-	for i := range d {
-		prior[i], point[i] = new(big.Rat), new(big.Rat)
-		if p.Prior != nil && p.Prior[i] != nil {
-			if p.Prior[i].Cmp(minusOne) <= 0 {
-				return nil, fmt.Errorf("%w: %s has exponent %s", ErrPrior, vars[i], p.Prior[i].RatString())
-			}
-			prior[i].Set(p.Prior[i])
-		}
-		if p.Point != nil && p.Point[i] != nil {
-			point[i].Set(p.Point[i])
-		}
-		// The prior factor |w_i|^{h_i} is written in K's coordinates: at a
-		// point with w*_i ≠ 0 it is smooth and positive (Problem.Prior).
-		tau[i] = big.NewRat(1, 1)
-		if point[i].Sign() == 0 {
-			tau[i].Add(tau[i], prior[i])
-		}
-	}
-	sos := p.Generators != nil
-	if p.Truncated && !isOrigin(point) {
-		return nil, ErrShiftSeries
-	}
-	if !isOrigin(point) {
-		for i, q := range polys {
-			polys[i] = q.Translate(point)
-		}
-	}
-	if err := checkVanishing(polys, sos); err != nil {
-		return nil, err
-	}
+	d := len(l.Vars)
 	var support [][]int
-	for _, q := range polys {
+	for _, q := range l.Polys {
 		for _, e := range q.Support() {
 			support = append(support, []int(e))
 		}
@@ -231,12 +202,13 @@ func Bound(ctx context.Context, p *Problem, opt *Options) (*Result, error) {
 	if err != nil {
 		return nil, err
 	}
-	res := &Result{Vars: vars, Prior: prior, Weights: tau, Point: point, newton: newton, scale: 1, Form: "polynomial"}
-	if sos {
+	res := &Result{Vars: l.Vars, Prior: l.Prior, Weights: l.Weights, Point: l.Point, Notes: l.Notes,
+		newton: newton, scale: 1, Form: "polynomial"}
+	if l.SumOfSquares {
 		res.scale, res.Form = 2, "sum-of-squares"
 	}
-	an := newAnalysis(res, polys, sos, opt)
-	hit, err := newton.Distance(ctx, tau)
+	an := newAnalysis(res, l.Polys, l.SumOfSquares, opt)
+	hit, err := newton.Distance(ctx, l.Weights)
 	if err != nil {
 		return nil, err
 	}
@@ -250,8 +222,8 @@ func Bound(ctx context.Context, p *Problem, opt *Options) (*Result, error) {
 	// change the compact faces, no face verdict would carry over to the
 	// full K, and the status is settled without deciding any face.
 	facesCarryOver := true
-	if p.Truncated {
-		res.Truncation, err = an.checkTruncation(ctx, p.Order, hit)
+	if truncated {
+		res.Truncation, err = an.checkTruncation(ctx, order, hit)
 		if err != nil {
 			return nil, err
 		}
@@ -272,78 +244,6 @@ func Bound(ctx context.Context, p *Problem, opt *Options) (*Result, error) {
 	return res, nil
 }
 
-// forms returns the variables and the polynomials to analyse (K alone, or
-// the generators), checking the shape of the problem.
-func (p *Problem) forms() ([]string, []*monomial.Poly, error) {
-	switch {
-	case p.K != nil && p.Generators != nil:
-		return nil, nil, ErrTwoForms
-	case p.K != nil:
-		if p.K.NumVars() == 0 {
-			return nil, nil, ErrNoVariables
-		}
-		return p.K.Vars(), []*monomial.Poly{p.K}, nil
-	case len(p.Generators) > 0:
-		vars := p.Generators[0].Vars()
-		if len(vars) == 0 {
-			return nil, nil, ErrNoVariables
-		}
-		out := make([]*monomial.Poly, len(p.Generators))
-		for i, g := range p.Generators {
-			if g == nil || !sameVars(vars, g.Vars()) {
-				return nil, nil, fmt.Errorf("%w (generator %d)", ErrVariables, i+1)
-			}
-			out[i] = g
-		}
-		return vars, out, nil
-	}
-	return nil, nil, ErrNoFunction
-}
-
-// checkVanishing checks that K (or every generator) is zero at the point,
-// after translation to it.
-func checkVanishing(polys []*monomial.Poly, sos bool) error {
-	allZero := true
-	for i, q := range polys {
-		if q.IsZero() {
-			continue
-		}
-		allZero = false
-		zero := make(monomial.Exponent, q.NumVars())
-		if c := q.Coefficient(zero); c.Sign() != 0 {
-			if sos {
-				return fmt.Errorf("%w: generator %d equals %s there", ErrNotVanish, i+1, c.RatString())
-			}
-			return fmt.Errorf("%w: K equals %s there", ErrNotVanish, c.RatString())
-		}
-	}
-	if allZero {
-		return ErrZero
-	}
-	return nil
-}
-
-func isOrigin(x []*big.Rat) bool {
-	for _, v := range x {
-		if v.Sign() != 0 {
-			return false
-		}
-	}
-	return true
-}
-
-func sameVars(a, b []string) bool {
-	if len(a) != len(b) {
-		return false
-	}
-	for i := range a {
-		if a[i] != b[i] {
-			return false
-		}
-	}
-	return true
-}
-
 // Less reports whether a is smaller than b in the order of learning
 // coefficients: a smaller λ, or an equal λ with a larger θ. The smaller pair
 // dominates the marginal likelihood asymptotically.
@@ -354,33 +254,10 @@ func Less(a, b *Result) bool {
 	return a.Theta > b.Theta
 }
 
-// BoundAt bounds the learning coefficient at each of several points and
-// returns the minimum (in the order of Less) with every local answer in
-// Locals; the learning coefficient of the model is the minimum over the
-// points of the true set. The minimum is Exact only when every local answer
-// is; it is an UpperBound when the point that attains it is certified
-// (Exact or UpperBound there), since the true minimum is at most the true
-// value there; otherwise it is Uncertified. p.Point is ignored.
-func BoundAt(ctx context.Context, p *Problem, points [][]*big.Rat, opt *Options) (*Result, error) {
-	if len(points) == 0 {
-		return Bound(ctx, p, opt)
-	}
-	var locals []*Result
-	for i, w := range points {
-		q := *p
-		q.Point = w
-		r, err := Bound(ctx, &q, opt)
-		if err != nil {
-			if len(points) > 1 {
-				return nil, fmt.Errorf("point %d: %w", i+1, err)
-			}
-			return nil, err
-		}
-		locals = append(locals, r)
-	}
-	if len(locals) == 1 {
-		return locals[0], nil
-	}
+// minimum returns the least of the answers at several points (in the order
+// of Less, the first of equal ones) with every answer in Locals, and the
+// status of the minimum as a bound on the whole problem (see Bound).
+func minimum(locals []*Result) *Result {
 	best := locals[0]
 	for _, r := range locals[1:] {
 		if Less(r, best) {
@@ -409,7 +286,7 @@ func BoundAt(ctx context.Context, p *Problem, points [][]*big.Rat, opt *Options)
 	default:
 		out.Status = Exact
 	}
-	return &out, nil
+	return &out
 }
 
 // Headline says in one sentence what the status of r claims, and for a

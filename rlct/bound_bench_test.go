@@ -104,7 +104,7 @@ func BenchmarkBound(b *testing.B) {
 	for _, c := range cases {
 		b.Run(c.name, func(b *testing.B) {
 			c.spec.Limits = monomial.Limits{MaxTerms: 10_000_000}
-			p, _, err := c.spec.Problem()
+			p, err := c.spec.Problem()
 			if err != nil {
 				b.Fatal(err)
 			}

@@ -61,11 +61,11 @@ func solve(t *testing.T, s *Spec) *Result {
 // solveWith is solve with options; it fails the test on any error.
 func solveWith(t *testing.T, s *Spec, opt *Options) *Result {
 	t.Helper()
-	p, points, err := s.Problem()
+	p, err := s.Problem()
 	if err != nil {
 		t.Fatalf("%+v: %v", s, err)
 	}
-	r, err := BoundAt(context.Background(), p, points, opt)
+	r, err := Bound(context.Background(), p, opt)
 	if err != nil {
 		t.Fatalf("%+v: %v", s, err)
 	}
@@ -158,9 +158,9 @@ func TestInvalidInput(t *testing.T) {
 		{Spec{K: "exp(x)-1", Order: 4, At: []string{"x=1"}}, nil, "cannot be moved"},
 	}
 	for _, tt := range tests {
-		p, points, err := tt.spec.Problem()
+		p, err := tt.spec.Problem()
 		if err == nil {
-			_, err = BoundAt(context.Background(), p, points, nil)
+			_, err = Bound(context.Background(), p, nil)
 		}
 		if err == nil {
 			t.Errorf("%+v: no error", tt.spec)
@@ -176,7 +176,7 @@ func TestInvalidInput(t *testing.T) {
 }
 
 func TestSpecParseErrorPosition(t *testing.T) {
-	_, _, err := (&Spec{K: "x^2 +\n  (y*)"}).Problem()
+	_, err := (&Spec{K: "x^2 +\n  (y*)"}).Problem()
 	var pe *monomial.Error
 	if !errors.As(err, &pe) {
 		t.Fatalf("error %v carries no position", err)

@@ -28,7 +28,7 @@ func lowRankGenerators(m, n, h int) []string {
 
 func mustProblem(t *testing.T, s Spec) *Problem {
 	t.Helper()
-	p, _, err := s.Problem()
+	p, err := s.Problem()
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -67,8 +67,8 @@ func TestContextCancelled(t *testing.T) {
 	if _, err := Bound(ctx, mustProblem(t, Spec{K: "x^4+y^6"}), nil); !errors.Is(err, context.Canceled) {
 		t.Errorf("cancelled context: error %v, want context.Canceled", err)
 	}
-	if _, err := BoundAt(ctx, mustProblem(t, Spec{K: "x^2"}), nil, nil); !errors.Is(err, context.Canceled) {
-		t.Errorf("BoundAt, cancelled context: error %v, want context.Canceled", err)
+	if _, err := Bound(ctx, mustProblem(t, Spec{K: "x^2", At: []string{"x=0", "x=0"}}), nil); !errors.Is(err, context.Canceled) {
+		t.Errorf("two points, cancelled context: error %v, want context.Canceled", err)
 	}
 }
 
@@ -156,9 +156,9 @@ func TestErrInputParent(t *testing.T) {
 		{K: "0*x"}, {K: "x^2+1"}, {K: "x^2-y^2"}, {K: "x^2", Prior: "x=-1"}, {},
 		{K: "x^2 +"}, {K: "x^2", Prior: "x"}, {K: "exp(x)-1", Order: 4, At: []string{"x=1"}},
 	} {
-		p, points, err := s.Problem()
+		p, err := s.Problem()
 		if err == nil {
-			_, err = BoundAt(context.Background(), p, points, nil)
+			_, err = Bound(context.Background(), p, nil)
 		}
 		if err == nil || !errors.Is(err, ErrInput) {
 			t.Errorf("%+v: error %v does not match ErrInput", s, err)

@@ -127,20 +127,26 @@ func TestPriorFollowsDoc(t *testing.T) {
 		spec   Spec
 		lambda string
 		weight string
+		noted  bool // the exponent is reported as not counting
 	}{
 		// (x−1)² at x = 1 with prior |x|: |x| ≈ 1 there, so λ = 1/2, the
 		// regular value d/2 (Schwarz 1978).
-		{Spec{K: "(x-1)^2", Prior: "x=1", At: []string{"x=1"}}, "1/2", "1"},
+		{Spec{K: "(x-1)^2", Prior: "x=1", At: []string{"x=1"}}, "1/2", "1", true},
 		// x² at 0 with prior |x|: ∫ |x|·n^{-…} gives λ = (h+1)/(2k) = 2/2 = 1
 		// (Watanabe 2009, the monomial case of the main formula; from memory).
-		{Spec{K: "x^2", Prior: "x=1"}, "1", "2"},
+		{Spec{K: "x^2", Prior: "x=1"}, "1", "2", false},
 		// The prior |u| at the truth u = 0 written in shifted coordinates.
-		{Spec{K: "u^2", Prior: "u=1"}, "1", "2"},
+		{Spec{K: "u^2", Prior: "u=1"}, "1", "2", false},
+		// A zero exponent at a shifted coordinate says nothing.
+		{Spec{K: "(x-1)^2", Prior: "x=0", At: []string{"x=1"}}, "1/2", "1", false},
 	}
 	for _, tt := range tests {
 		r := solve(t, &tt.spec)
 		if r.Lambda.RatString() != tt.lambda || r.Weights[0].RatString() != tt.weight || r.Status != Exact {
 			t.Errorf("%+v: λ = %s, τ = %s, %s; want %s, %s, exact", tt.spec, r.Lambda.RatString(), r.Weights[0].RatString(), r.Status, tt.lambda, tt.weight)
+		}
+		if noted := len(r.Notes) == 1 && strings.Contains(r.Notes[0], "of x does not count"); noted != tt.noted || !tt.noted && len(r.Notes) > 0 {
+			t.Errorf("%+v: notes %q, want a note about x: %v", tt.spec, r.Notes, tt.noted)
 		}
 	}
 }

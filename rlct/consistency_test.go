@@ -116,7 +116,7 @@ func TestTargetedAgreesWithFullLattice(t *testing.T) {
 	counts := map[string]int{}
 	for trial := range 600 {
 		spec := randomCase(rng)
-		p, _, err := spec.Problem()
+		p, err := spec.Problem()
 		if err != nil {
 			t.Fatalf("trial %d: %+v: %v", trial, spec, err)
 		}

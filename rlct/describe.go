@@ -68,30 +68,36 @@ type FacetReport struct {
 	Rays []string
 }
 
-// Describe bounds p at its point, as Bound does with Options.AllFaces set
-// (every compact face is decided and listed), and describes the Newton
-// polyhedron the bound comes from. It returns the errors of Bound, and an
-// error wrapping polyhedron.ErrTooLarge when the facets cannot be
-// enumerated within opt.Limits.
-func Describe(ctx context.Context, p *Problem, opt *Options) (*Description, error) {
+// Describe bounds p at each of its points, as Bound does with
+// Options.AllFaces set (every compact face is decided and listed), and
+// describes the Newton polyhedron each answer comes from: one Description
+// per point, in the order of Problem.Points (one for the origin when there
+// are none). It returns the errors of Bound, and an error wrapping
+// polyhedron.ErrTooLarge when the facets cannot be enumerated within
+// opt.Limits; with several points the error names the point.
+func Describe(ctx context.Context, p *Problem, opt *Options) ([]*Description, error) {
 	o := Options{}
 	if opt != nil {
 		o = *opt
 	}
 	o.AllFaces = true
-	res, err := Bound(ctx, p, &o)
+	results, locals, err := boundEach(ctx, p, &o)
 	if err != nil {
 		return nil, err
 	}
-	_, polys, err := p.forms()
-	if err != nil {
-		return nil, err // not reached: Bound has accepted p
-	}
-	if !isOrigin(res.Point) {
-		for i, q := range polys {
-			polys[i] = q.Translate(res.Point)
+	out := make([]*Description, len(results))
+	for k, res := range results {
+		d, err := describe(ctx, res, locals[k])
+		if err != nil {
+			return nil, atPoint(k, len(results), err)
 		}
+		out[k] = d
 	}
+	return out, nil
+}
+
+// describe writes out the polyhedron of res, the answer for l.
+func describe(ctx context.Context, res *Result, l *Local) (*Description, error) {
 	facets, err := res.newton.Facets(ctx)
 	if err != nil {
 		return nil, fmt.Errorf("listing the facets of the Newton polyhedron: %w", err)
@@ -103,12 +109,12 @@ func Describe(ctx context.Context, p *Problem, opt *Options) (*Description, erro
 		return nil, err
 	}
 	for _, v := range verts {
-		d.Vertices = append(d.Vertices, vertexReport(res.Vars, polys, v, p.Generators != nil, scale))
+		d.Vertices = append(d.Vertices, vertexReport(res.Vars, l.Polys, v, l.SumOfSquares, scale))
 	}
 	for _, f := range facets {
 		d.Facets = append(d.Facets, facetReport(res.Vars, res.newton.Points(), f, scale))
 	}
-	d.Support = scaledSupport(polys, scale)
+	d.Support = scaledSupport(l.Polys, scale)
 	for _, w := range res.Weights {
 		d.Hit = append(d.Hit, new(big.Rat).Mul(res.Distance, w))
 	}

@@ -15,18 +15,18 @@ import (
 
 func describeSpec(t *testing.T, s *Spec) *Description {
 	t.Helper()
-	p, points, err := s.Problem()
+	p, err := s.Problem()
 	if err != nil {
 		t.Fatalf("%+v: %v", s, err)
 	}
-	if len(points) == 1 {
-		p.Point = points[0]
-	}
-	d, err := Describe(context.Background(), p, nil)
+	ds, err := Describe(context.Background(), p, nil)
 	if err != nil {
 		t.Fatalf("%+v: %v", s, err)
 	}
-	return d
+	if len(ds) != 1 {
+		t.Fatalf("%+v: %d descriptions, want 1", s, len(ds))
+	}
+	return ds[0]
 }
 
 // TestDescribeByHand compares the vertices, facets and hit point with
@@ -218,14 +218,18 @@ func TestDescribeSOSAgainstExpansion(t *testing.T) {
 		if len(gens) == 0 {
 			continue
 		}
-		sos, err := Describe(context.Background(), &Problem{Generators: gens}, nil)
+		sosAll, err := Describe(context.Background(), &Problem{Generators: gens}, nil)
 		if err != nil {
 			t.Fatalf("trial %d: %v", trial, err)
 		}
-		poly, err := Describe(context.Background(), &Problem{K: k}, nil)
+		polyAll, err := Describe(context.Background(), &Problem{K: k}, nil)
 		if err != nil {
 			t.Fatalf("trial %d: K = %s: %v", trial, k, err)
 		}
+		if len(sosAll) != 1 || len(polyAll) != 1 {
+			t.Fatalf("trial %d: %d and %d descriptions at the origin, want 1", trial, len(sosAll), len(polyAll))
+		}
+		sos, poly := sosAll[0], polyAll[0]
 		if len(sos.Vertices) != len(poly.Vertices) {
 			t.Fatalf("trial %d: %d vertices in sum-of-squares form, %d expanded", trial, len(sos.Vertices), len(poly.Vertices))
 		}
@@ -272,14 +276,15 @@ func TestDescribeReportJSON(t *testing.T) {
 }
 
 func ExampleDescribe() {
-	p, _, err := (&Spec{K: "x^4 + 2*y^6 + x^2*y^2"}).Problem()
+	p, err := (&Spec{K: "x^4 + 2*y^6 + x^2*y^2"}).Problem()
 	if err != nil {
 		panic(err)
 	}
-	d, err := Describe(context.Background(), p, nil)
+	ds, err := Describe(context.Background(), p, nil)
 	if err != nil {
 		panic(err)
 	}
+	d := ds[0] // one description per point; here the origin alone
 	for _, v := range d.Vertices {
 		fmt.Println("vertex", v.Monomial, "coefficient", v.Coefficient.RatString())
 	}

@@ -12,6 +12,18 @@
 // (Watanabe 2009, Algebraic Geometry and Statistical Learning Theory). They
 // are asymptotic statements about the model, not about a finite sample.
 //
+// # Problems and points
+//
+// A Problem holds K (or its generators in sum-of-squares form), the prior
+// and the points where the learning coefficient is wanted; Spec reads one
+// from text, the way the command line and batch records write it. Bound is
+// the one entry point: at one point (the origin when none is given) it
+// returns the answer there, at several the minimum with each point's answer
+// (Result.Locals). Describe answers the same problem and writes out the
+// Newton polyhedron at each point. Problem.Locals gives the problem as both
+// see it at each point: K in the offsets from the point, the weights τ, and
+// notes such as a prior exponent that does not count there.
+//
 // # The Newton value
 //
 // The prior is a density proportional to Π |w_i|^{h_i} times a smooth

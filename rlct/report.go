@@ -21,6 +21,7 @@ type Report struct {
 	Point         []string          `json:"point,omitempty"`
 	Form          string            `json:"form,omitempty"`
 	Reasons       []string          `json:"reasons,omitempty"`
+	Notes         []string          `json:"notes,omitempty"`
 	PrincipalFace *FaceJSON         `json:"principal_face,omitempty"`
 	Certificate   *CertificateJSON  `json:"certificate,omitempty"`
 	Nondegeneracy []FaceJSON        `json:"nondegeneracy,omitempty"`
@@ -62,6 +63,7 @@ func (r *Result) Report() *Report {
 		Point:     ratStrings(r.Point),
 		Form:      r.Form,
 		Reasons:   r.Reasons,
+		Notes:     r.Notes,
 	}
 	pf := r.Principal.json()
 	out.PrincipalFace = &pf

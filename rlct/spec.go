@@ -9,18 +9,19 @@ import (
 	"github.com/lctkit/lctkit/monomial"
 )
 
-// Spec is a problem written as text, the way the command line and batch
-// records give it. Problem turns it into a Problem.
+// Spec is a problem written as text, the way the command line, batch
+// records and model tables give it. Spec.Problem turns it into a Problem.
 type Spec struct {
 	// K is the function as an expression. Set K or SOS.
 	K string
 	// SOS lists generators g_1, …, g_r, for K = Σ g_i².
 	SOS []string
 	// Prior is "x=1,y=1/2": the prior is proportional to |x|^1·|y|^(1/2) near
-	// the point; unnamed variables have exponent 0.
+	// the point; unnamed variables have exponent 0. Every name must be a
+	// variable.
 	Prior string
 	// At lists points, each "x=0,y=1/3"; unnamed coordinates are 0. No
-	// point means the origin.
+	// point means the origin. Every name must be a variable.
 	At []string
 	// Order truncates power series at this total degree (0: polynomials only).
 	Order int
@@ -47,99 +48,126 @@ func (e *SpecError) Unwrap() error { return e.Err }
 // Is reports that a SpecError is an input error (see ErrInput).
 func (e *SpecError) Is(target error) bool { return target == ErrInput }
 
-// Problem parses the spec. It returns the problem and the points (nil for
-// the origin alone); pass both to BoundAt.
-func (s *Spec) Problem() (*Problem, [][]*big.Rat, error) {
+// Problem parses the spec and returns the problem ready for Bound, with
+// its points (none for the origin).
+//
+// The variables are Vars followed by those of K (or of the generators) in
+// the order of their first appearance; Prior and At only give values to
+// them. A name in Prior or At that is not one of the variables is an error
+// (a *monomial.Error with Setting "Vars" at the name, inside a *SpecError):
+// a variable K does not use counts as a dimension only when Vars names it.
+// Errors in an expression are *SpecError values wrapping the parser's
+// positioned error.
+func (s *Spec) Problem() (*Problem, error) {
 	if (s.K == "") == (len(s.SOS) == 0) {
 		if s.K == "" {
-			return nil, nil, ErrNoFunction
+			return nil, ErrNoFunction
 		}
-		return nil, nil, ErrTwoForms
+		return nil, ErrTwoForms
 	}
-	vars := append([]string(nil), s.Vars...)
-	var priorNames []string
-	var priorValues []*big.Rat
-	if strings.TrimSpace(s.Prior) != "" {
-		var err error
-		priorNames, priorValues, err = monomial.ParseBindings(s.Prior)
-		if err != nil {
-			return nil, nil, &SpecError{"prior", s.Prior, err}
-		}
-		vars = appendNew(vars, priorNames...)
-	}
-	type binding struct {
-		names  []string
-		values []*big.Rat
-	}
-	var at []binding
-	for _, a := range s.At {
-		names, values, err := monomial.ParseBindings(a)
-		if err != nil {
-			return nil, nil, &SpecError{"at", a, err}
-		}
-		vars = appendNew(vars, names...)
-		at = append(at, binding{names, values})
-	}
-	cfg := monomial.Config{Vars: vars, Order: s.Order, Limits: s.Limits}
+	cfg := monomial.Config{Vars: s.Vars, Order: s.Order, Limits: s.Limits}
 	p := &Problem{Order: s.Order}
-	var all []string
+	var vars []string
 	if s.K != "" {
 		ex, err := monomial.Parse(s.K, cfg)
 		if err != nil {
-			return nil, nil, &SpecError{"k", s.K, err}
+			return nil, &SpecError{"k", s.K, err}
 		}
 		p.K, p.Truncated = ex.Poly, ex.Truncated
-		all = ex.Poly.Vars()
+		vars = ex.Poly.Vars()
 	} else {
 		src := strings.Join(s.SOS, ";\n")
 		exs, err := monomial.ParseList(src, cfg)
 		if err != nil {
-			return nil, nil, &SpecError{"sos", src, err}
+			return nil, &SpecError{"sos", src, err}
 		}
 		for _, ex := range exs {
 			p.Generators = append(p.Generators, ex.Poly)
 			p.Truncated = p.Truncated || ex.Truncated
 		}
 		if len(exs) > 0 {
-			all = exs[0].Poly.Vars()
+			vars = exs[0].Poly.Vars()
 		}
 	}
-	if len(all) == 0 {
-		return nil, nil, ErrNoVariables
+	if len(vars) == 0 {
+		return nil, ErrNoVariables
 	}
-	index := make(map[string]int, len(all))
-	for i, v := range all {
-		index[v] = i
+	if strings.TrimSpace(s.Prior) != "" {
+		prior, err := bind(s.Prior, vars)
+		if err != nil {
+			return nil, &SpecError{"prior", s.Prior, err}
+		}
+		p.Prior = prior
 	}
-	if priorNames != nil {
-		p.Prior = make([]*big.Rat, len(all))
-		for i := range p.Prior {
-			p.Prior[i] = new(big.Rat)
+	for _, a := range s.At {
+		w, err := bind(a, vars)
+		if err != nil {
+			return nil, &SpecError{"at", a, err}
 		}
-		for j, n := range priorNames {
-			p.Prior[index[n]] = priorValues[j]
+		p.Points = append(p.Points, w)
+	}
+	return p, nil
+}
+
+// bind reads bindings "x=1,y=1/2" as a vector over vars, 0 where a variable
+// is not named.
+func bind(src string, vars []string) ([]*big.Rat, error) {
+	names, values, err := monomial.ParseBindings(src)
+	if err != nil {
+		return nil, err
+	}
+	out := make([]*big.Rat, len(vars))
+	for i := range out {
+		out[i] = new(big.Rat)
+	}
+	for j, n := range names {
+		i := slices.Index(vars, n)
+		if i < 0 {
+			e := bindingError(src, n)
+			e.Msg = fmt.Sprintf("%s is not a variable of K (variables: %s)", n, strings.Join(vars, ", "))
+			e.Setting = "Vars"
+			return nil, e
+		}
+		out[i] = values[j]
+	}
+	return out, nil
+}
+
+// bindingError returns an error positioned at the binding of name in src,
+// which ParseBindings has accepted: the first occurrence of name as a whole
+// identifier followed by '=' (a value is a number, so it holds no
+// identifier, and names are not repeated).
+func bindingError(src, name string) *monomial.Error {
+	off := 0
+	for from := 0; from < len(src); {
+		i := strings.Index(src[from:], name)
+		if i < 0 {
+			break
+		}
+		i += from
+		end := i + len(name)
+		before := i == 0 || !identByte(src[i-1])
+		after := strings.HasPrefix(strings.TrimLeft(src[end:], " \t\r\n"), "=")
+		if before && after && (end == len(src) || !identByte(src[end])) {
+			off = i
+			break
+		}
+		from = i + 1
+	}
+	line, col := 1, 1
+	for _, r := range src[:off] {
+		if r == '\n' {
+			line, col = line+1, 1
+		} else {
+			col++
 		}
 	}
-	var points [][]*big.Rat
-	for _, b := range at {
-		w := make([]*big.Rat, len(all))
-		for i := range w {
-			w[i] = new(big.Rat)
-		}
-		for j, n := range b.names {
-			w[index[n]] = b.values[j]
-		}
-		points = append(points, w)
-	}
-	if p.Truncated && len(points) > 0 {
-		for _, w := range points {
-			if !isOrigin(w) {
-				return nil, nil, &SpecError{"at", strings.Join(s.At, "; "), fmt.Errorf(
-					"K is a power series truncated around the origin, and its truncation cannot be moved to another point; write it in variables shifted to the point instead")}
-			}
-		}
-	}
-	return p, points, nil
+	return &monomial.Error{Offset: off, Line: line, Col: col}
+}
+
+// identByte reports whether c can be part of an ASCII identifier.
+func identByte(c byte) bool {
+	return c == '_' || c >= '0' && c <= '9' || c >= 'a' && c <= 'z' || c >= 'A' && c <= 'Z'
 }
 
 // SplitNames reads a variable list written "x,y,z" (white space around the
@@ -157,14 +185,4 @@ func SplitNames(s string) ([]string, error) {
 		out = append(out, f)
 	}
 	return out, nil
-}
-
-// appendNew appends the names not already in list.
-func appendNew(list []string, names ...string) []string {
-	for _, n := range names {
-		if !slices.Contains(list, n) {
-			list = append(list, n)
-		}
-	}
-	return list
 }

@@ -317,10 +317,10 @@ func (c *batchCmd) solve(it batchItem, id *json.RawMessage) *rlct.Report {
 		return &rlct.Report{Error: err.Error()}
 	}
 	rec.Spec.Limits = monomial.Limits{MaxTerms: c.MaxTerms}
-	p, points, err := rec.Spec.Problem()
+	p, err := rec.Spec.Problem()
 	var r *rlct.Result
 	if err == nil {
-		r, err = rlct.BoundAt(ctx, p, points, &rlct.Options{MaxFaces: c.MaxFaces})
+		r, err = rlct.Bound(ctx, p, &rlct.Options{MaxFaces: c.MaxFaces})
 	}
 	if err != nil && ctx.Err() != nil {
 		return &rlct.Report{Error: "timed out after " + c.Timeout.String()}

@@ -87,15 +87,11 @@ func (f *problemFlags) spec(expr string, e *env) (*rlct.Spec, string, error) {
 
 // solve parses the spec and bounds it, printing positioned errors.
 func solve(s *rlct.Spec, opt *rlct.Options, e *env) (*rlct.Result, error) {
-	p, points, err := s.Problem()
+	p, err := s.Problem()
 	if err != nil {
 		return nil, showSpecError(e, err)
 	}
-	r, err := rlct.BoundAt(context.Background(), p, points, opt)
-	if err != nil {
-		return nil, err
-	}
-	return r, nil
+	return rlct.Bound(context.Background(), p, opt)
 }
 
 // showSpecError prints a spec error with a caret when it has a position and
@@ -304,6 +300,9 @@ func writeDetails(w io.Writer, r *rlct.Result, indent string) {
 	}
 	for _, reason := range r.Reasons {
 		fmt.Fprintf(w, "%s- %s\n", indent, reason)
+	}
+	for _, n := range r.Notes {
+		fmt.Fprintf(w, "%snote: %s\n", indent, n)
 	}
 	if r.Status != rlct.Exact && r.Certificate != nil {
 		fmt.Fprintf(w, "%sfaces: %s\n", indent, certificateSummary(r.Certificate, r.Form))

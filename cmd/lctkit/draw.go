@@ -42,16 +42,11 @@ func (c *drawCmd) Run(e *env) error {
 	if len(s.At) > 1 {
 		return usageError{fmt.Errorf("draw pictures one point at a time; got %d --at points, so draw each separately (lctkit faces lists them all)", len(s.At))}
 	}
-	p, points, err := s.Problem()
+	p, err := s.Problem()
 	if err != nil {
 		return showSpecError(e, err)
 	}
-	var vars []string
-	if p.K != nil {
-		vars = p.K.Vars()
-	} else {
-		vars = p.Generators[0].Vars()
-	}
+	vars := p.Vars()
 	if n := len(vars); n < picture.MinVars || n > picture.MaxVars {
 		hint := ""
 		if n < picture.MinVars {
@@ -60,14 +55,11 @@ func (c *drawCmd) Run(e *env) error {
 		return fmt.Errorf("draw supports %d or %d variables, and K has %d (%s)%s; lctkit faces lists the Newton polyhedron in any dimension",
 			picture.MinVars, picture.MaxVars, n, strings.Join(vars, ", "), hint)
 	}
-	if len(points) == 1 {
-		p.Point = points[0]
-	}
-	d, err := rlct.Describe(context.Background(), p, c.options())
+	ds, err := rlct.Describe(context.Background(), p, c.options())
 	if err != nil {
 		return err
 	}
-	svg, err := picture.SVG(d, pictureTitle(s))
+	svg, err := picture.SVG(ds[0], pictureTitle(s))
 	if err != nil {
 		return err
 	}

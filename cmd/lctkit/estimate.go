@@ -110,19 +110,16 @@ func (c *estimateCmd) run(e *env) error {
 	if err != nil {
 		return err
 	}
-	p, points, err := s.Problem()
+	p, err := s.Problem()
 	if err != nil {
 		return showSpecError(e, err)
 	}
-	if len(points) == 1 {
-		p.Point = points[0]
+	locals, err := p.Locals()
+	if err != nil {
+		return err
 	}
-	var vars []string
-	if p.K != nil {
-		vars = p.K.Vars()
-	} else {
-		vars = p.Generators[0].Vars()
-	}
+	at := locals[0] // --at takes one point
+	vars := at.Vars
 	lower, upper, err := parseBox(string(c.Box), vars)
 	if err != nil {
 		return fmt.Errorf("--box: %w", err)
@@ -139,13 +136,6 @@ func (c *estimateCmd) run(e *env) error {
 		return err
 	}
 
-	var unused []string // prior exponents at coordinates where the point is not 0
-	for i, v := range vars {
-		if p.Prior != nil && p.Prior[i].Sign() != 0 && p.Point != nil && p.Point[i].Sign() != 0 {
-			unused = append(unused, v)
-		}
-	}
-
 	prog := newProgress(e)
 	est, err := estimate.Problem(context.Background(), p, estimate.Options{
 		Lower: lower, Upper: upper, Prior: prior,
@@ -156,15 +146,15 @@ func (c *estimateCmd) run(e *env) error {
 	if err != nil {
 		var kv *estimate.KValueError
 		if errors.As(err, &kv) {
-			return negativeKError(kv, vars, p.Point)
+			return negativeKError(kv, vars, at.Point)
 		}
 		return err
 	}
 
 	res := &estimateResult{
-		title: pictureTitle(s), vars: vars, point: p.Point, lower: lower, upper: upper, prior: prior,
+		title: pictureTitle(s), vars: vars, point: at.Point, lower: lower, upper: upper, prior: prior,
 		est: est, seed: c.Seed, bound: bound, boundErr: berr, truncated: p.Truncated, order: p.Order,
-		unusedPrior: unused,
+		priorNotes: at.Notes,
 	}
 	if bound != nil {
 		l, _ := bound.Lambda.Float64()

@@ -27,7 +27,7 @@ type estimateResult struct {
 	verdict      *estimate.Comparison // nil without a bound
 	truncated    bool
 	order        int
-	unusedPrior  []string // variables whose --prior exponent is not used
+	priorNotes   []string // prior exponents that do not count at the point (rlct.Local.Notes)
 }
 
 // estimateCaution is the warning printed with every estimate.
@@ -52,10 +52,11 @@ func (r *estimateResult) verdictText() string {
 // JSON lists them all.
 const maxZeroNotes = 5
 
-// notes lists remarks that qualify the estimate and the verdict: a truncated
-// series, θ̂ below 1, other zeros of K in the box.
+// notes lists remarks that qualify the estimate and the verdict: prior
+// exponents that do not count at the point, a truncated series, θ̂ below 1,
+// other zeros of K in the box.
 func (r *estimateResult) notes() []string {
-	var out []string
+	out := append([]string(nil), r.priorNotes...)
 	if r.truncated {
 		n := fmt.Sprintf("K is a power series cut at degree %d; the estimate is for the truncated polynomial on the box, a proxy for the full function", r.order)
 		if r.bound != nil && r.bound.Status == rlct.Exact {
@@ -161,10 +162,6 @@ func (r *estimateResult) write(w io.Writer) {
 	fmt.Fprintf(w, "%s %s\n", r.title, where)
 	fmt.Fprintf(w, "box (offsets from the point): %s\n", boxString(r.vars, r.lower, r.upper))
 	fmt.Fprintf(w, "prior: %s\n", priorString(r.vars, r.prior))
-	if len(r.unusedPrior) > 0 {
-		fmt.Fprintf(w, "  (the --prior exponents of %s are not used: the point is not 0 there, where the factor is smooth and positive)\n",
-			strings.Join(r.unusedPrior, ", "))
-	}
 	fmt.Fprintf(w, "sampling: %d live points × %d runs, seed %d, %d evaluations of K\n\n", e.Live, e.Runs, r.seed, e.Evaluations)
 
 	dec := tableDecimals(e.Points)

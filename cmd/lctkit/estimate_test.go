@@ -524,7 +524,7 @@ func TestEstimateHelp(t *testing.T) {
 
 func mustProblem(t *testing.T, src string) *rlct.Problem {
 	t.Helper()
-	p, _, err := (&rlct.Spec{K: src}).Problem()
+	p, err := (&rlct.Spec{K: src}).Problem()
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -574,14 +574,30 @@ func TestEstimateErrors(t *testing.T) {
 }
 
 // TestEstimateUnusedPrior checks that a prior exponent at a coordinate where
-// the point is not 0 is reported as unused, as the bound sets τ = 1 there.
+// the point is not 0 is reported as not counting, as the bound sets τ = 1
+// there, in the text and in the JSON notes.
 func TestEstimateUnusedPrior(t *testing.T) {
-	out, errOut, code := runCLI(t, "", "estimate", "(x-1)^2*y^2", "--at", "x=1", "--prior", "x=1,y=1", "--runs", "2", "--live", "10")
+	args := []string{"estimate", "(x-1)^2*y^2", "--at", "x=1", "--prior", "x=1,y=1", "--runs", "2", "--live", "10"}
+	out, errOut, code := runCLI(t, "", args...)
 	if code != exitOK {
 		t.Fatalf("exit %d: %s", code, errOut)
 	}
-	if !strings.Contains(out, "prior: proportional to |y|^1\n") || !strings.Contains(out, "--prior exponents of x are not used") {
+	const note = "the prior exponent 1 of x does not count at this point: x = 1 there"
+	if !strings.Contains(out, "prior: proportional to |y|^1\n") || !strings.Contains(strings.Join(strings.Fields(out), " "), note) {
 		t.Errorf("output:\n%s", out)
+	}
+	out, errOut, code = runCLI(t, "", append(args, "--json")...)
+	var rep struct {
+		Notes []string `json:"notes"`
+		Bound struct {
+			Notes []string `json:"notes"`
+		} `json:"bound"`
+	}
+	if code != exitOK || json.Unmarshal([]byte(out), &rep) != nil {
+		t.Fatalf("--json: exit %d: %s%s", code, out, errOut)
+	}
+	if len(rep.Notes) == 0 || !strings.HasPrefix(rep.Notes[0], note) || len(rep.Bound.Notes) != 1 || !strings.HasPrefix(rep.Bound.Notes[0], note) {
+		t.Errorf("--json notes %q, bound notes %q; want both to start with %q", rep.Notes, rep.Bound.Notes, note)
 	}
 }
 

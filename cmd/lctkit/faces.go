@@ -5,7 +5,6 @@ import (
 	"context"
 	"fmt"
 	"io"
-	"math/big"
 	"strings"
 	"text/tabwriter"
 
@@ -77,27 +76,11 @@ func (c *facesCmd) Run(e *env) error {
 // describe parses the spec and describes the polyhedron at each of its
 // points (the origin when none is given), printing positioned errors.
 func describe(s *rlct.Spec, opt *rlct.Options, e *env) ([]*rlct.Description, error) {
-	p, points, err := s.Problem()
+	p, err := s.Problem()
 	if err != nil {
 		return nil, showSpecError(e, err)
 	}
-	if len(points) == 0 {
-		points = [][]*big.Rat{nil}
-	}
-	var out []*rlct.Description
-	for i, w := range points {
-		q := *p
-		q.Point = w
-		d, err := rlct.Describe(context.Background(), &q, opt)
-		if err != nil {
-			if len(points) > 1 {
-				return nil, fmt.Errorf("point %d: %w", i+1, err)
-			}
-			return nil, err
-		}
-		out = append(out, d)
-	}
-	return out, nil
+	return rlct.Describe(context.Background(), p, opt)
 }
 
 // writeFaces prints one description as text.
@@ -196,6 +179,12 @@ func writeFacesTo(w io.Writer, d *rlct.Description) {
 		for _, r := range d.Reasons {
 			fmt.Fprintf(w, "  - %s\n", r)
 		}
+	}
+	if len(d.Notes) > 0 {
+		fmt.Fprintln(w)
+	}
+	for _, n := range d.Notes {
+		fmt.Fprintf(w, "note: %s\n", n)
 	}
 }
 

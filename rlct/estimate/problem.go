@@ -5,10 +5,10 @@ package estimate
 
 import (
 	"context"
+	"errors"
 	"fmt"
 	"math"
 	"math/big"
-	"slices"
 
 	"github.com/lctkit/lctkit/monomial"
 	"github.com/lctkit/lctkit/rlct"
@@ -35,46 +35,40 @@ type ProblemEvaluator struct {
 	compiled []*monomial.Compiled
 }
 
-// NewProblemEvaluator translates K (or each generator) of p to p.Point
-// exactly, with monomial.Poly.Translate, and compiles the result. In
+// ErrSeveralPoints is returned for a problem with more than one point: an
+// estimate studies one point at a time.
+var ErrSeveralPoints = errors.New("estimate: the problem has several points; estimate one point at a time")
+
+// NewProblemEvaluator takes K (or each generator) of p at its point as
+// rlct.Problem.Locals translates it, exactly, and compiles the result. In
 // sum-of-squares form nothing is expanded: Eval squares and adds the
 // generators' values, which keeps K ≥ 0 and its relative accuracy near the
-// zero set. A series truncated around the origin (p.Truncated) cannot be
-// moved to another point (rlct.ErrShiftSeries); at the origin it is
-// evaluated as the truncated polynomial, a proxy for the full function. A
-// malformed problem gives the errors of rlct.Bound for it (rlct.ErrTwoForms,
-// rlct.ErrNoFunction, rlct.ErrNoVariables, rlct.ErrVariables,
-// rlct.ErrDimension). A nil entry of p.Point is read as 0.
+// zero set. A series truncated around the origin (p.Truncated) is evaluated
+// as the truncated polynomial, a proxy for the full function. It returns
+// the errors of rlct.Problem.Locals for a malformed problem (the same as
+// rlct.Bound gives), and ErrSeveralPoints when p has more than one point.
 func NewProblemEvaluator(p *rlct.Problem) (*ProblemEvaluator, error) {
-	vars, polys, err := forms(p)
+	l, err := local(p)
 	if err != nil {
 		return nil, err
 	}
-	if p.Point != nil {
-		if len(p.Point) != len(vars) {
-			return nil, fmt.Errorf("%w: point has %d entries for %d variables", rlct.ErrDimension, len(p.Point), len(vars))
-		}
-		if !isOrigin(p.Point) {
-			if p.Truncated {
-				return nil, rlct.ErrShiftSeries
-			}
-			point := make([]*big.Rat, len(p.Point)) // nil entries read as 0
-			for i, x := range p.Point {
-				point[i] = new(big.Rat)
-				if x != nil {
-					point[i].Set(x)
-				}
-			}
-			for i, q := range polys {
-				polys[i] = q.Translate(point)
-			}
-		}
-	}
-	ev := &ProblemEvaluator{Vars: vars, Polys: polys, SumOfSquares: p.Generators != nil}
-	for _, q := range polys {
+	ev := &ProblemEvaluator{Vars: l.Vars, Polys: l.Polys, SumOfSquares: l.SumOfSquares}
+	for _, q := range l.Polys {
 		ev.compiled = append(ev.compiled, q.Compile())
 	}
 	return ev, nil
+}
+
+// local returns p at its one point.
+func local(p *rlct.Problem) (*rlct.Local, error) {
+	locals, err := p.Locals()
+	if err != nil {
+		return nil, err
+	}
+	if len(locals) > 1 {
+		return nil, fmt.Errorf("%w (%d points)", ErrSeveralPoints, len(locals))
+	}
+	return locals[0], nil
 }
 
 // NumVars returns the number of variables.
@@ -168,7 +162,7 @@ func cancellationFree(q *monomial.Poly) bool {
 	return true
 }
 
-// Problem estimates λ and θ of the problem p at p.Point by Run over the box
+// Problem estimates λ and θ of the problem p at its point by Run over the box
 // opt.Lower, opt.Upper, given as offsets from the point. K comes from
 // NewProblemEvaluator. When opt.Prior is nil it is taken from p.Prior the way
 // rlct.Bound reads it (see Prior). When opt.RoundOff is 0 it is set to
@@ -177,7 +171,7 @@ func cancellationFree(q *monomial.Poly) bool {
 // The result is a numerical estimate with the caveats listed under Run, and
 // for a truncated series (p.Truncated) it is an estimate for the truncated
 // polynomial only. A *KValueError reports its point, and Result.OtherZeros
-// their places, as offsets from p.Point. Besides the errors of Run and
+// their places, as offsets from the point. Besides the errors of Run and
 // NewProblemEvaluator it returns rlct.ErrDimension for a box that does not
 // match the variables and the errors of Prior.
 func Problem(ctx context.Context, p *rlct.Problem, opt Options) (*Result, error) {
@@ -203,75 +197,22 @@ func Problem(ctx context.Context, p *rlct.Problem, opt Options) (*Result, error)
 }
 
 // Prior returns the prior exponents Problem uses for p, in the translated
-// coordinates: h_i from p.Prior where p.Point is 0 (or absent), and 0
-// (uniform) where it is not, since there the prior factor |w_i|^(h_i) is
-// smooth and positive near the point and does not change λ or θ (it
-// corresponds to τ_i = 1 in rlct.Bound). It returns rlct.ErrPrior for an
-// exponent ≤ −1 and rlct.ErrDimension for lengths that do not match the
-// variables.
+// coordinates: h_i from p.Prior where the point is 0, and 0 (uniform) where
+// it is not, since there the prior factor |w_i|^(h_i) is smooth and
+// positive near the point and does not change λ or θ: h_i = τ_i − 1 for the
+// weights τ of rlct.Local, which rlct.Bound uses. It returns the errors of
+// NewProblemEvaluator (rlct.ErrPrior for an exponent ≤ −1, rlct.ErrDimension
+// for lengths that do not match the variables).
 func Prior(p *rlct.Problem) ([]float64, error) {
-	vars, _, err := forms(p)
+	l, err := local(p)
 	if err != nil {
 		return nil, err
 	}
-	d := len(vars)
-	if p.Prior != nil && len(p.Prior) != d {
-		return nil, fmt.Errorf("%w: prior has %d entries for %d variables", rlct.ErrDimension, len(p.Prior), d)
-	}
-	if p.Point != nil && len(p.Point) != d {
-		return nil, fmt.Errorf("%w: point has %d entries for %d variables", rlct.ErrDimension, len(p.Point), d)
-	}
-	out := make([]float64, d)
-	minusOne := big.NewRat(-1, 1)
-	for i := range d {
-		if p.Prior == nil || p.Prior[i] == nil {
-			continue
+	out := make([]float64, len(l.Vars))
+	for i, h := range l.Prior {
+		if l.Point[i].Sign() == 0 {
+			out[i], _ = h.Float64()
 		}
-		if p.Prior[i].Cmp(minusOne) <= 0 {
-			return nil, fmt.Errorf("%w: %s has exponent %s", rlct.ErrPrior, vars[i], p.Prior[i].RatString())
-		}
-		if p.Point != nil && p.Point[i] != nil && p.Point[i].Sign() != 0 {
-			continue
-		}
-		out[i], _ = p.Prior[i].Float64()
 	}
 	return out, nil
-}
-
-// forms returns the variables and the polynomials to evaluate (K alone, or
-// the generators), with the errors rlct.Bound gives for a malformed problem.
-func forms(p *rlct.Problem) ([]string, []*monomial.Poly, error) {
-	switch {
-	case p.K != nil && p.Generators != nil:
-		return nil, nil, rlct.ErrTwoForms
-	case p.K != nil:
-		if p.K.NumVars() == 0 {
-			return nil, nil, rlct.ErrNoVariables
-		}
-		return p.K.Vars(), []*monomial.Poly{p.K}, nil
-	case len(p.Generators) > 0:
-		vars := p.Generators[0].Vars()
-		if len(vars) == 0 {
-			return nil, nil, rlct.ErrNoVariables
-		}
-		out := make([]*monomial.Poly, len(p.Generators))
-		for i, g := range p.Generators {
-			if g == nil || !slices.Equal(vars, g.Vars()) {
-				return nil, nil, fmt.Errorf("%w (generator %d)", rlct.ErrVariables, i+1)
-			}
-			out[i] = g
-		}
-		return vars, out, nil
-	}
-	return nil, nil, rlct.ErrNoFunction
-}
-
-// isOrigin reports whether every coordinate of x is 0 (nil counts as 0).
-func isOrigin(x []*big.Rat) bool {
-	for _, v := range x {
-		if v != nil && v.Sign() != 0 {
-			return false
-		}
-	}
-	return true
 }

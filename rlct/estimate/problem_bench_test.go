@@ -22,11 +22,10 @@ func BenchmarkProblemEvaluator(b *testing.B) {
 			{"expanded", rlct.Spec{K: "(" + g + ")^2", At: at}},
 			{"sum-of-squares", rlct.Spec{SOS: []string{g}, At: at}},
 		} {
-			p, points, err := form.spec.Problem()
+			p, err := form.spec.Problem()
 			if err != nil {
 				b.Fatal(err)
 			}
-			p.Point = points[0]
 			ev, err := NewProblemEvaluator(p)
 			if err != nil {
 				b.Fatal(err)

@@ -13,12 +13,11 @@ import (
 // polyhedron gives the bound 1, while λ = 1/2.
 func ExampleProblem() {
 	s := rlct.Spec{K: "(x-1)^2 - 2*(x-1)*y + y^2", At: []string{"x=1"}}
-	p, points, err := s.Problem()
+	p, err := s.Problem()
 	if err != nil {
 		fmt.Println(err)
 		return
 	}
-	p.Point = points[0]
 	bound, err := rlct.Bound(context.Background(), p, nil)
 	if err != nil {
 		fmt.Println(err)

@@ -13,15 +13,12 @@ import (
 	"github.com/lctkit/lctkit/rlct"
 )
 
-// problemOf parses a spec and sets its point, failing the test on errors.
+// problemOf parses a spec, failing the test on errors.
 func problemOf(t *testing.T, s rlct.Spec) *rlct.Problem {
 	t.Helper()
-	p, points, err := s.Problem()
+	p, err := s.Problem()
 	if err != nil {
 		t.Fatal(err)
-	}
-	if len(points) == 1 {
-		p.Point = points[0]
 	}
 	return p
 }
@@ -85,14 +82,21 @@ func TestProblemEvaluatorExactTranslation(t *testing.T) {
 
 func TestProblemEvaluatorErrors(t *testing.T) {
 	p := problemOf(t, rlct.Spec{K: "x^2*(1-cos(y))", Order: 6})
-	p.Point = []*big.Rat{big.NewRat(1, 1), new(big.Rat)}
+	p.Points = [][]*big.Rat{{big.NewRat(1, 1), new(big.Rat)}}
 	if _, err := NewProblemEvaluator(p); !errors.Is(err, rlct.ErrShiftSeries) {
 		t.Errorf("shifted series: err = %v, want rlct.ErrShiftSeries", err)
 	}
 	p = problemOf(t, rlct.Spec{K: "x^2+y^2"})
-	p.Point = []*big.Rat{new(big.Rat)}
+	p.Points = [][]*big.Rat{{new(big.Rat)}}
 	if _, err := NewProblemEvaluator(p); !errors.Is(err, rlct.ErrDimension) {
 		t.Errorf("short point: err = %v, want rlct.ErrDimension", err)
+	}
+	p.Points = [][]*big.Rat{{new(big.Rat), new(big.Rat)}, {new(big.Rat), new(big.Rat)}}
+	if _, err := NewProblemEvaluator(p); !errors.Is(err, ErrSeveralPoints) {
+		t.Errorf("two points: err = %v, want ErrSeveralPoints", err)
+	}
+	if _, err := Prior(p); !errors.Is(err, ErrSeveralPoints) {
+		t.Errorf("Prior, two points: err = %v, want ErrSeveralPoints", err)
 	}
 	if _, err := NewProblemEvaluator(&rlct.Problem{}); !errors.Is(err, rlct.ErrNoFunction) {
 		t.Errorf("empty problem: err = %v, want rlct.ErrNoFunction", err)
@@ -131,7 +135,7 @@ func TestProblemForms(t *testing.T) {
 	}
 	// A nil coordinate of the point is 0.
 	p := problemOf(t, rlct.Spec{K: "(x-1)^2 + y^2", At: []string{"x=1"}})
-	p.Point[1] = nil
+	p.Points[0][1] = nil
 	ev, err := NewProblemEvaluator(p)
 	if err != nil {
 		t.Fatal(err)

@@ -13,17 +13,18 @@ import (
 // Draw the Newton polygon of x⁴ + y⁶: describe the polyhedron with the
 // library, then draw the description.
 func ExampleSVG() {
-	p, _, err := (&rlct.Spec{K: "x^4 + y^6"}).Problem()
+	p, err := (&rlct.Spec{K: "x^4 + y^6"}).Problem()
 	if err != nil {
 		fmt.Println(err)
 		return
 	}
-	d, err := rlct.Describe(context.Background(), p, nil)
+	ds, err := rlct.Describe(context.Background(), p, nil)
 	if err != nil {
 		fmt.Println(err)
 		return
 	}
-	svg, err := picture.SVG(d, "K = x^4 + y^6")
+	svg, err := picture.SVG(ds[0], "K = x^4 + y^6") // the origin, the only point
+
 	if err != nil {
 		fmt.Println(err)
 		return
@@ -40,9 +41,9 @@ func ExampleSVG() {
 
 // A polyhedron in four variables cannot be drawn; the error says so.
 func ExampleSVG_dimension() {
-	p, _, _ := (&rlct.Spec{K: "a^2 + b^2 + c^2 + d^2"}).Problem()
-	d, _ := rlct.Describe(context.Background(), p, nil)
-	_, err := picture.SVG(d, "K")
+	p, _ := (&rlct.Spec{K: "a^2 + b^2 + c^2 + d^2"}).Problem()
+	ds, _ := rlct.Describe(context.Background(), p, nil)
+	_, err := picture.SVG(ds[0], "K")
 	fmt.Println(errors.Is(err, picture.ErrDimension))
 	fmt.Println(err)
 	// Output:

@@ -13,21 +13,27 @@ import (
 	"github.com/lctkit/lctkit/rlct"
 )
 
-// describe runs the library on a problem given as text, at its point.
+// describe runs the library on a problem given as text, at its one point.
 func describe(t testing.TB, spec rlct.Spec) *rlct.Description {
 	t.Helper()
-	p, points, err := spec.Problem()
+	p, err := spec.Problem()
 	if err != nil {
 		t.Fatalf("%+v: %v", spec, err)
 	}
-	if len(points) == 1 {
-		p.Point = points[0]
-	}
-	d, err := rlct.Describe(context.Background(), p, nil)
+	return describeOne(t, p)
+}
+
+// describeOne describes a problem with one point.
+func describeOne(t testing.TB, p *rlct.Problem) *rlct.Description {
+	t.Helper()
+	ds, err := rlct.Describe(context.Background(), p, nil)
 	if err != nil {
-		t.Fatalf("%+v: %v", spec, err)
+		t.Fatal(err)
 	}
-	return d
+	if len(ds) != 1 {
+		t.Fatalf("%d descriptions, want 1", len(ds))
+	}
+	return ds[0]
 }
 
 // scene builds the scene of a problem given as text.
@@ -349,10 +355,7 @@ func TestFacetShapesRandom(t *testing.T) {
 			}
 			k = k.Add(monomial.Monomial(vars, e, big.NewRat(int64(1+rng.IntN(3)), 1)))
 		}
-		d, err := rlct.Describe(context.Background(), &rlct.Problem{K: k}, nil)
-		if err != nil {
-			t.Fatalf("K = %s: %v", k, err)
-		}
+		d := describeOne(t, &rlct.Problem{K: k})
 		sc, err := newScene(d)
 		if err != nil {
 			t.Fatalf("K = %s: %v", k, err)

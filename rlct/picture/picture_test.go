@@ -537,14 +537,15 @@ func FuzzSVG(f *testing.F) {
 		// as (1+A)^7^4 = (1+A)^2401, which take seconds and are refused
 		// below anyway.
 		spec := &rlct.Spec{K: expr, Limits: monomial.Limits{MaxExponent: 48, MaxTerms: 5000}}
-		p, _, err := spec.Problem()
+		p, err := spec.Problem()
 		if err != nil || p.K.NumVars() < 2 || p.K.NumVars() > 3 || p.K.Degree() > 24 {
 			return
 		}
-		d, err := rlct.Describe(t.Context(), p, nil)
+		ds, err := rlct.Describe(t.Context(), p, nil)
 		if err != nil {
 			return
 		}
+		d := ds[0]
 		svg, err := SVG(d, "K = "+expr)
 		if err != nil {
 			t.Fatalf("%q: %v", expr, err)

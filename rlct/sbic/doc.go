@@ -116,5 +116,5 @@
 // ReadTable reads the candidates, the order, the pairs and the data from a
 // small text table or its JSON form (see Table); a pair may be given by its
 // value or by a function K whose learning coefficient lctkit bounds with
-// rlct.BoundAt.
+// rlct.Bound.
 package sbic

@@ -93,11 +93,11 @@ func lowRankSOS(m, n, h int) []string {
 func TestReducedRankAgainstLctkit(t *testing.T) {
 	for h := 1; h <= 3; h++ {
 		spec := rlct.Spec{SOS: lowRankSOS(3, 5, h)}
-		p, pts, err := spec.Problem()
+		p, err := spec.Problem()
 		if err != nil {
 			t.Fatal(err)
 		}
-		res, err := rlct.BoundAt(context.Background(), p, pts, nil)
+		res, err := rlct.Bound(context.Background(), p, nil)
 		if err != nil {
 			t.Fatal(err)
 		}

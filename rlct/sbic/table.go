@@ -62,7 +62,7 @@ import (
 //   - k "EXPR" or sos "g1; g2; …": a function K (or K = Σ g_i²) comparable to
 //     the Kullback–Leibler divergence of M from a truth in T, with the
 //     optional prior, at, order and vars of `lctkit bound` (at may be
-//     repeated for several points). lctkit bounds it (rlct.BoundAt) and the
+//     repeated for several points). lctkit bounds it (rlct.Bound) and the
 //     pair takes λ, θ and the status of the answer.
 //
 // In every form, estimate λ θ gives another value that the sensitivity
@@ -619,12 +619,12 @@ func (p *TablePair) check(seen map[string]bool) error {
 type Computed struct {
 	// Pair is the index of the pair in the table (and in the candidates).
 	Pair int
-	// Result is the answer of rlct.BoundAt.
+	// Result is the answer of rlct.Bound.
 	Result *rlct.Result
 }
 
 // Candidates resolves the table: it maps the names to models, bounds the
-// pairs given by a function with rlct.BoundAt (opt may be nil; limits on
+// pairs given by a function with rlct.Bound (opt may be nil; limits on
 // the expansion come from each Spec's Limits, which the caller may set
 // beforehand), and validates the whole with New. It returns the candidates,
 // the log-likelihoods (one per model, as Scores and Choose take them) and
@@ -705,11 +705,11 @@ func (t *Table) Candidates(ctx context.Context, opt *rlct.Options) (*Candidates,
 
 // boundSpec parses a spec and bounds it at its points.
 func boundSpec(ctx context.Context, s *rlct.Spec, opt *rlct.Options) (*rlct.Result, error) {
-	p, pts, err := s.Problem()
+	p, err := s.Problem()
 	if err != nil {
 		return nil, err
 	}
-	return rlct.BoundAt(ctx, p, pts, opt)
+	return rlct.Bound(ctx, p, opt)
 }
 
 // boundError is an error of lctkit's bound of a pair's K, with the place in

@@ -279,11 +279,11 @@ func candidates() (*sbic.Candidates, []pairSpec, []*rlct.Result, error) {
 		p := sbic.Pair{Model: ps.h, Truth: ps.r, Lambda: ps.value.Lambda, Theta: ps.value.Theta, Status: rlct.Exact, Source: ps.source}
 		if ps.sos != nil {
 			spec := rlct.Spec{SOS: ps.sos}
-			prob, pts, err := spec.Problem()
+			prob, err := spec.Problem()
 			if err != nil {
 				return nil, nil, nil, err
 			}
-			res, err := rlct.BoundAt(context.Background(), prob, pts, nil)
+			res, err := rlct.Bound(context.Background(), prob, nil)
 			if err != nil {
 				return nil, nil, nil, err
 			}
