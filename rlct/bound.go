@@ -66,49 +66,55 @@ func (o *Options) maxFaces() int {
 	return DefaultMaxFaces
 }
 
-// Result is the answer for one point.
+// Result is the answer for one point, or for several (see Locals). It is
+// its own JSON form: encoding/json writes it with the field names below,
+// and exact numbers as strings in lowest terms ("3/4", "2"), so no value
+// passes through a float.
 type Result struct {
 	// Lambda is 1/t_τ, the Newton value of the learning coefficient.
-	Lambda *big.Rat
+	Lambda *big.Rat `json:"lambda"`
 	// Theta is the codimension of the principal face.
-	Theta int
+	Theta int `json:"theta"`
 	// Status is Exact, UpperBound or Uncertified.
-	Status Status
-	// Reasons says why the status is not Exact (empty when it is).
-	Reasons []string
-	// Notes are remarks that change no value (see Local.Notes).
-	Notes []string
+	Status Status `json:"status"`
+	// Summary says in one sentence what the status claims, and for a value
+	// that is not a bound, what would certify it.
+	Summary string `json:"summary"`
 	// Distance is t_τ of the Newton polyhedron of K.
-	Distance *big.Rat
+	Distance *big.Rat `json:"distance"`
 	// Vars names the variables in order.
-	Vars []string
+	Vars []string `json:"variables"`
 	// Prior is h per variable as given (zeros for a uniform prior).
-	Prior []*big.Rat
+	Prior []*big.Rat `json:"prior"`
 	// Weights is τ: τ_i = h_i + 1 where w*_i = 0, and 1 elsewhere (see
 	// Problem.Prior).
-	Weights []*big.Rat
+	Weights []*big.Rat `json:"weights"`
 	// Point is w*.
-	Point []*big.Rat
+	Point []*big.Rat `json:"point"`
 	// Form is "polynomial" or "sum-of-squares".
-	Form string
+	Form string `json:"form"`
+	// Reasons says why the status is not Exact (empty when it is).
+	Reasons []string `json:"reasons,omitempty"`
+	// Notes are remarks that change no value (see Local.Notes).
+	Notes []string `json:"notes,omitempty"`
 	// Principal is the face of P(K) holding t_τ·τ in its relative interior.
-	Principal FaceReport
+	Principal Face `json:"principal_face,omitzero"`
 	// Certificate records how the faces were decided: how many could be
 	// degenerate, how many were examined, and the faces that decided the
 	// status. Nil when no face needed deciding because a truncated series
 	// had already settled the status.
-	Certificate *Certificate
+	Certificate *Certificate `json:"certificate,omitempty"`
 	// Faces has one entry per compact face of P(K), by dimension, only
 	// when Options.AllFaces was set and the faces could be enumerated.
-	Faces []FaceReport
+	Faces []Face `json:"nondegeneracy,omitempty"`
 	// Truncation is the check of a truncated series, nil when K is exact.
-	Truncation *TruncationReport
+	Truncation *Truncation `json:"truncation,omitempty"`
 	// Locals holds the answer at each point when several were given, in
 	// the order of Problem.Points; the fields above are then those of the
-	// minimum over them, except Status and Reasons, which are those of the
-	// minimum as a bound on the learning coefficient of the whole problem
-	// (see Bound).
-	Locals []*Result
+	// minimum over them, except Status, Summary and Reasons, which are
+	// those of the minimum as a bound on the learning coefficient of the
+	// whole problem (see Bound).
+	Locals []*Result `json:"locals,omitempty"`
 
 	newton *polyhedron.Newton
 	scale  int
@@ -241,6 +247,7 @@ func boundLocal(ctx context.Context, l *Local, order int, truncated bool, opt *O
 	case len(res.Reasons) > 0:
 		res.Status = UpperBound
 	}
+	res.Summary = res.summary()
 	return res, nil
 }
 
@@ -286,12 +293,13 @@ func minimum(locals []*Result) *Result {
 	default:
 		out.Status = Exact
 	}
+	out.Summary = out.summary()
 	return &out
 }
 
-// Headline says in one sentence what the status of r claims, and for a
+// summary says in one sentence what the status of r claims, and for a
 // value that is not a bound, what would certify it.
-func (r *Result) Headline() string {
+func (r *Result) summary() string {
 	switch r.Status {
 	case Exact:
 		return "exact: λ and θ are the learning coefficient and its multiplicity, with a certificate"

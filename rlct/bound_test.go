@@ -94,7 +94,7 @@ func TestDegenerateWitness(t *testing.T) {
 	// univariate polynomial has the double root 1 (common practice: y = x²
 	// is a zero of the face polynomial with x, y ≠ 0).
 	r := solve(t, &Spec{K: "(y-x^2)^2"})
-	var deg *FaceReport
+	var deg *Face
 	for i := range r.Certificate.Deciding {
 		if r.Certificate.Deciding[i].Verdict == Degenerate {
 			deg = &r.Certificate.Deciding[i]

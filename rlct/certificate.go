@@ -26,29 +26,30 @@ import (
 // terms of one generator: those midpoints are the unsafe points. Bound
 // finds the smallest face holding each unsafe point (an exact LP), then
 // the faces above it, and decides only those; it never builds the whole
-// face lattice unless asked to (Options.AllFaces).
+// face lattice unless asked to (Options.AllFaces). It is its own JSON form.
 type Certificate struct {
 	// Unsafe is the number of unsafe points that could lie on a compact
 	// face (those dominating another support point cannot).
-	Unsafe int
+	Unsafe int `json:"unsafe_points"`
 	// Examined is the number of compact faces decided.
-	Examined int
+	Examined int `json:"faces_examined"`
 	// ByRule counts the examined faces by the rule that decided them
 	// (RuleNone for undetermined faces).
-	ByRule map[string]int
+	ByRule map[string]int `json:"by_rule,omitempty"`
 	// Degenerate and Undetermined count the examined faces with those
 	// verdicts.
-	Degenerate, Undetermined int
+	Degenerate   int `json:"degenerate"`
+	Undetermined int `json:"undetermined"`
 	// Complete is true when every compact face that could be degenerate
 	// was examined.
-	Complete bool
+	Complete bool `json:"complete"`
 	// Stop says why the search ended before it was complete: StopSettled
 	// or StopBudget; empty when it was complete.
-	Stop string
+	Stop string `json:"stopped,omitempty"`
 	// Deciding lists the faces that decided the status: the degenerate face
 	// with its witness, and the first undetermined faces; empty when the
 	// status is Exact.
-	Deciding []FaceReport
+	Deciding []Face `json:"deciding_faces,omitempty"`
 }
 
 // Reasons the certificate search can end early (Certificate.Stop).
@@ -298,7 +299,7 @@ func (s *search) visit(f *polyhedron.Face, climb bool) error {
 }
 
 // keep records a face that decides the status.
-func (s *search) keep(fr *FaceReport) {
+func (s *search) keep(fr *Face) {
 	if len(s.cert.Deciding) < maxDeciding {
 		s.cert.Deciding = append(s.cert.Deciding, *fr)
 	}
@@ -329,7 +330,7 @@ func (s *search) finish() {
 // examine decides one compact face: it first looks for a torus point where
 // the face polynomial is negative (polynomial form), which makes K negative
 // near the point and is an error, then applies the rules.
-func (an *analysis) examine(ctx context.Context, f *polyhedron.Face) (*FaceReport, error) {
+func (an *analysis) examine(ctx context.Context, f *polyhedron.Face) (*Face, error) {
 	parts := an.parts(f)
 	fr := an.report(f, parts)
 	exposes, err := an.res.newton.Exposes(ctx, f)

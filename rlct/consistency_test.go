@@ -165,7 +165,7 @@ func TestTargetedAgreesWithFullLattice(t *testing.T) {
 // checkWitness substitutes the witness of a degenerate face into its face
 // polynomial: exactly zero for an exact witness; for a witness with decimal
 // coordinates (an irrational root), small compared with its terms.
-func checkWitness(t *testing.T, vars []string, f FaceReport, sos bool) {
+func checkWitness(t *testing.T, vars []string, f Face, sos bool) {
 	t.Helper()
 	if f.Witness == nil {
 		t.Fatalf("degenerate face %s without witness", formatVertices(f.Vertices))

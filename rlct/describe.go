@@ -15,45 +15,48 @@ import (
 // bound computed from it: the vertices with the terms of K there, the facets
 // as inequalities, the exponents it was built from, and the point t_τ·τ where
 // the weighted ray meets it. Everything is in P(K) coordinates, so in
-// sum-of-squares form the exponents are twice those of the generators.
+// sum-of-squares form the exponents are twice those of the generators. Its
+// JSON form is that of the Result with "vertices", "facets" and "hit_point"
+// beside it.
 type Description struct {
 	// Result is the bound, exactly as Bound returns it.
 	*Result
 	// Vertices are the vertices of P(K), sorted lexicographically.
-	Vertices []VertexReport
+	Vertices []Vertex `json:"vertices"`
 	// Facets are the facets of P(K), sorted by normal and then right-hand
 	// side.
-	Facets []FacetReport
+	Facets []Facet `json:"facets"`
 	// Support holds the points whose Newton polyhedron P(K) is: the
 	// exponents of K, or in sum-of-squares form twice the exponents of the
 	// generators, without duplicates, sorted lexicographically.
-	Support [][]int
+	Support [][]int `json:"-"`
 	// Hit is t_τ·τ, the point where the ray from the origin along τ meets
 	// P(K); it lies in the relative interior of the principal face.
-	Hit []*big.Rat
+	Hit []*big.Rat `json:"hit_point"`
 }
 
-// VertexReport is a vertex of P(K) with the term of K there.
-type VertexReport struct {
+// Vertex is a vertex of P(K) with the term of K there.
+type Vertex struct {
 	// Exponent is the vertex, an exponent vector of K.
-	Exponent []int
+	Exponent []int `json:"exponent"`
 	// Monomial is w^Exponent in the parser's syntax, such as "x^4*y^2".
-	Monomial string
+	Monomial string `json:"monomial"`
 	// Coefficient is the coefficient of w^Exponent in K; it is never zero.
 	// In sum-of-squares form it is Σ_i c_i² with c_i from Generators: the
 	// vertex is 2v for a vertex v of P(⟨g_1, …, g_r⟩), and the only way to
 	// write 2v as a sum of two exponents of the generators is v + v, because
 	// v is a vertex (common practice).
-	Coefficient *big.Rat
+	Coefficient *big.Rat `json:"coefficient"`
 	// Generators holds, in sum-of-squares form only, the coefficient c_i of
 	// w^(Exponent/2) in each generator g_i (zero where g_i lacks the term);
 	// nil in polynomial form.
-	Generators []*big.Rat
+	Generators []*big.Rat `json:"generators,omitempty"`
 }
 
-// FacetReport is a facet of P(K): the inequality a·x ≥ b holds on P(K), and
-// the facet is P(K) ∩ {a·x = b}.
-type FacetReport struct {
+// Facet is a facet of P(K): the inequality a·x ≥ b holds on P(K), and
+// the facet is P(K) ∩ {a·x = b}. In JSON the integers of Normal and RHS are
+// strings, as every exact number is.
+type Facet struct {
 	// Normal is a, a primitive vector of non-negative integers.
 	Normal []*big.Int
 	// RHS is b.
@@ -109,10 +112,10 @@ func describe(ctx context.Context, res *Result, l *Local) (*Description, error) 
 		return nil, err
 	}
 	for _, v := range verts {
-		d.Vertices = append(d.Vertices, vertexReport(res.Vars, l.Polys, v, l.SumOfSquares, scale))
+		d.Vertices = append(d.Vertices, newVertex(res.Vars, l.Polys, v, l.SumOfSquares, scale))
 	}
 	for _, f := range facets {
-		d.Facets = append(d.Facets, facetReport(res.Vars, res.newton.Points(), f, scale))
+		d.Facets = append(d.Facets, newFacet(res.Vars, res.newton.Points(), f, scale))
 	}
 	d.Support = scaledSupport(l.Polys, scale)
 	for _, w := range res.Weights {
@@ -121,9 +124,9 @@ func describe(ctx context.Context, res *Result, l *Local) (*Description, error) 
 	return d, nil
 }
 
-// vertexReport describes the vertex v of the base polyhedron.
-func vertexReport(vars []string, polys []*monomial.Poly, v []int, sos bool, scale int) VertexReport {
-	vr := VertexReport{Exponent: scaled(v, scale)}
+// newVertex describes the vertex v of the base polyhedron.
+func newVertex(vars []string, polys []*monomial.Poly, v []int, sos bool, scale int) Vertex {
+	vr := Vertex{Exponent: scaled(v, scale)}
 	vr.Monomial = monomial.Monomial(vars, monomial.Exponent(vr.Exponent), big.NewRat(1, 1)).String()
 	if !sos {
 		vr.Coefficient = polys[0].Coefficient(monomial.Exponent(v))
@@ -139,9 +142,9 @@ func vertexReport(vars []string, polys []*monomial.Poly, v []int, sos bool, scal
 	return vr
 }
 
-// facetReport describes facet f of the base polyhedron in P(K) coordinates.
-func facetReport(vars []string, verts [][]int, f polyhedron.Facet, scale int) FacetReport {
-	fr := FacetReport{Normal: f.Normal, RHS: new(big.Int).Mul(f.RHS, big.NewInt(int64(scale)))}
+// newFacet describes facet f of the base polyhedron in P(K) coordinates.
+func newFacet(vars []string, verts [][]int, f polyhedron.Facet, scale int) Facet {
+	fr := Facet{Normal: f.Normal, RHS: new(big.Int).Mul(f.RHS, big.NewInt(int64(scale)))}
 	fr.Inequality = FormatInequality(vars, fr.Normal, fr.RHS)
 	for _, j := range f.Vertices {
 		fr.Vertices = append(fr.Vertices, scaled(verts[j], scale))
@@ -205,51 +208,4 @@ func scaled(v []int, scale int) []int {
 // sortLex sorts integer vectors of one length lexicographically.
 func sortLex(vs [][]int) {
 	slices.SortFunc(vs, slices.Compare[[]int])
-}
-
-// DescriptionReport is the JSON form of a Description: the fields of Report
-// and, beside them, the vertices and facets.
-type DescriptionReport struct {
-	*Report
-	Vertices []VertexJSON `json:"vertices"`
-	Facets   []FacetJSON  `json:"facets"`
-	// Hit is t_τ·τ.
-	Hit []string `json:"hit_point"`
-}
-
-// VertexJSON is the JSON form of a VertexReport; numbers are exact strings.
-type VertexJSON struct {
-	Exponent    []int    `json:"exponent"`
-	Monomial    string   `json:"monomial"`
-	Coefficient string   `json:"coefficient"`
-	Generators  []string `json:"generators,omitempty"`
-}
-
-// FacetJSON is the JSON form of a FacetReport; numbers are exact strings.
-type FacetJSON struct {
-	Normal     []string `json:"normal"`
-	RHS        string   `json:"rhs"`
-	Inequality string   `json:"inequality"`
-	Vertices   [][]int  `json:"vertices"`
-	Rays       []string `json:"rays,omitempty"`
-}
-
-// Report returns the JSON form of d.
-func (d *Description) Report() *DescriptionReport {
-	out := &DescriptionReport{Report: d.Result.Report(), Hit: ratStrings(d.Hit)}
-	for _, v := range d.Vertices {
-		vj := VertexJSON{Exponent: v.Exponent, Monomial: v.Monomial, Coefficient: v.Coefficient.RatString()}
-		if v.Generators != nil {
-			vj.Generators = ratStrings(v.Generators)
-		}
-		out.Vertices = append(out.Vertices, vj)
-	}
-	for _, f := range d.Facets {
-		fj := FacetJSON{RHS: f.RHS.String(), Inequality: f.Inequality, Vertices: f.Vertices, Rays: f.Rays}
-		for _, a := range f.Normal {
-			fj.Normal = append(fj.Normal, a.String())
-		}
-		out.Facets = append(out.Facets, fj)
-	}
-	return out
 }

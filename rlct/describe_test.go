@@ -1,7 +1,9 @@
 package rlct
 
 import (
+	"bytes"
 	"context"
+	"encoding/json"
 	"fmt"
 	"math/big"
 	"math/rand/v2"
@@ -255,24 +257,68 @@ func TestDescribeSOSAgainstExpansion(t *testing.T) {
 	}
 }
 
-func TestDescribeReportJSON(t *testing.T) {
+// The JSON form of a Description: the Result's fields with the vertices,
+// facets and hit point beside them, exact numbers as strings.
+func TestDescribeJSON(t *testing.T) {
 	d := describeSpec(t, &Spec{SOS: []string{"x; y^2"}})
-	rep := d.Report()
+	var buf bytes.Buffer
+	enc := json.NewEncoder(&buf)
+	enc.SetEscapeHTML(false) // as the command line writes it
+	if err := enc.Encode(d); err != nil {
+		t.Fatal(err)
+	}
+	data := buf.Bytes()
+	var rep struct {
+		Lambda   string `json:"lambda"`
+		Vertices []struct {
+			Exponent    []int    `json:"exponent"`
+			Monomial    string   `json:"monomial"`
+			Coefficient string   `json:"coefficient"`
+			Generators  []string `json:"generators"`
+		} `json:"vertices"`
+		Facets []struct {
+			Normal     []string `json:"normal"`
+			RHS        string   `json:"rhs"`
+			Inequality string   `json:"inequality"`
+			Vertices   [][]int  `json:"vertices"`
+			Rays       []string `json:"rays"`
+		} `json:"facets"`
+		Hit []string `json:"hit_point"`
+	}
+	if err := json.Unmarshal(data, &rep); err != nil {
+		t.Fatalf("%v in %s", err, data)
+	}
 	if rep.Lambda != "3/4" || len(rep.Vertices) != 2 || len(rep.Facets) != 3 {
-		t.Fatalf("report %+v", rep)
+		t.Fatalf("JSON %s", data)
 	}
 	// P(K) for K = x² + y⁴: vertices (2,0) and (0,4), edge 2x + y ≥ 4 (by
 	// hand); λ = 1/2 + 1/4 (common practice: λ of a sum of monomials in
 	// separate variables adds).
-	if got := rep.Vertices[0]; !slices.Equal(got.Exponent, []int{0, 4}) || got.Coefficient != "1" || !slices.Equal(got.Generators, []string{"0", "1"}) {
+	if got := rep.Vertices[0]; !slices.Equal(got.Exponent, []int{0, 4}) || got.Monomial != "y^4" || got.Coefficient != "1" || !slices.Equal(got.Generators, []string{"0", "1"}) {
 		t.Errorf("first vertex %+v", got)
 	}
-	if got := rep.Facets[0]; got.Inequality != "y >= 0" || got.RHS != "0" {
+	if got := rep.Facets[0]; got.Inequality != "y >= 0" || got.RHS != "0" || !slices.Equal(got.Normal, []string{"0", "1"}) || !slices.Equal(got.Rays, []string{"x"}) {
 		t.Errorf("first facet %+v", got)
+	}
+	if got := rep.Facets[2]; got.Inequality != "2*x + y >= 4" || got.RHS != "4" || len(got.Rays) != 0 {
+		t.Errorf("last facet %+v", got)
 	}
 	if !slices.Equal(rep.Hit, []string{"4/3", "4/3"}) {
 		t.Errorf("hit %v", rep.Hit)
 	}
+	// Without HTML escaping '>' reads as it is; the support is not written.
+	if !strings.Contains(string(data), `"inequality":"2*x + y >= 4"`) || strings.Contains(string(data), "support") {
+		t.Errorf("JSON %s", data)
+	}
+}
+
+// ratStrings writes exact values in lowest terms.
+func ratStrings(xs []*big.Rat) []string {
+	out := make([]string, len(xs))
+	for i, x := range xs {
+		out[i] = x.RatString()
+	}
+	return out
 }
 
 func ExampleDescribe() {

@@ -47,7 +47,7 @@
 //     nothing here claims that it does.
 //   - Uncertified: the value of a truncated series whose omitted terms
 //     could change it. It is not known to bound anything and may lie below
-//     the true λ; TruncationReport says which order would certify it.
+//     the true λ; Truncation says which order would certify it.
 //
 // # The certificate
 //
@@ -95,7 +95,7 @@
 // hyperplane at t_τ·τ (then the value is that of the full K: UpperBound or
 // better) and, for Exact, above every compact face (then the face verdicts
 // carry over); otherwise the value is Uncertified. Both checks are exact and
-// need no facet enumeration; see TruncationReport.
+// need no facet enumeration; see Truncation.
 //
 // # Numerical estimates
 //

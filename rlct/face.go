@@ -23,13 +23,18 @@ const (
 	Undetermined FaceVerdict = "undetermined"
 )
 
-// FaceReport describes a face of P(K) and, for compact faces that were
-// examined, how its nondegeneracy was decided.
-type FaceReport struct {
-	Dim       int
-	Codim     int
-	Compact   bool
-	Principal bool // the face holds t_τ·τ in its relative interior
+// Face describes a face of P(K) and, for compact faces that were
+// examined, how its nondegeneracy was decided. In JSON the integers of
+// Normal and RHS are strings, as every exact number is.
+type Face struct {
+	// Dim is the dimension of the face, Codim its codimension.
+	Dim   int
+	Codim int
+	// Compact reports that the face is bounded (it has no rays).
+	Compact bool
+	// Principal reports that the face holds t_τ·τ in its relative
+	// interior.
+	Principal bool
 	// Vertices are exponent vectors in P(K) (in sum-of-squares form, twice
 	// those of the generators).
 	Vertices [][]int
@@ -84,10 +89,10 @@ type faceCase struct {
 
 // report describes face f of the base polyhedron in P(K) coordinates, with
 // the face polynomial printed from parts (nil: computed here).
-func (an *analysis) report(f *polyhedron.Face, parts []*monomial.Poly) FaceReport {
+func (an *analysis) report(f *polyhedron.Face, parts []*monomial.Poly) Face {
 	d := len(an.vars)
 	verts := an.res.newton.Points()
-	fr := FaceReport{Dim: f.Dim, Codim: f.Codim(d), Compact: f.Compact(), Normal: f.Normal}
+	fr := Face{Dim: f.Dim, Codim: f.Codim(d), Compact: f.Compact(), Normal: f.Normal}
 	fr.RHS = new(big.Int).Mul(f.RHS, big.NewInt(int64(an.res.scale)))
 	for _, j := range f.Vertices {
 		v := make([]int, d)

@@ -14,7 +14,7 @@ import "fmt"
 // unsafe points (see Certificate.Unsafe), so only those faces, and
 // the faces of the full list (Options.AllFaces), reach the rules.
 type faceRule struct {
-	// name is the value of FaceReport.Rule for the faces this rule decides.
+	// name is the value of Face.Rule for the faces this rule decides.
 	name string
 	// decide returns the verdict on fc, or ok = false when the rule does
 	// not apply.
@@ -30,7 +30,7 @@ type decision struct {
 	witness *Witness
 }
 
-// Rule names, the values of FaceReport.Rule.
+// Rule names, the values of Face.Rule.
 const (
 	// RuleVertex: a single term c·w^v (c ≠ 0) never vanishes on the torus.
 	RuleVertex = "vertex"
@@ -72,7 +72,7 @@ var faceRules = []faceRule{
 }
 
 // decideFace applies the rules in order and fills in the verdict of fr.
-func decideFace(fc *faceCase, fr *FaceReport) {
+func decideFace(fc *faceCase, fr *Face) {
 	for _, r := range faceRules {
 		dec, ok := r.decide(fc)
 		if !ok {

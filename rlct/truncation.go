@@ -8,9 +8,9 @@ import (
 	"github.com/lctkit/lctkit/polyhedron"
 )
 
-// TruncationReport is the check that the terms a truncated series left out
+// Truncation is the check that the terms a truncated series left out
 // cannot change the answer.
-type TruncationReport struct {
+type Truncation struct {
 	// Order is the degree at which the series was cut.
 	Order int `json:"order"`
 	// Principal is true when the omitted terms cannot change t_τ, θ or the
@@ -56,10 +56,10 @@ type TruncationReport struct {
 //     and on no compact face exactly when c_i < D+1 (c_i·e_i is a vertex,
 //     and every point beyond it on the axis lies above all compact faces);
 //     without a pure power in w_i no order can rule out new faces.
-func (an *analysis) checkTruncation(ctx context.Context, order int, hit *polyhedron.Hit) (*TruncationReport, error) {
+func (an *analysis) checkTruncation(ctx context.Context, order int, hit *polyhedron.Hit) (*Truncation, error) {
 	res := an.res
 	d := len(an.vars)
-	tr := &TruncationReport{Order: order, BoundOrder: -1, NeededOrder: -1}
+	tr := &Truncation{Order: order, BoundOrder: -1, NeededOrder: -1}
 	newton := res.newton
 
 	// Principal condition.

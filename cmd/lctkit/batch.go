@@ -155,11 +155,12 @@ type batchAnswer struct {
 	failed bool
 }
 
-// batchReply is the JSON form of an answer.
+// batchReply is one output line: the id and line number, then the result
+// or the error.
 type batchReply struct {
 	ID   json.RawMessage `json:"id,omitempty"`
 	Line int             `json:"line"`
-	*rlct.Report
+	result
 }
 
 // Run reads, computes and writes the records.
@@ -273,37 +274,34 @@ func (c *batchCmd) answer(it batchItem) (a batchAnswer) {
 	reply := batchReply{Line: it.line}
 	defer func() {
 		if r := recover(); r != nil { // a bug, not bad input: keep the run going
-			reply.Report = &rlct.Report{Error: fmt.Sprintf("internal error (please report it): %v", r)}
+			reply.result = result{Error: fmt.Sprintf("internal error (please report it): %v", r)}
 		}
-		if reply.Report.Error != "" {
+		if reply.Error != "" {
 			a.failed = true
 		}
-		var buf bytes.Buffer
-		enc := json.NewEncoder(&buf)
-		enc.SetEscapeHTML(false)
-		if err := enc.Encode(&reply); err != nil { // cannot happen: the id was validated
-			buf.Reset()
+		b, err := encodeJSON(&reply)
+		if err != nil { // cannot happen: the id was validated
 			reply.ID = nil
-			reply.Report = &rlct.Report{Error: "cannot encode the answer: " + err.Error()}
-			_ = enc.Encode(&reply)
+			reply.result = result{Error: "cannot encode the answer: " + err.Error()}
+			b, _ = encodeJSON(&reply)
 			a.failed = true
 		}
-		a.json = buf.Bytes()
+		a.json = append(b, '\n')
 	}()
-	reply.Report = c.solve(it, &reply.ID)
+	reply.result = c.solve(it, &reply.ID)
 	return a
 }
 
 // solve answers one record; it sets *id as soon as the id is known.
-func (c *batchCmd) solve(it batchItem, id *json.RawMessage) *rlct.Report {
+func (c *batchCmd) solve(it batchItem, id *json.RawMessage) result {
 	if it.err != nil {
-		return &rlct.Report{Error: it.err.Error()}
+		return result{Error: it.err.Error()}
 	}
 	if it.line == 1 { // a byte order mark, as some editors write
 		it.data = bytes.TrimPrefix(it.data, []byte("\ufeff"))
 	}
 	if len(bytes.TrimSpace(it.data)) == 0 {
-		return &rlct.Report{Error: "blank line"}
+		return result{Error: "blank line"}
 	}
 	ctx := context.Background()
 	if c.Timeout > 0 {
@@ -314,7 +312,7 @@ func (c *batchCmd) solve(it batchItem, id *json.RawMessage) *rlct.Report {
 	rec, err := rlct.DecodeRecord(it.data)
 	*id = rec.ID
 	if err != nil {
-		return &rlct.Report{Error: err.Error()}
+		return result{Error: err.Error()}
 	}
 	rec.Spec.Limits = monomial.Limits{MaxTerms: c.MaxTerms}
 	p, err := rec.Spec.Problem()
@@ -323,32 +321,38 @@ func (c *batchCmd) solve(it batchItem, id *json.RawMessage) *rlct.Report {
 		r, err = rlct.Bound(ctx, p, &rlct.Options{MaxFaces: c.MaxFaces})
 	}
 	if err != nil && ctx.Err() != nil {
-		return &rlct.Report{Error: "timed out after " + c.Timeout.String()}
+		return result{Error: "timed out after " + c.Timeout.String()}
 	}
 	if err != nil {
 		msg := err.Error()
 		if hint := settingHint(err, recordHints); hint != "" {
 			msg += " (" + hint + ")"
 		}
-		return &rlct.Report{Error: msg}
+		return result{Error: msg}
 	}
-	rep := r.Report()
 	if c.Brief {
-		dropFaces(rep)
+		r = withoutFaces(r)
 	}
-	return rep
+	return result{Result: r}
 }
 
-// dropFaces removes the faces from rep and its local reports.
-func dropFaces(rep *rlct.Report) {
-	rep.Nondegeneracy = nil
-	rep.PrincipalFace = nil
-	if rep.Certificate != nil {
-		rep.Certificate.Deciding = nil
+// withoutFaces returns a copy of r, and of its local results, without the
+// faces: the principal face, the full face list and the faces that decided
+// the certificate.
+func withoutFaces(r *rlct.Result) *rlct.Result {
+	b := *r
+	b.Principal = rlct.Face{}
+	b.Faces = nil
+	if r.Certificate != nil {
+		cert := *r.Certificate
+		cert.Deciding = nil
+		b.Certificate = &cert
 	}
-	for _, l := range rep.Locals {
-		dropFaces(l)
+	b.Locals = nil
+	for _, l := range r.Locals {
+		b.Locals = append(b.Locals, withoutFaces(l))
 	}
+	return &b
 }
 
 // errLineTooLong is returned by lineReader.next for a line over its limit.

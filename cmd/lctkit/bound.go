@@ -2,7 +2,6 @@ package main
 
 import (
 	"context"
-	"encoding/json"
 	"errors"
 	"fmt"
 	"io"
@@ -119,7 +118,7 @@ type boundCmd struct {
 	problemFlags
 	N        string `help:"Also print the penalty λ·log n − (θ−1)·log log n at these sample sizes (comma separated)." placeholder:"1000,10000"`
 	AllFaces bool   `name:"all-faces" help:"Decide and list every compact face of the Newton polyhedron (the full per-face report, which can be very large); the status is the same without it."`
-	JSON     bool   `help:"Print one JSON object."`
+	jsonFlag
 }
 
 // Help is shown under the command's usage.
@@ -159,27 +158,32 @@ func (c *boundCmd) Run(e *env) error {
 	if err != nil {
 		return badFlag("--n", err)
 	}
-	if note != "" && !c.JSON {
-		fmt.Fprintln(e.stdout, note)
-	}
 	opt := c.options()
 	opt.AllFaces = c.AllFaces
 	r, err := solve(s, opt, e)
 	if err != nil {
-		if c.JSON {
-			writeJSONError(e, err)
-		}
 		return err
 	}
-	rep := r.Report()
+	a := &boundAnswer{Result: r, note: note}
 	if ns != nil {
-		rep.Penalty = rlct.NewPenaltyReport(r.Lambda, r.Theta, r.Status, len(r.Vars), ns)
+		a.Penalty = rlct.NewPenalties(r.Lambda, r.Theta, r.Status, len(r.Vars), ns)
 	}
-	if c.JSON {
-		return writeJSON(e.stdout, rep)
+	return e.print(a, c.JSON)
+}
+
+// boundAnswer is what bound prints: the result and, with --n, the
+// penalties.
+type boundAnswer struct {
+	*rlct.Result
+	Penalty *rlct.Penalties `json:"penalty,omitempty"`
+	note    string          // says that the bundled example is evaluated (text only)
+}
+
+func (a *boundAnswer) writeText(w io.Writer) {
+	if a.note != "" {
+		fmt.Fprintln(w, a.note)
 	}
-	writeBound(e.stdout, r, rep.Penalty)
-	return nil
+	writeBound(w, a.Result, a.Penalty)
 }
 
 // parseSizes reads "1000,10000" as sample sizes, each above e.
@@ -198,25 +202,6 @@ func parseSizes(s string) ([]float64, error) {
 	return out, nil
 }
 
-// writeJSONError prints {"error": …} for a failed command run with --json,
-// also when the message was already shown on stderr with a caret.
-func writeJSONError(e *env, err error) {
-	var ee exitError
-	if errors.As(err, &ee) {
-		if ee.err == nil {
-			return
-		}
-		err = ee.err
-	}
-	writeJSON(e.stdout, &rlct.Report{Error: err.Error()})
-}
-
-func writeJSON(w io.Writer, v any) error {
-	enc := json.NewEncoder(w)
-	enc.SetEscapeHTML(false)
-	return enc.Encode(v)
-}
-
 // statusWord is the status as the text output names it.
 func statusWord(s rlct.Status) string {
 	switch s {
@@ -230,7 +215,7 @@ func statusWord(s rlct.Status) string {
 
 // writeBound prints the plain-text answer. With several points it prints
 // the minimum, then each point's answer under its own label.
-func writeBound(w io.Writer, r *rlct.Result, pen *rlct.PenaltyReport) {
+func writeBound(w io.Writer, r *rlct.Result, pen *rlct.Penalties) {
 	fmt.Fprintf(w, "λ = %s   θ = %d   (%s)\n", r.Lambda.RatString(), r.Theta, statusWord(r.Status))
 	writeStatusLine(w, r, "  ")
 	if len(r.Locals) == 0 {
@@ -272,7 +257,7 @@ func writeStatusLine(w io.Writer, r *rlct.Result, indent string) {
 		fmt.Fprintf(w, "%sthe true λ is at most %s, and if it equals %s the true θ is at least %d (θ is ordered together with λ)\n",
 			indent, r.Lambda.RatString(), r.Lambda.RatString(), r.Theta)
 	case rlct.Uncertified:
-		fmt.Fprintf(w, "%s%s\n", indent, r.Headline())
+		fmt.Fprintf(w, "%s%s\n", indent, r.Summary)
 	}
 }
 
@@ -359,7 +344,7 @@ func shortPolynomial(p string, terms int) string {
 
 // writePenaltyLines prints the penalties, each marked when the pair is not
 // exact, with a note that says what such a penalty is not.
-func writePenaltyLines(w io.Writer, pen *rlct.PenaltyReport, indent string) {
+func writePenaltyLines(w io.Writer, pen *rlct.Penalties, indent string) {
 	fmt.Fprintf(w, "%spenalty (asymptotic, in nats):\n", indent[2:])
 	mark := ""
 	if pen.Status != rlct.Exact {

@@ -18,9 +18,9 @@ import (
 
 // chooseCmd scores candidate models by the singular BIC.
 type chooseCmd struct {
-	Table    string `arg:"" help:"The candidates: a table in the text form or JSON, as described under the usage; - reads it from standard input."`
-	N        string `help:"The sample size, in place of the table's n line." placeholder:"N"`
-	JSON     bool   `help:"Print one JSON object."`
+	Table string `arg:"" help:"The candidates: a table in the text form or JSON, as described under the usage; - reads it from standard input."`
+	N     string `help:"The sample size, in place of the table's n line." placeholder:"N"`
+	jsonFlag
 	SVG      string `name:"svg" help:"Also draw the sBIC and the BIC of every candidate to this SVG file." placeholder:"FILE"`
 	MaxFaces int    `name:"max-faces" help:"Most compact faces the certificate examines for a pair given by K (default 20000)." placeholder:"N"`
 	MaxTerms int    `name:"max-terms" help:"Most terms an expansion of a pair's K may have (default 2000000)." placeholder:"N"`
@@ -110,16 +110,7 @@ func (c *chooseCmd) Run(e *env) error {
 			return c.fail(e, err)
 		}
 	}
-	if c.JSON {
-		out := chooseJSON{Report: res.Report()}
-		for _, cp := range computed {
-			ref := cands.Ref(cp.Pair)
-			out.Bounds = append(out.Bounds, chooseBoundJSON{PairRef: ref, Summary: cp.Result.Headline(), Reasons: cp.Result.Reasons})
-		}
-		return writeJSON(e.stdout, out)
-	}
-	writeChoose(e.stdout, res, computed)
-	return nil
+	return e.print(&chooseAnswer{res: res, computed: computed}, c.JSON)
 }
 
 // read returns the table's bytes, from the file or standard input.
@@ -139,7 +130,7 @@ func (c *chooseCmd) read(e *env) ([]byte, error) {
 }
 
 // fail prints err (with a caret under an expression's error) and returns
-// the exit error; with --json it also prints {"error": …}.
+// the exit error.
 func (c *chooseCmd) fail(e *env, err error) error {
 	fmt.Fprintln(e.stderr, "lctkit:", err)
 	if hint := settingHint(err, flagHints); hint != "" {
@@ -155,23 +146,33 @@ func (c *chooseCmd) fail(e *env, err error) error {
 				strings.Repeat(" ", utf8.RuneCountInString(prefix)), strings.Repeat(" ", max(pe.Col, 1)-1))
 		}
 	}
-	if c.JSON {
-		writeJSON(e.stdout, &rlct.Report{Error: err.Error()})
-	}
 	return exitError{exitFailed, err}
 }
 
-// chooseJSON is the JSON output: the report and, for the pairs lctkit
-// bounded, what the bound claims and why.
-type chooseJSON struct {
-	*sbic.Report
-	Bounds []chooseBoundJSON `json:"bounds,omitempty"`
+// chooseAnswer is what choose prints: the scores and choices and, for the
+// pairs lctkit bounded, what each bound claims and why.
+type chooseAnswer struct {
+	res      *sbic.Result
+	computed []sbic.Computed
 }
 
-type chooseBoundJSON struct {
-	sbic.PairRef
-	Summary string   `json:"summary"`
-	Reasons []string `json:"reasons,omitempty"`
+func (a *chooseAnswer) writeText(w io.Writer) { writeChoose(w, a.res, a.computed) }
+
+// MarshalJSON writes the JSON form of the sbic result followed by
+// "bounds": the summary and reasons of each pair lctkit bounded.
+func (a *chooseAnswer) MarshalJSON() ([]byte, error) {
+	type bound struct {
+		sbic.PairRef
+		Summary string   `json:"summary"`
+		Reasons []string `json:"reasons,omitempty"`
+	}
+	var extra struct {
+		Bounds []bound `json:"bounds,omitempty"`
+	}
+	for _, cp := range a.computed {
+		extra.Bounds = append(extra.Bounds, bound{a.res.Candidates().Ref(cp.Pair), cp.Result.Summary, cp.Result.Reasons})
+	}
+	return mergeJSON(a.res, extra)
 }
 
 // scoreStatus names what a score rests on.
@@ -274,7 +275,7 @@ func writeChoose(w io.Writer, r *sbic.Result, computed []sbic.Computed) {
 		}
 		fmt.Fprintf(w, "  %-*s  λ = %-*s  θ = %d  %-12s %s\n", pw, names[i], lw, p.Lambda.RatString(), p.Theta, statusWord(p.Status), extra)
 		if res, ok := headline[i]; ok && res.Status == rlct.Uncertified {
-			fmt.Fprintf(w, "  %-*s  lctkit: %s\n", pw, "", res.Headline())
+			fmt.Fprintf(w, "  %-*s  lctkit: %s\n", pw, "", res.Summary)
 		}
 	}
 	fmt.Fprintln(w, "  (exact: certified by lctkit for a pair computed from K; as the table declares it for a pair given by value)")

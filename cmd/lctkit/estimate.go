@@ -38,8 +38,8 @@ type estimateCmd struct {
 	Decades float64 `help:"Decades of n in the fitted grid (default 6, at most 10)." placeholder:"D"`
 	Start   float64 `help:"Low end of the grid: n·(median of K) = 10^START (default 2, up to 6). Raise it when the low end is not yet asymptotic." placeholder:"START"`
 	Workers int     `help:"Goroutines (default: all cores). The numbers do not depend on it." placeholder:"N"`
-	JSON    bool    `help:"Print one JSON object."`
-	SVG     string  `name:"svg" help:"Also draw n·E_n[K] against n with error bars, the fitted curve and the Newton bound to this SVG file." placeholder:"FILE"`
+	jsonFlag
+	SVG string `name:"svg" help:"Also draw n·E_n[K] against n with error bars, the fitted curve and the Newton bound to this SVG file." placeholder:"FILE"`
 }
 
 // Help is shown under the command's usage.
@@ -80,16 +80,6 @@ Examples:
   lctkit estimate --sos 's*g1 - 1; s*g2' --at s=1,g1=1 --box=-0.5:0.5 --json`
 }
 
-// Run estimates and prints. With --json, an error is also printed as an
-// object {"error": …}, as by lctkit bound.
-func (c *estimateCmd) Run(e *env) error {
-	err := c.run(e)
-	if err != nil && c.JSON {
-		writeJSONError(e, err)
-	}
-	return err
-}
-
 // problem returns the flags as those of bound, with the one point.
 func (c *estimateCmd) problem() *problemFlags {
 	f := &problemFlags{Prior: c.Prior, SOS: c.SOS, Order: c.Order, Vars: c.Vars, MaxFaces: c.MaxFaces, MaxTerms: c.MaxTerms}
@@ -104,7 +94,8 @@ func (c *estimateCmd) Validate() error {
 	return c.problem().Validate()
 }
 
-func (c *estimateCmd) run(e *env) error {
+// Run estimates and prints.
+func (c *estimateCmd) Run(e *env) error {
 	flags := c.problem()
 	s, note, err := flags.spec(c.Expr, e)
 	if err != nil {
@@ -152,7 +143,7 @@ func (c *estimateCmd) run(e *env) error {
 	}
 
 	res := &estimateResult{
-		title: pictureTitle(s), vars: vars, point: at.Point, lower: lower, upper: upper, prior: prior,
+		title: pictureTitle(s), note: note, vars: vars, point: at.Point, lower: lower, upper: upper, prior: prior,
 		est: est, seed: c.Seed, bound: bound, boundErr: berr, truncated: p.Truncated, order: p.Order,
 		priorNotes: at.Notes,
 	}
@@ -166,14 +157,7 @@ func (c *estimateCmd) run(e *env) error {
 			return fmt.Errorf("writing the plot: %w", err)
 		}
 	}
-	if c.JSON {
-		return writeJSON(e.stdout, res.report())
-	}
-	if note != "" {
-		fmt.Fprintln(e.stdout, note)
-	}
-	res.write(e.stdout)
-	return nil
+	return e.print(res, c.JSON)
 }
 
 // boundRefuses reports whether a failure of the bound means that there is

@@ -16,6 +16,7 @@ import (
 // or a plot.
 type estimateResult struct {
 	title        string // "K = …" as the user wrote it
+	note         string // says that the bundled example is estimated (text only)
 	vars         []string
 	point        []*big.Rat // nil for the origin
 	lower, upper []float64
@@ -147,8 +148,11 @@ func (r *estimateResult) shifted(offsets []float64) []float64 {
 	return out
 }
 
-// write prints the plain-text answer.
-func (r *estimateResult) write(w io.Writer) {
+// writeText prints the plain-text answer.
+func (r *estimateResult) writeText(w io.Writer) {
+	if r.note != "" {
+		fmt.Fprintln(w, r.note)
+	}
 	e := r.est
 	fmt.Fprintln(w, "Numerical ESTIMATE by nested sampling, not a proof.")
 	for _, l := range wrap(estimateCaution, 78) {
@@ -278,7 +282,7 @@ type estimateJSON struct {
 	ThetaSE     jsonFloat           `json:"theta_se"`
 	Offset      jsonFloat           `json:"offset"`
 	Points      []estimatePointJSON `json:"points"`
-	Bound       *rlct.Report        `json:"bound"`
+	Bound       result              `json:"bound"`
 	Verdict     string              `json:"verdict"`
 	Consistent  *bool               `json:"consistent,omitempty"`
 	Sigmas      *jsonFloat          `json:"sigmas,omitempty"`
@@ -306,8 +310,11 @@ type otherZeroJSON struct {
 	Share   jsonFloat   `json:"share"`
 }
 
-// report returns the JSON form.
-func (r *estimateResult) report() *estimateJSON {
+// MarshalJSON writes the JSON form.
+func (r *estimateResult) MarshalJSON() ([]byte, error) { return encodeJSON(r.jsonForm()) }
+
+// jsonForm returns the JSON form.
+func (r *estimateResult) jsonForm() *estimateJSON {
 	e := r.est
 	out := &estimateJSON{
 		Estimate:  "numerical estimate by nested sampling, not a proof; " + estimateCaution,
@@ -329,9 +336,9 @@ func (r *estimateResult) report() *estimateJSON {
 		})
 	}
 	if r.bound != nil {
-		out.Bound = r.bound.Report()
+		out.Bound = result{Result: r.bound}
 	} else {
-		out.Bound = &rlct.Report{Error: r.boundErr.Error()}
+		out.Bound = result{Error: r.boundErr.Error()}
 	}
 	if r.verdict != nil {
 		c, s := r.verdict.Consistent, jsonFloat(r.verdict.Sigmas)

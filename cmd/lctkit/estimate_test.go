@@ -299,11 +299,11 @@ func TestEstimatePlotWithoutBound(t *testing.T) {
 		t.Errorf("the plot does not say the bound is missing")
 	}
 	var b bytes.Buffer
-	r.write(&b)
+	r.writeText(&b)
 	if !strings.Contains(b.String(), "Newton bound:  not available") || !strings.Contains(b.String(), "verdict: no Newton bound") {
 		t.Errorf("text output:\n%s", b.String())
 	}
-	out, err := json.Marshal(r.report())
+	out, err := json.Marshal(r.jsonForm())
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -341,9 +341,9 @@ func TestEstimateThetaBelowOne(t *testing.T) {
 		r := &estimateResult{title: "K = x^2", vars: []string{"x"}, lower: []float64{-1}, upper: []float64{1}, prior: []float64{0},
 			est: &estimate.Result{Lambda: 0.5, LambdaSE: 0.01, Theta: tc.theta, ThetaSE: tc.se, Live: 10, Runs: 2}, boundErr: errors.New("none")}
 		var b bytes.Buffer
-		r.write(&b)
+		r.writeText(&b)
 		text := strings.Join(strings.Fields(b.String()), " ") // undo the wrapping
-		data, err := json.Marshal(r.report())
+		data, err := json.Marshal(r.jsonForm())
 		if err != nil {
 			t.Fatal(err)
 		}

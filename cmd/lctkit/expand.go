@@ -1,8 +1,8 @@
 package main
 
 import (
-	"encoding/json"
 	"fmt"
+	"io"
 	"math/big"
 	"slices"
 
@@ -16,7 +16,7 @@ type expandCmd struct {
 	Order int    `help:"Truncate power series at this total degree (needed for exp, log, sin, … and division by non-constants)." placeholder:"D"`
 	At    string `help:"Translate to this point first: the result is a polynomial in w − w*." placeholder:"x=1/2,y=0"`
 	Vars  string `help:"Variables that come first, in this order (the others follow in the order they first appear)." placeholder:"x,y,z"`
-	JSON  bool   `help:"Print one JSON object."`
+	jsonFlag
 }
 
 // Help is shown under the command's usage.
@@ -24,8 +24,9 @@ func (c *expandCmd) Help() string {
 	return "Example:\n  lctkit expand '(x + y)^3 - x*y' --at x=1\n  lctkit expand 'exp(x*y) - 1' --order 4"
 }
 
-// expandJSON is the output of expand --json.
-type expandJSON struct {
+// expandAnswer is what expand prints: the polynomial as text, and in JSON
+// with its variables, size and truncation.
+type expandAnswer struct {
 	Polynomial string   `json:"polynomial"`
 	Variables  []string `json:"variables"`
 	Terms      int      `json:"terms"`
@@ -79,10 +80,7 @@ func (c *expandCmd) Run(e *env) error {
 		}
 		p = p.Translate(full)
 	}
-	if c.JSON {
-		enc := json.NewEncoder(e.stdout)
-		return enc.Encode(expandJSON{Polynomial: p.String(), Variables: p.Vars(), Terms: p.Len(), Degree: p.Degree(), Order: ex.Order, Truncated: ex.Truncated})
-	}
-	fmt.Fprintln(e.stdout, p.String())
-	return nil
+	return e.print(&expandAnswer{Polynomial: p.String(), Variables: p.Vars(), Terms: p.Len(), Degree: p.Degree(), Order: ex.Order, Truncated: ex.Truncated}, c.JSON)
 }
+
+func (a *expandAnswer) writeText(w io.Writer) { fmt.Fprintln(w, a.Polynomial) }

@@ -15,7 +15,7 @@ import (
 type facesCmd struct {
 	Expr string `arg:"" optional:"" help:"K(w), an expression vanishing at the point; - reads it from standard input. Without it the bundled example is described."`
 	problemFlags
-	JSON bool `help:"Print one JSON object (several points: an object with \"locals\", one entry per point)."`
+	jsonFlag
 }
 
 // Help is shown under the command's usage.
@@ -25,7 +25,8 @@ terms of K there (in sum-of-squares form, the coefficient in each generator),
 its facets as inequalities, and every compact face with its face polynomial
 and nondegeneracy verdict; the principal face, which meets the ray along τ,
 is marked with *. Exponents are those of K, so in sum-of-squares form they are
-twice those of the generators.
+twice those of the generators. With several --at points each is described in
+turn; --json then prints an object whose "locals" holds one entry per point.
 
 Examples:
   lctkit faces 'x^4 + y^6'
@@ -39,38 +40,43 @@ func (c *facesCmd) Run(e *env) error {
 	if err != nil {
 		return err
 	}
-	if note != "" && !c.JSON {
-		fmt.Fprintln(e.stdout, note)
-	}
 	descs, err := describe(s, c.options(), e)
 	if err != nil {
-		if c.JSON {
-			writeJSONError(e, err)
-		}
 		return err
 	}
-	if c.JSON {
-		if len(descs) == 1 {
-			return writeJSON(e.stdout, descs[0].Report())
-		}
-		var all struct {
-			Locals []*rlct.DescriptionReport `json:"locals"`
-		}
-		for _, d := range descs {
-			all.Locals = append(all.Locals, d.Report())
-		}
-		return writeJSON(e.stdout, &all)
+	return e.print(&facesAnswer{descs: descs, note: note}, c.JSON)
+}
+
+// facesAnswer is what faces prints: the polyhedron at each point.
+type facesAnswer struct {
+	descs []*rlct.Description
+	note  string // says that the bundled example is described (text only)
+}
+
+func (a *facesAnswer) writeText(w io.Writer) {
+	if a.note != "" {
+		fmt.Fprintln(w, a.note)
 	}
-	for i, d := range descs {
-		if len(descs) > 1 {
+	for i, d := range a.descs {
+		if len(a.descs) > 1 {
 			if i > 0 {
-				fmt.Fprintln(e.stdout)
+				fmt.Fprintln(w)
 			}
-			fmt.Fprintf(e.stdout, "point %d of %d: %s\n", i+1, len(descs), pointString(d.Vars, d.Point))
+			fmt.Fprintf(w, "point %d of %d: %s\n", i+1, len(a.descs), pointString(d.Vars, d.Point))
 		}
-		writeFaces(e.stdout, d)
+		writeFaces(w, d)
 	}
-	return nil
+}
+
+// MarshalJSON writes the description at the one point, or at several an
+// object whose "locals" holds one per point.
+func (a *facesAnswer) MarshalJSON() ([]byte, error) {
+	if len(a.descs) == 1 {
+		return encodeJSON(a.descs[0])
+	}
+	return encodeJSON(struct {
+		Locals []*rlct.Description `json:"locals"`
+	}{a.descs})
 }
 
 // describe parses the spec and describes the polyhedron at each of its
@@ -189,7 +195,7 @@ func writeFacesTo(w io.Writer, d *rlct.Description) {
 }
 
 // verdictText is the nondegeneracy column of a compact face.
-func verdictText(f rlct.FaceReport) string {
+func verdictText(f rlct.Face) string {
 	s := string(f.Verdict)
 	if f.Rule != "" && f.Rule != rlct.RuleNone {
 		s += " (" + f.Rule

@@ -113,6 +113,9 @@ func run(args []string, e *env) (code int) {
 		return exitUsage
 	}
 	if err := ctx.Run(e); err != nil {
+		if wantsJSON(ctx) {
+			writeJSONError(e, err)
+		}
 		var ee exitError
 		if errors.As(err, &ee) {
 			return ee.code

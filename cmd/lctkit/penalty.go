@@ -3,6 +3,7 @@ package main
 import (
 	"errors"
 	"fmt"
+	"io"
 
 	"github.com/lctkit/lctkit/monomial"
 	"github.com/lctkit/lctkit/rlct"
@@ -15,7 +16,7 @@ type penaltyCmd struct {
 	N      string `required:"" help:"Sample sizes, comma separated; each must exceed 3." placeholder:"1000,10000"`
 	D      int    `help:"Number of parameters: also print the regular model's penalty (d/2)·log n." placeholder:"d"`
 	Status string `default:"exact" enum:"exact,upper-bound,uncertified" help:"The status of the pair, as bound reports it (exact, upper-bound, uncertified); a pair that is not exact marks every penalty."`
-	JSON   bool   `help:"Print one JSON object."`
+	jsonFlag
 }
 
 // Help is shown under the command's usage.
@@ -53,25 +54,31 @@ func (c *penaltyCmd) Run(e *env) error {
 	if err != nil {
 		return badFlag("--n", err)
 	}
-	rep := rlct.NewPenaltyReport(lambda, c.Theta, rlct.Status(c.Status), c.D, ns)
-	if c.JSON {
-		return writeJSON(e.stdout, rep)
+	return e.print(penaltyAnswer{rlct.NewPenalties(lambda, c.Theta, rlct.Status(c.Status), c.D, ns)}, c.JSON)
+}
+
+// penaltyAnswer is what penalty prints; its JSON form is that of
+// rlct.Penalties.
+type penaltyAnswer struct {
+	*rlct.Penalties
+}
+
+func (a penaltyAnswer) writeText(w io.Writer) {
+	p := a.Penalties
+	fmt.Fprintf(w, "λ = %s, θ = %d (asymptotic penalties, in nats)\n", p.Lambda.RatString(), p.Theta)
+	if p.Note != "" {
+		fmt.Fprintf(w, "%s pair: %s\n", statusWord(p.Status), p.Note)
 	}
-	fmt.Fprintf(e.stdout, "λ = %s, θ = %d (asymptotic penalties, in nats)\n", lambda.RatString(), c.Theta)
-	if rep.Note != "" {
-		fmt.Fprintf(e.stdout, "%s pair: %s\n", statusWord(rep.Status), rep.Note)
-	}
-	if c.D > 0 {
-		fmt.Fprintf(e.stdout, "%12s  %22s  %22s\n", "n", "λ·log n − (θ−1)·log log n", fmt.Sprintf("regular, d = %d", c.D))
+	if p.Dim > 0 {
+		fmt.Fprintf(w, "%12s  %22s  %22s\n", "n", "λ·log n − (θ−1)·log log n", fmt.Sprintf("regular, d = %d", p.Dim))
 	} else {
-		fmt.Fprintf(e.stdout, "%12s  %22s\n", "n", "λ·log n − (θ−1)·log log n")
+		fmt.Fprintf(w, "%12s  %22s\n", "n", "λ·log n − (θ−1)·log log n")
 	}
-	for i, n := range rep.N {
-		if c.D > 0 {
-			fmt.Fprintf(e.stdout, "%12g  %22.4f  %22.4f\n", n, rep.Singular[i], rep.Regular[i])
+	for i, n := range p.N {
+		if p.Dim > 0 {
+			fmt.Fprintf(w, "%12g  %22.4f  %22.4f\n", n, p.Singular[i], p.Regular[i])
 		} else {
-			fmt.Fprintf(e.stdout, "%12g  %22.4f\n", n, rep.Singular[i])
+			fmt.Fprintf(w, "%12g  %22.4f\n", n, p.Singular[i])
 		}
 	}
-	return nil
 }

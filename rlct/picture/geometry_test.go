@@ -360,7 +360,7 @@ func TestFacetShapesRandom(t *testing.T) {
 		if err != nil {
 			t.Fatalf("K = %s: %v", k, err)
 		}
-		slack := func(f rlct.FacetReport, p []int64) int {
+		slack := func(f rlct.Facet, p []int64) int {
 			s := new(big.Int).Neg(f.RHS)
 			for j, a := range f.Normal {
 				s.Add(s, new(big.Int).Mul(a, big.NewInt(p[j])))
@@ -479,7 +479,7 @@ func TestMalformed(t *testing.T) {
 			d.Facets[0].Rays = nil
 		}, ErrMalformed},
 		{"an edge missing", rlct.Spec{K: "x^4 + x^2*y^2 + y^6"}, func(d *rlct.Description) {
-			d.Facets = slices.DeleteFunc(d.Facets, func(f rlct.FacetReport) bool { return f.Inequality == "x + y >= 4" })
+			d.Facets = slices.DeleteFunc(d.Facets, func(f rlct.Facet) bool { return f.Inequality == "x + y >= 4" })
 		}, ErrMalformed},
 		{"not a vertex", rlct.Spec{K: "x^4 + y^6"}, func(d *rlct.Description) {
 			d.Principal.Vertices = [][]int{{1, 1}}
@@ -497,7 +497,7 @@ func TestMalformed(t *testing.T) {
 			}
 		}, ErrMalformed},
 		{"no facet for a flagged triangle", rlct.Spec{K: "x^26 + y^26 + z^26 - x^13*y^7*z^6"}, func(d *rlct.Description) {
-			d.Facets = slices.DeleteFunc(d.Facets, func(f rlct.FacetReport) bool { return len(f.Rays) == 0 })
+			d.Facets = slices.DeleteFunc(d.Facets, func(f rlct.Facet) bool { return len(f.Rays) == 0 })
 		}, ErrMalformed},
 	}
 	for _, tt := range tests {

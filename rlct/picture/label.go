@@ -105,8 +105,8 @@ type labelSpot struct {
 // labelVertices writes the monomial of each vertex at the first of the
 // spots from place that overlaps no label placed so far, those of the
 // principal face first; a label with no free spot is left out.
-func labelVertices(s *svgDoc, d *rlct.Description, labels *labeller, place func(rlct.VertexReport) []labelSpot) {
-	principal := func(v rlct.VertexReport) bool {
+func labelVertices(s *svgDoc, d *rlct.Description, labels *labeller, place func(rlct.Vertex) []labelSpot) {
+	principal := func(v rlct.Vertex) bool {
 		return slices.ContainsFunc(d.Principal.Vertices, func(w []int) bool { return slices.Equal(v.Exponent, w) })
 	}
 	for _, first := range []bool{true, false} {

@@ -244,7 +244,7 @@ func (sc *scene) axes(names []string) ([]int, error) {
 
 // facet checks a facet: a non-negative normal whose zero entries are the
 // rays, and vertices on the hyperplane a·x = b.
-func (sc *scene) facet(fr rlct.FacetReport) (*facet, error) {
+func (sc *scene) facet(fr rlct.Facet) (*facet, error) {
 	f := &facet{normal: fr.Normal, rhs: fr.RHS, label: fr.Inequality}
 	if f.label == "" {
 		f.label = "(unnamed)"
@@ -283,7 +283,7 @@ func (sc *scene) facet(fr rlct.FacetReport) (*facet, error) {
 // face checks a face of P(K) and finds what draws it: its vertices for a
 // vertex or an edge, the facet it is for a face of dimension 2 in three
 // variables, and the order of the corners of a compact one.
-func (sc *scene) face(fr rlct.FaceReport) (facePicture, error) {
+func (sc *scene) face(fr rlct.Face) (facePicture, error) {
 	fp := facePicture{dim: fr.Dim, facet: -1}
 	var err error
 	if fp.verts, err = sc.vertices(fr.Vertices); err != nil {

@@ -134,7 +134,7 @@ func (sc *scene) plot2D(s *svgDoc) ([]legendItem, float64) {
 	labels.reserve([4]float64{0, top, left - 2, bottom + 30})
 	labels.reserve([4]float64{left, bottom + 2, pageWidth, bottom + 30})
 	hitLabel(s, h, labels)
-	labelVertices(s, d, labels, func(v rlct.VertexReport) []labelSpot {
+	labelVertices(s, d, labels, func(v rlct.Vertex) []labelSpot {
 		p := at(float64(v.Exponent[0]), float64(v.Exponent[1]))
 		upperRight := labelSpot{point{p.x + 9, p.y - 9}, "start"}
 		left := labelSpot{point{p.x - 17, p.y + 5}, "end"}
@@ -178,5 +178,5 @@ func (sc *scene) plot2D(s *svgDoc) ([]legendItem, float64) {
 }
 
 func isVertex(d *rlct.Description, e []int) bool {
-	return slices.ContainsFunc(d.Vertices, func(v rlct.VertexReport) bool { return slices.Equal(v.Exponent, e) })
+	return slices.ContainsFunc(d.Vertices, func(v rlct.Vertex) bool { return slices.Equal(v.Exponent, e) })
 }

@@ -236,7 +236,7 @@ func (sc *scene) plot3D(s *svgDoc) ([]legendItem, float64) {
 	s.diamond(h, 8, `class="hit" `+hitStyle)
 	labels := &labeller{}
 	hitLabel(s, h, labels)
-	labelVertices(s, d, labels, func(v rlct.VertexReport) []labelSpot {
+	labelVertices(s, d, labels, func(v rlct.Vertex) []labelSpot {
 		// Away from the middle of the vertices, else around the vertex.
 		p := at(vec3{float64(v.Exponent[0]), float64(v.Exponent[1]), float64(v.Exponent[2])})
 		dx, dy := p.x-centroid.x, p.y-centroid.y

@@ -2,6 +2,7 @@ package sbic_test
 
 import (
 	"context"
+	"encoding/json"
 	"fmt"
 	"math/big"
 
@@ -129,4 +130,53 @@ pair bent flat sos "s*g1; s*g2"   # K = s²(g1² + g2²)
 	// "bent" at "flat": λ = 1/2, θ = 1, exact
 	// flat: BIC -514.9957, sBIC -514.9957
 	// bent: BIC -515.4872, sBIC -512.2581
+}
+
+// A Result is written as JSON with the models and pairs named, as lctkit
+// choose --json prints it; exact values are strings.
+func ExampleResult_MarshalJSON() {
+	models := []sbic.Model{{Name: "none", Dim: 0}, {Name: "one", Dim: 3}}
+	pairs := []sbic.Pair{
+		{Model: 0, Truth: 0, Lambda: big.NewRat(0, 1), Theta: 1, Status: rlct.Exact},
+		{Model: 1, Truth: 1, Lambda: big.NewRat(3, 2), Theta: 1, Status: rlct.Exact},
+		{Model: 1, Truth: 0, Lambda: big.NewRat(1, 2), Theta: 1, Status: rlct.Exact},
+	}
+	c, err := sbic.New(models, [][2]int{{0, 1}}, pairs)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	r, err := c.Choose(100, []float64{-150, -140})
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	data, err := json.Marshal(r)
+	if err != nil {
+		fmt.Println(err)
+		return
+	}
+	var out struct {
+		ChosenSBIC struct {
+			Model string `json:"model"`
+		} `json:"chosen_sbic"`
+		Pairs []struct {
+			Model  string `json:"model"`
+			Truth  string `json:"truth"`
+			Lambda string `json:"lambda"`
+		} `json:"pairs"`
+	}
+	if err := json.Unmarshal(data, &out); err != nil {
+		fmt.Println(err)
+		return
+	}
+	fmt.Println("sBIC chooses", out.ChosenSBIC.Model)
+	for _, p := range out.Pairs {
+		fmt.Printf("%s at %s: λ = %s\n", p.Model, p.Truth, p.Lambda)
+	}
+	// Output:
+	// sBIC chooses one
+	// none at none: λ = 0
+	// one at one: λ = 3/2
+	// one at none: λ = 1/2
 }
