@@ -141,10 +141,6 @@ func isFunction(name string) bool {
 	return false
 }
 
-// IsFunctionName reports whether name is reserved for a function of the
-// expression language (and so cannot name a variable).
-func IsFunctionName(name string) bool { return isFunction(name) }
-
 // IsIdentifier reports whether name is a valid variable name: an ASCII
 // letter or underscore followed by letters, digits and underscores, and
 // not a function name.

@@ -31,10 +31,6 @@ const (
 	Uncertified Status = "uncertified"
 )
 
-// IsBound reports whether s certifies the pair as a bound on the true one
-// (Exact or UpperBound).
-func (s Status) IsBound() bool { return s == Exact || s == UpperBound }
-
 // DefaultMaxFaces is the default of Options.MaxFaces.
 const DefaultMaxFaces = 20000
 
@@ -119,14 +115,6 @@ type Result struct {
 	newton *polyhedron.Newton
 	scale  int
 }
-
-// Newton returns the Newton polyhedron the result was computed from: P(K),
-// or P(⟨g_1, …, g_r⟩) in sum-of-squares form, where P(K) is twice it (see
-// Scale).
-func (r *Result) Newton() *polyhedron.Newton { return r.newton }
-
-// Scale is 1, or 2 in sum-of-squares form: P(K) = Scale·Newton().
-func (r *Result) Scale() int { return r.scale }
 
 // Bound computes the Newton-polyhedron value (λ, θ) of p at each of its
 // points with a certificate: status Exact when K is nondegenerate over the
