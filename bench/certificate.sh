@@ -1,7 +1,7 @@
 #!/usr/bin/env bash
 # Times a whole `lctkit bound - --json` (parse, Newton polyhedron, distance,
 # certificate, report) against `glpsol --exact` on the distance LP alone (the
-# same ray-shooting LP over the support of K, written by bench/newtondist -lp),
+# same ray-shooting LP over the support of K, written by bench/newtondist -write-lp),
 # on the research-scale families of the certificate:
 #
 #   squares_d10_n100      100 squared monomials in 10 variables (exponents ≤ 12)
@@ -98,7 +98,7 @@ for name in "${INSTANCES[@]}"; do
 	dist=$(jfield distance "$OUT/cert/$name.json")
 	gw=n/a gc=- gt=n/a ratio=-
 	if command -v glpsol >/dev/null; then
-		"$OUT/newtondist" -lp "$p" >"$OUT/cert/$name.lp"
+		"$OUT/newtondist" -write-lp "$p" >"$OUT/cert/$name.lp"
 		STDIN=/dev/null timed /dev/null glpsol --exact --lp "$OUT/cert/$name.lp" -o "$OUT/cert/$name.glp"
 		gw=$WALL gc=$CPU
 		gt=$(sed -n 's/^Objective: *obj = *\([^ ]*\).*/\1/p' "$OUT/cert/$name.glp" 2>/dev/null || true)

@@ -86,7 +86,7 @@ for name in "${INSTANCES[@]}"; do
 	lt=$(field t "$w.lct")
 	minimal=$(field minimal "$w.lct")
 	# lctkit: facets, on the same Pareto-minimal points that lrs and cdd get
-	"$ND" -minimal "$f" >"$w.min"
+	"$ND" -write-minimal "$f" >"$w.min"
 	TIMED_OUT="$w.lctf" timed "$ND" -facets "$w.min"
 	lctf=$ELAPSED lctfc=$CPU
 	nfac=$(field facets "$w.lctf")
@@ -95,24 +95,24 @@ for name in "${INSTANCES[@]}"; do
 	# glpsol --exact on the same LP
 	glp=n/a gt=n/a glpc=- glpm=-
 	if have glpsol; then
-		"$ND" -lp "$f" >"$w.lp"
+		"$ND" -write-lp "$f" >"$w.lp"
 		TIMED_OUT=/dev/null timed glpsol --exact --lp "$w.lp" -o "$w.glp"
 		glp=$ELAPSED glpc=$CPU glpm=$MEM
 		gt=$(sed -n 's/^Objective: *obj = *\([^ ]*\).*/\1/p' "$w.glp" 2>/dev/null || true)
 	fi
-	"$ND" -ext "$f" >"$w.ext"
+	"$ND" -write-generators "$f" >"$w.ext"
 	lrs=n/a lrst=- lrsc=-
 	if have lrs; then
 		TIMED_OUT=/dev/null timed lrs "$w.ext" "$w.lrs.ine" 2>/dev/null
 		lrs=$ELAPSED lrsc=$CPU
-		[ "$RC" = 0 ] && lrst=$(field t <("$ND" -ine "$w.lrs.ine") || true)
+		[ "$RC" = 0 ] && lrst=$(field t <("$ND" -read-inequalities "$w.lrs.ine") || true)
 	fi
 	cdd=n/a cddt=- cddc=-
 	if have scdd_gmp; then
 		rm -f "$w.ine"
 		TIMED_OUT=/dev/null timed scdd_gmp "$w.ext" 2>/dev/null
 		cdd=$ELAPSED cddc=$CPU
-		[ "$RC" = 0 ] && cddt=$(field t <("$ND" -ine "$w.ine") || true)
+		[ "$RC" = 0 ] && cddt=$(field t <("$ND" -read-inequalities "$w.ine") || true)
 	fi
 	best=$lrs
 	if [ "$lrs" = n/a ] || [[ "$lrs" == \>* ]] || { [ "$cdd" != n/a ] && [[ "$cdd" != \>* ]] && awk -v a="$cdd" -v b="$lrs" 'BEGIN{exit !(a<b)}'; }; then best=$cdd; fi

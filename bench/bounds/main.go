@@ -1,7 +1,7 @@
 // Command bounds writes the inputs of bench/certificate.sh: a function K
 // of one of the benchmark families, as an expression for `lctkit bound`,
 // and the support of K in the instance format of bench/newtondist ("d N"
-// then N lines of exponents), from which newtondist -lp writes the same
+// then N lines of exponents), from which newtondist -write-lp writes the same
 // ray-shooting LP for glpsol. The families (deterministic for a seed):
 //
 //	squares  -terms N -vars d       N distinct squared monomials, exponents in {0, 2, …, 12}

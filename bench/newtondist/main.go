@@ -5,15 +5,16 @@
 // the sizes of the reduction. With -facets it instead enumerates all facets
 // and prints t = max over facets of b/(a·τ). It is the lctkit side of
 // bench/compare.sh, and also writes the peers' inputs and reads their
-// outputs:
+// outputs; the flags name what is written or read, whatever the file format:
 //
-//	newtondist [-facets] FILE   distance and face (or facets) of FILE
-//	newtondist -minimal FILE    the Pareto-minimal points, in the same text format
-//	newtondist -ext FILE        V-representation (Pareto-minimal points and the
-//	                            d unit rays) in the lrs/cdd input format
-//	newtondist -lp FILE         the ray-shooting LP over all points in CPLEX LP format
-//	newtondist -ine HFILE       exact max over the inequalities c + a·x >= 0 of an
-//	                            H-representation (lrs/cdd output) of −c/(a·τ)
+//	newtondist [-facets] FILE             distance and face (or facets) of FILE
+//	newtondist -write-minimal FILE        the Pareto-minimal points, in the same text format
+//	newtondist -write-generators FILE     the generators of the polyhedron (Pareto-minimal
+//	                                      points and the d unit rays), a V-representation
+//	                                      in the input format of lrs and cdd
+//	newtondist -write-lp FILE             the ray-shooting LP over all points in CPLEX LP format
+//	newtondist -read-inequalities HFILE   exact max over the inequalities c + a·x >= 0 of an
+//	                                      H-representation (as lrs and cdd write it) of −c/(a·τ)
 package main
 
 import (
@@ -33,17 +34,23 @@ import (
 
 func main() {
 	facets := flag.Bool("facets", false, "enumerate facets and take the maximum of b/(a·τ)")
-	ext := flag.Bool("ext", false, "write the V-representation of the Pareto-minimal points")
-	lp := flag.Bool("lp", false, "write the ray-shooting LP in CPLEX LP format")
-	minimal := flag.Bool("minimal", false, "write the Pareto-minimal points in the instance format")
-	ine := flag.Bool("ine", false, "read an H-representation and print the exact distance")
+	generators := flag.Bool("write-generators", false, "write the Pareto-minimal points and the unit rays (a V-representation) in the lrs/cdd input format")
+	lp := flag.Bool("write-lp", false, "write the ray-shooting LP in CPLEX LP format")
+	minimal := flag.Bool("write-minimal", false, "write the Pareto-minimal points in the instance format")
+	inequalities := flag.Bool("read-inequalities", false, "read an H-representation (inequalities, as lrs and cdd write them) and print the exact distance")
 	flag.Parse()
-	if flag.NArg() != 1 {
-		fmt.Fprintln(os.Stderr, "usage: newtondist [-facets|-minimal|-ext|-lp|-ine] FILE")
+	modes := 0
+	for _, on := range []bool{*facets, *generators, *lp, *minimal, *inequalities} {
+		if on {
+			modes++
+		}
+	}
+	if flag.NArg() != 1 || modes > 1 {
+		fmt.Fprintln(os.Stderr, "usage: newtondist [-facets|-write-minimal|-write-generators|-write-lp|-read-inequalities] FILE")
 		os.Exit(2)
 	}
-	if *ine {
-		if err := maxOverIne(flag.Arg(0)); err != nil {
+	if *inequalities {
+		if err := maxOverInequalities(flag.Arg(0)); err != nil {
 			fmt.Fprintln(os.Stderr, err)
 			os.Exit(1)
 		}
@@ -62,8 +69,8 @@ func main() {
 	}
 	built := time.Since(start)
 	ctx := context.Background()
-	if *ext {
-		writeExt(d, must(n.Minimal(ctx)))
+	if *generators {
+		writeGenerators(d, must(n.Minimal(ctx)))
 		return
 	}
 	if *minimal {
@@ -201,7 +208,9 @@ func read(path string) (int, [][]int, error) {
 	return d, pts, nil
 }
 
-func writeExt(d int, pts [][]int) {
+// writeGenerators writes the points and the d unit rays as a
+// V-representation in the input format of lrs and cdd.
+func writeGenerators(d int, pts [][]int) {
 	w := bufio.NewWriter(os.Stdout)
 	defer w.Flush()
 	fmt.Fprintf(w, "newton\nV-representation\nbegin\n%d %d integer\n", len(pts)+d, d+1)
@@ -248,9 +257,9 @@ func writeLP(d int, pts [][]int) {
 	w.WriteString("\n = 1\nEnd\n")
 }
 
-// maxOverIne prints the exact max over the rows c + a·x >= 0 (a != 0) of an
-// H-representation of −c/(a·(1,…,1)).
-func maxOverIne(path string) error {
+// maxOverInequalities prints the exact max over the rows c + a·x >= 0
+// (a != 0) of an H-representation of −c/(a·(1,…,1)).
+func maxOverInequalities(path string) error {
 	b, err := os.ReadFile(path)
 	if err != nil {
 		return err
