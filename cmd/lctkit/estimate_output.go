@@ -18,7 +18,7 @@ type estimateResult struct {
 	title        string // "K = …" as the user wrote it
 	note         string // says that the bundled example is estimated (text only)
 	vars         []string
-	point        []*big.Rat // nil for the origin
+	point        []*big.Rat // w*, zeros at the origin
 	lower, upper []float64
 	prior        []float64 // as sampled, in the translated coordinates
 	est          *estimate.Result
