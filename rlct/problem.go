@@ -121,8 +121,9 @@ func local(vars []string, polys []*monomial.Poly, sos bool, prior, w []*big.Rat,
 	if w != nil && len(w) != d {
 		return nil, fmt.Errorf("%w: point has %d entries for %d variables", ErrDimension, len(w), d)
 	}
-	l := &Local{Vars: vars, SumOfSquares: sos, Prior: prior, Point: make([]*big.Rat, d), Weights: make([]*big.Rat, d)}
+	l := &Local{Vars: vars, SumOfSquares: sos, Prior: make([]*big.Rat, d), Point: make([]*big.Rat, d), Weights: make([]*big.Rat, d)}
 	for i := range d {
+		l.Prior[i] = new(big.Rat).Set(prior[i]) // each point's own copy
 		l.Point[i] = new(big.Rat)
 		if w != nil && w[i] != nil {
 			l.Point[i].Set(w[i])
