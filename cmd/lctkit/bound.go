@@ -23,8 +23,8 @@ const bundledExample = "(g*v1)^2 + (g*v2)^2 + (v1*v2)^2"
 
 // problemFlags are the flags shared by the commands that take a problem.
 type problemFlags struct {
-	Prior string   `help:"Prior exponents near the point: x=1,y=1/2 means a prior proportional to |x|^1·|y|^(1/2); unnamed variables have 0 (uniform)." placeholder:"x=1,y=1/2"`
-	At    []string `help:"The point w* (default the origin); unnamed coordinates are 0. Repeat for several points: the minimum is reported with each local answer." placeholder:"x=0,y=1/3" sep:"none"`
+	Prior string   `help:"Prior exponents near the point: x=1,y=1/2 means a prior proportional to |x|^1·|y|^(1/2); unnamed variables have 0 (uniform). Each name must be a variable of K or of --vars." placeholder:"x=1,y=1/2"`
+	At    []string `help:"The point w* (default the origin); unnamed coordinates are 0, and each name must be a variable of K or of --vars. Repeat for several points: the minimum is reported with each local answer." placeholder:"x=0,y=1/3" sep:"none"`
 	SOS   string   `help:"Give K as a sum of squares instead of EXPR: generators separated by ';' stand for K = g1^2 + g2^2 + …; - reads them from standard input." placeholder:"g1; g2"`
 	Order int      `help:"Truncate power series at this total degree; needed for exp, log, sin, … and division by non-constants." placeholder:"D"`
 	Vars  string   `help:"Variables that come first, in this order; names K does not use still count as dimensions." placeholder:"x,y,z"`
