@@ -211,6 +211,9 @@ func (p *Poly) IsConstant() bool {
 	return len(p.coefs) == 0 || (len(p.coefs) == 1 && Exponent(p.exp(0)).Degree() == 0)
 }
 
+// ConstantTerm returns the coefficient of the constant term (the value at 0).
+func (p *Poly) ConstantTerm() *big.Rat { return p.constCoef().rat() }
+
 func (p *Poly) constCoef() coef {
 	if n := len(p.coefs); n > 0 && Exponent(p.exp(n-1)).Degree() == 0 {
 		return p.coefs[n-1]

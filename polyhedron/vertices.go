@@ -155,7 +155,6 @@ type vfScratch struct {
 	cflat []int64
 	rhs   []int64
 	kind  []int8
-	solve []int64
 	cache map[string]basisCache
 }
 

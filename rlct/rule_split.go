@@ -121,8 +121,7 @@ func splitByVariables(F *monomial.Poly) []*monomial.Poly {
 	for i := range parent {
 		parent[i] = i
 	}
-	var find func(int) int
-	find = func(i int) int {
+	find := func(i int) int {
 		for parent[i] != i {
 			parent[i] = parent[parent[i]]
 			i = parent[i]
