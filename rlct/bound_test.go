@@ -155,7 +155,11 @@ func TestInvalidInput(t *testing.T) {
 		{Spec{K: "x^2", Prior: "x=-1"}, ErrPrior, ""},
 		{Spec{K: "x^2", Prior: "x=-3/2"}, ErrPrior, ""},
 		{Spec{}, ErrNoFunction, ""},
-		{Spec{K: "exp(x)-1", Order: 4, At: []string{"x=1"}}, nil, "cannot be moved"},
+		// A series at one point is expanded there; exp(1 + u) would have
+		// irrational coefficients, which the parser refuses.
+		{Spec{K: "exp(x)-1", Order: 4, At: []string{"x=1"}}, nil, "irrational"},
+		// At several points a series cannot be expanded at each.
+		{Spec{K: "exp(x)-1-x", Order: 4, At: []string{"x=0", "x=1"}}, nil, "cannot be moved"},
 	}
 	for _, tt := range tests {
 		p, err := tt.spec.Problem()

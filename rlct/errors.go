@@ -27,5 +27,5 @@ var (
 	ErrVariables   error = &inputError{"rlct: generators must share one variable list"}
 	ErrDimension   error = &inputError{"rlct: length does not match the number of variables"}
 	ErrNoVariables error = &inputError{"rlct: K has no variables"}
-	ErrShiftSeries error = &inputError{"rlct: K is a power series truncated around the origin; its truncation cannot be moved to another point (write K in variables shifted to the point)"}
+	ErrShiftSeries error = &inputError{"rlct: K is a power series truncated around the origin; its truncation cannot be moved to another point (expand it at the point: give that point alone, or write K in variables shifted to it)"}
 )

@@ -28,7 +28,8 @@ type Problem struct {
 	// Truncated reports that K (or a generator) differs from the true
 	// function by a power series whose terms all have total degree above
 	// Order (see monomial.Expansion). Such a series is truncated around
-	// the origin, so it can only be bounded there.
+	// the origin, so it can only be bounded there, unless it was expanded
+	// at its point (Centered).
 	Truncated bool
 
 	// Prior holds h_i for a prior density proportional to Π |w_i|^{h_i}
@@ -47,6 +48,14 @@ type Problem struct {
 	// each point's answer (Result.Locals), since the learning coefficient
 	// of a model is the least of the local ones over the true set.
 	Points [][]*big.Rat
+
+	// Centered reports that K (or each generator) is already written in
+	// the offsets w − w* from the single point of Points, for instance a
+	// series expanded there (monomial.Config.At; Spec does this for a
+	// series at one point). It is not translated again: the point serves
+	// the prior rule (see Prior) and the report. Points must then hold
+	// exactly one point.
+	Centered bool
 }
 
 // Local is a Problem checked and translated to one of its points: what
@@ -104,9 +113,12 @@ func (p *Problem) Locals() ([]*Local, error) {
 	if len(points) == 0 {
 		points = [][]*big.Rat{nil}
 	}
+	if p.Centered && len(p.Points) != 1 {
+		return nil, fmt.Errorf("%w: a centered problem has exactly one point, not %d", ErrDimension, len(p.Points))
+	}
 	out := make([]*Local, len(points))
 	for k, w := range points {
-		l, err := local(vars, polys, p.Generators != nil, prior, w, p.Truncated)
+		l, err := local(vars, polys, p.Generators != nil, prior, w, p.Truncated, p.Centered)
 		if err != nil {
 			return nil, atPoint(k, len(points), err)
 		}
@@ -116,7 +128,7 @@ func (p *Problem) Locals() ([]*Local, error) {
 }
 
 // local builds the problem at the point w (nil: the origin).
-func local(vars []string, polys []*monomial.Poly, sos bool, prior, w []*big.Rat, truncated bool) (*Local, error) {
+func local(vars []string, polys []*monomial.Poly, sos bool, prior, w []*big.Rat, truncated, centered bool) (*Local, error) {
 	d := len(vars)
 	if w != nil && len(w) != d {
 		return nil, fmt.Errorf("%w: point has %d entries for %d variables", ErrDimension, len(w), d)
@@ -139,7 +151,7 @@ func local(vars []string, polys []*monomial.Poly, sos bool, prior, w []*big.Rat,
 		}
 	}
 	l.Polys = polys
-	if !isOrigin(l.Point) {
+	if !isOrigin(l.Point) && !centered {
 		if truncated {
 			return nil, ErrShiftSeries
 		}

@@ -30,7 +30,8 @@ var ErrRecord error = &inputError{"rlct: bad record"}
 //	       with the generators separated by ';'
 //	prior  "x=1,y=1/2", as Spec.Prior (optional)
 //	at     one point "x=0,y=1/3" or a list of them, as Spec.At (optional)
-//	order  a non-negative integer literal, as Spec.Order (optional)
+//	order  a non-negative integer literal, as Spec.Order, or "auto" for
+//	       OrderAuto (optional)
 //	vars   "x,y,z" or a list of names, as Spec.Vars (optional)
 //
 // Exactly one of k and sos must be given. A field whose value is null
@@ -127,7 +128,7 @@ func (r Record) MarshalJSON() ([]byte, error) {
 		{"sos", len(s.SOS) > 0, s.SOS},
 		{"prior", s.Prior != "", s.Prior},
 		{"at", len(s.At) > 0, s.At},
-		{"order", s.Order != 0, s.Order},
+		{"order", s.Order != 0, orderValue(s.Order)},
 		{"vars", len(s.Vars) > 0, s.Vars},
 	}
 	for _, st := range steps {
@@ -295,11 +296,22 @@ func decodeNames(v json.RawMessage) ([]string, error) {
 	return names, nil
 }
 
-// decodeOrder reads a non-negative integer literal.
+// orderValue is the JSON value of an order: the number, or "auto".
+func orderValue(order int) any {
+	if order == OrderAuto {
+		return "auto"
+	}
+	return order
+}
+
+// decodeOrder reads a non-negative integer literal or "auto".
 func decodeOrder(v json.RawMessage) (int, error) {
+	if string(v) == `"auto"` {
+		return OrderAuto, nil
+	}
 	n, err := strconv.Atoi(string(v))
 	if err != nil || n < 0 {
-		return 0, fmt.Errorf("want a non-negative integer, found %s", abbreviate(string(v)))
+		return 0, fmt.Errorf("want a non-negative integer or \"auto\", found %s", abbreviate(string(v)))
 	}
 	return n, nil
 }

@@ -106,7 +106,46 @@ func (s *Spec) Problem() (*Problem, error) {
 		}
 		p.Points = append(p.Points, w)
 	}
+	if p.Truncated && len(p.Points) == 1 && !isOrigin(p.Points[0]) {
+		if err := s.expandAt(p, vars); err != nil {
+			return nil, err
+		}
+	}
 	return p, nil
+}
+
+// expandAt replaces the series of p, truncated around the origin, by its
+// expansion around p's single point (monomial.Config.At): each function
+// is expanded around its argument's value there, the variables keep their
+// order, and the problem is marked Centered. The parser refuses a point
+// where a coefficient would be irrational (exp(1/4), log(3)) or where a
+// function has no Taylor series, naming the function and the value.
+func (s *Spec) expandAt(p *Problem, vars []string) error {
+	at := make(map[string]*big.Rat, len(vars))
+	for i, v := range vars {
+		at[v] = p.Points[0][i]
+	}
+	cfg := monomial.Config{Vars: vars, Order: s.Order, Limits: s.Limits, At: at}
+	p.Centered, p.Truncated = true, false
+	if s.K != "" {
+		ex, err := monomial.Parse(s.K, cfg)
+		if err != nil {
+			return &SpecError{"k", s.K, err}
+		}
+		p.K, p.Truncated = ex.Poly, ex.Truncated
+		return nil
+	}
+	src := strings.Join(s.SOS, ";\n")
+	exs, err := monomial.ParseList(src, cfg)
+	if err != nil {
+		return &SpecError{"sos", src, err}
+	}
+	p.Generators = p.Generators[:0]
+	for _, ex := range exs {
+		p.Generators = append(p.Generators, ex.Poly)
+		p.Truncated = p.Truncated || ex.Truncated
+	}
+	return nil
 }
 
 // bind reads bindings "x=1,y=1/2" as a vector over vars, 0 where a variable

@@ -315,11 +315,7 @@ func (c *batchCmd) solve(it batchItem, id *json.RawMessage) result {
 		return result{Error: err.Error()}
 	}
 	rec.Spec.Limits = monomial.Limits{MaxTerms: c.MaxTerms}
-	p, err := rec.Spec.Problem()
-	var r *rlct.Result
-	if err == nil {
-		r, err = rlct.Bound(ctx, p, &rlct.Options{MaxFaces: c.MaxFaces})
-	}
+	_, r, err := rec.Spec.Bound(ctx, &rlct.Options{MaxFaces: c.MaxFaces})
 	if err != nil && ctx.Err() != nil {
 		return result{Error: "timed out after " + c.Timeout.String()}
 	}

@@ -11,6 +11,7 @@ import (
 	"strings"
 	"unicode/utf8"
 
+	"github.com/alecthomas/kong"
 	"github.com/lctkit/lctkit/monomial"
 	"github.com/lctkit/lctkit/rlct"
 )
@@ -23,11 +24,11 @@ const bundledExample = "(g*v1)^2 + (g*v2)^2 + (v1*v2)^2"
 
 // problemFlags are the flags shared by the commands that take a problem.
 type problemFlags struct {
-	Prior string   `help:"Prior exponents near the point: x=1,y=1/2 means a prior proportional to |x|^1·|y|^(1/2); unnamed variables have 0 (uniform). Each name must be a variable of K or of --vars." placeholder:"x=1,y=1/2"`
-	At    []string `help:"The point w* (default the origin); unnamed coordinates are 0, and each name must be a variable of K or of --vars. Repeat for several points: the minimum is reported with each local answer." placeholder:"x=0,y=1/3" sep:"none"`
-	SOS   string   `help:"Give K as a sum of squares instead of EXPR: generators separated by ';' stand for K = g1^2 + g2^2 + …; - reads them from standard input." placeholder:"g1; g2"`
-	Order int      `help:"Truncate power series at this total degree; needed for exp, log, sin, … and division by non-constants." placeholder:"D"`
-	Vars  string   `help:"Variables that come first, in this order; names K does not use still count as dimensions." placeholder:"x,y,z"`
+	Prior string    `help:"Prior exponents near the point: x=1,y=1/2 means a prior proportional to |x|^1·|y|^(1/2); unnamed variables have 0 (uniform). Each name must be a variable of K or of --vars." placeholder:"x=1,y=1/2"`
+	At    []string  `help:"The point w* (default the origin); unnamed coordinates are 0, and each name must be a variable of K or of --vars. Repeat for several points: the minimum is reported with each local answer." placeholder:"x=0,y=1/3" sep:"none"`
+	SOS   string    `help:"Give K as a sum of squares instead of EXPR: generators separated by ';' stand for K = g1^2 + g2^2 + …; - reads them from standard input." placeholder:"g1; g2"`
+	Order orderFlag `help:"Truncate power series (exp, log, sin, … and division by non-constants) at this total degree D, or auto: raise the order until the omitted terms are certified not to change the answer, and say which order was used." default:"auto" placeholder:"D|auto"`
+	Vars  string    `help:"Variables that come first, in this order; names K does not use still count as dimensions." placeholder:"x,y,z"`
 
 	MaxFaces int `name:"max-faces" help:"Most compact faces the certificate examines before it stops with an upper bound (default 20000)." placeholder:"N"`
 	MaxTerms int `name:"max-terms" help:"Most terms an expansion may have (default 2000000)." placeholder:"N"`
@@ -36,10 +37,6 @@ type problemFlags struct {
 // Validate checks the flags' ranges before Run.
 func (f *problemFlags) Validate() error {
 	switch {
-	case f.Order < 0:
-		return fmt.Errorf("--order must not be negative")
-	case f.Order > monomial.DefaultMaxOrder:
-		return fmt.Errorf("--order %d is above the largest order lctkit expands, %d", f.Order, monomial.DefaultMaxOrder)
 	case f.MaxFaces < 0:
 		return fmt.Errorf("--max-faces must not be negative")
 	case f.MaxTerms < 0:
@@ -60,7 +57,7 @@ func (f *problemFlags) spec(expr string, e *env) (*rlct.Spec, string, error) {
 	if err != nil {
 		return nil, "", badFlag("--vars", err)
 	}
-	s := &rlct.Spec{Prior: f.Prior, At: f.At, Order: f.Order, Vars: vars, Limits: monomial.Limits{MaxTerms: f.MaxTerms}}
+	s := &rlct.Spec{Prior: f.Prior, At: f.At, Order: int(f.Order), Vars: vars, Limits: monomial.Limits{MaxTerms: f.MaxTerms}}
 	note := ""
 	switch {
 	case expr != "" && f.SOS != "":
@@ -84,13 +81,65 @@ func (f *problemFlags) spec(expr string, e *env) (*rlct.Spec, string, error) {
 	return s, note, nil
 }
 
-// solve parses the spec and bounds it, printing positioned errors.
+// solve parses the spec and bounds it (choosing the order of its series
+// with --order auto), printing positioned errors.
 func solve(s *rlct.Spec, opt *rlct.Options, e *env) (*rlct.Result, error) {
-	p, err := s.Problem()
+	_, res, err := s.Bound(context.Background(), opt)
 	if err != nil {
-		return nil, showSpecError(e, err)
+		var se *rlct.SpecError
+		if errors.As(err, &se) {
+			return nil, showSpecError(e, err)
+		}
+		return nil, err
 	}
-	return rlct.Bound(context.Background(), p, opt)
+	return res, nil
+}
+
+// problem parses the spec into the problem to analyse, printing positioned
+// errors. With --order auto it first bounds the spec to choose the order
+// (see rlct.Spec.Bound).
+func problem(s *rlct.Spec, opt *rlct.Options, e *env) (*rlct.Problem, error) {
+	var p *rlct.Problem
+	var err error
+	if s.Order == rlct.OrderAuto {
+		p, _, err = s.Bound(context.Background(), opt)
+	} else {
+		p, err = s.Problem()
+	}
+	if err != nil {
+		var se *rlct.SpecError
+		if errors.As(err, &se) {
+			return nil, showSpecError(e, err)
+		}
+		return nil, err
+	}
+	return p, nil
+}
+
+// orderFlag is --order: a total degree D >= 0, or "auto" (rlct.OrderAuto).
+type orderFlag int
+
+// Decode implements kong.MapperValue.
+func (o *orderFlag) Decode(ctx *kong.DecodeContext) error {
+	var v string
+	if err := ctx.Scan.PopValueInto("order", &v); err != nil {
+		return err
+	}
+	if strings.TrimSpace(v) == "auto" {
+		*o = orderFlag(rlct.OrderAuto)
+		return nil
+	}
+	n, err := strconv.Atoi(strings.TrimSpace(v))
+	switch {
+	case err != nil:
+		return fmt.Errorf("--order must be a total degree (an integer D >= 0) or auto, not %q", v)
+	case n < 0:
+		return fmt.Errorf("--order must not be negative")
+	case n > monomial.DefaultMaxOrder:
+		return fmt.Errorf("--order %d is above the largest order lctkit expands, %d", n, monomial.DefaultMaxOrder)
+	}
+	*o = orderFlag(n)
+	return nil
 }
 
 // showSpecError prints a spec error with a caret when it has a position and

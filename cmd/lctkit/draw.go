@@ -42,9 +42,9 @@ func (c *drawCmd) Run(e *env) error {
 	if len(s.At) > 1 {
 		return usageError{fmt.Errorf("draw pictures one point at a time; got %d --at points, so draw each separately (lctkit faces lists them all)", len(s.At))}
 	}
-	p, err := s.Problem()
+	p, err := problem(s, c.options(), e)
 	if err != nil {
-		return showSpecError(e, err)
+		return err
 	}
 	vars := p.Vars()
 	if n := len(vars); n < picture.MinVars || n > picture.MaxVars {

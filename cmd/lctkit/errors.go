@@ -56,13 +56,13 @@ func badFlag(flag string, err error) error {
 // batch record a field.
 var (
 	flagHints = map[string]string{
-		"Order":    "give --order D to expand it as a power series truncated at total degree D",
+		"Order":    "give --order D to expand it as a power series truncated at total degree D, or --order auto to let lctkit choose D",
 		"MaxTerms": "raise --max-terms to allow larger expansions",
 		"At":       "each function is expanded around its argument's value at the point, the origin unless --at moves it; rewrite it as the message says",
 		"Vars":     "a variable that K does not use counts as a dimension only when --vars names it",
 	}
 	recordHints = map[string]string{
-		"Order":    `set "order" in the record to expand it as a power series truncated at that total degree`,
+		"Order":    `set "order" in the record to expand it as a power series truncated at that total degree, or to "auto" to let lctkit choose it`,
 		"MaxTerms": "raise batch's --max-terms to allow larger expansions",
 		"At":       `each function is expanded around its argument's value at the point, the origin unless "at" moves it; rewrite it as the message says`,
 		"Vars":     `a variable that K does not use counts as a dimension only when "vars" names it`,

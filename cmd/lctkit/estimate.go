@@ -26,7 +26,7 @@ type estimateCmd struct {
 	Prior    string    `help:"Prior exponents near the point: x=1,y=1/2 means a prior proportional to |x|^1·|y|^(1/2); unnamed variables have 0 (uniform)." placeholder:"x=1,y=1/2"`
 	At       pointFlag `help:"The point w* (default the origin); unnamed coordinates are 0. One point only: estimate each point by itself." placeholder:"x=0,y=1/3"`
 	SOS      string    `help:"Give K as a sum of squares instead of EXPR: generators separated by ';' stand for K = g1^2 + g2^2 + …; - reads them from standard input." placeholder:"g1; g2"`
-	Order    int       `help:"Truncate power series at this total degree; needed for exp, log, sin, … and division by non-constants." placeholder:"D"`
+	Order    orderFlag `help:"Truncate power series (exp, log, sin, … and division by non-constants) at this total degree D, or auto: raise the order until the omitted terms are certified." default:"auto" placeholder:"D|auto"`
 	Vars     string    `help:"Variables that come first, in this order; names K does not use still count as dimensions." placeholder:"x,y,z"`
 	MaxFaces int       `name:"max-faces" help:"Most compact faces the certificate of the Newton bound examines before it stops with an upper bound (default 20000)." placeholder:"N"`
 	MaxTerms int       `name:"max-terms" help:"Most terms an expansion may have (default 2000000)." placeholder:"N"`
@@ -101,9 +101,9 @@ func (c *estimateCmd) Run(e *env) error {
 	if err != nil {
 		return err
 	}
-	p, err := s.Problem()
+	p, err := problem(s, flags.options(), e)
 	if err != nil {
-		return showSpecError(e, err)
+		return err
 	}
 	locals, err := p.Locals()
 	if err != nil {

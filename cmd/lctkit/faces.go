@@ -82,9 +82,9 @@ func (a *facesAnswer) MarshalJSON() ([]byte, error) {
 // describe parses the spec and describes the polyhedron at each of its
 // points (the origin when none is given), printing positioned errors.
 func describe(s *rlct.Spec, opt *rlct.Options, e *env) ([]*rlct.Description, error) {
-	p, err := s.Problem()
+	p, err := problem(s, opt, e)
 	if err != nil {
-		return nil, showSpecError(e, err)
+		return nil, err
 	}
 	return rlct.Describe(context.Background(), p, opt)
 }

@@ -260,7 +260,8 @@ func TestExitCodes(t *testing.T) {
 		{[]string{"bound", "x^2", "--sos", "x"}, exitUsage, "not both"},
 		{[]string{"expand", "x", "--at", "x"}, exitUsage, "--at"},
 		{[]string{"bound", "x^2", "--prior", "z=1"}, exitUsage, "z is not a variable of K"},
-		{[]string{"bound", "exp(x) - 1 - x", "--order", "4", "--at", "x=1"}, exitFailed, "cannot be moved to another point"},
+		{[]string{"bound", "exp(x) - 1 - x", "--order", "4", "--at", "x=1"}, exitFailed, "would be irrational"},
+		{[]string{"bound", "exp(x) - 1 - x", "--order", "4", "--at", "x=0", "--at", "x=1"}, exitFailed, "cannot be moved to another point"},
 		{[]string{"bound", "exp(x) - 1 - x", "--order", "4", "--at", "x=0", "--at", "x=1"}, exitFailed, "point 2: "},
 		{[]string{"bound", "x^2 + 1"}, exitFailed, "does not vanish"},
 		{[]string{"bound", "x^2 +"}, exitFailed, "1:6:"},
@@ -359,7 +360,7 @@ func TestTextAbbreviates(t *testing.T) {
 // Messages name the flag or record field to change, never a library
 // identifier.
 func TestMessagesNameFlags(t *testing.T) {
-	_, errOut, _ := runCLI(t, "", "bound", "sin(x)^2 + y^2")
+	_, errOut, _ := runCLI(t, "", "bound", "sin(x)^2 + y^2", "--order", "0")
 	if !strings.Contains(errOut, "--order") {
 		t.Errorf("no hint at --order: %s", errOut)
 	}

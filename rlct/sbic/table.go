@@ -705,11 +705,8 @@ func (t *Table) Candidates(ctx context.Context, opt *rlct.Options) (*Candidates,
 
 // boundSpec parses a spec and bounds it at its points.
 func boundSpec(ctx context.Context, s *rlct.Spec, opt *rlct.Options) (*rlct.Result, error) {
-	p, err := s.Problem()
-	if err != nil {
-		return nil, err
-	}
-	return rlct.Bound(ctx, p, opt)
+	_, res, err := s.Bound(ctx, opt)
+	return res, err
 }
 
 // boundError is an error of lctkit's bound of a pair's K, with the place in
