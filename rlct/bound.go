@@ -202,6 +202,7 @@ func boundLocal(ctx context.Context, l *Local, order int, truncated bool, opt *O
 		res.scale, res.Form = 2, "sum-of-squares"
 	}
 	an := newAnalysis(res, l.Polys, l.SumOfSquares, opt)
+	an.weights = l.GeneratorWeights
 	hit, err := newton.Distance(ctx, l.Weights)
 	if err != nil {
 		return nil, err
@@ -217,7 +218,7 @@ func boundLocal(ctx context.Context, l *Local, order int, truncated bool, opt *O
 	// full K, and the status is settled without deciding any face.
 	facesCarryOver := true
 	if truncated {
-		res.Truncation, err = an.checkTruncation(ctx, order, hit)
+		res.Truncation, err = an.checkTruncation(ctx, order, l.Remainder, hit)
 		if err != nil {
 			return nil, err
 		}

@@ -78,6 +78,8 @@ type analysis struct {
 	sos   bool
 	vars  []string
 	opt   *Options
+	// weights are Problem.GeneratorWeights (nil: all 1), for printing.
+	weights []*big.Rat
 }
 
 func newAnalysis(res *Result, polys []*monomial.Poly, sos bool, opt *Options) *analysis {

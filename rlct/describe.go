@@ -42,7 +42,8 @@ type Vertex struct {
 	// Monomial is w^Exponent in the parser's syntax, such as "x^4*y^2".
 	Monomial string `json:"monomial"`
 	// Coefficient is the coefficient of w^Exponent in K; it is never zero.
-	// In sum-of-squares form it is Σ_i c_i² with c_i from Generators: the
+	// In sum-of-squares form it is Σ_i c_i² with c_i from Generators (each
+	// square times its weight when Problem.GeneratorWeights is set): the
 	// vertex is 2v for a vertex v of P(⟨g_1, …, g_r⟩), and the only way to
 	// write 2v as a sum of two exponents of the generators is v + v, because
 	// v is a vertex (common practice).
@@ -112,7 +113,7 @@ func describe(ctx context.Context, res *Result, l *Local) (*Description, error) 
 		return nil, err
 	}
 	for _, v := range verts {
-		d.Vertices = append(d.Vertices, newVertex(res.Vars, l.Polys, v, l.SumOfSquares, scale))
+		d.Vertices = append(d.Vertices, newVertex(res.Vars, l.Polys, l.GeneratorWeights, v, l.SumOfSquares, scale))
 	}
 	for _, f := range facets {
 		d.Facets = append(d.Facets, newFacet(res.Vars, res.newton.Points(), f, scale))
@@ -125,7 +126,8 @@ func describe(ctx context.Context, res *Result, l *Local) (*Description, error) 
 }
 
 // newVertex describes the vertex v of the base polyhedron.
-func newVertex(vars []string, polys []*monomial.Poly, v []int, sos bool, scale int) Vertex {
+// weights are Problem.GeneratorWeights (nil: all 1).
+func newVertex(vars []string, polys []*monomial.Poly, weights []*big.Rat, v []int, sos bool, scale int) Vertex {
 	vr := Vertex{Exponent: scaled(v, scale)}
 	vr.Monomial = monomial.Monomial(vars, monomial.Exponent(vr.Exponent), big.NewRat(1, 1)).String()
 	if !sos {
@@ -134,10 +136,14 @@ func newVertex(vars []string, polys []*monomial.Poly, v []int, sos bool, scale i
 	}
 	vr.Coefficient = new(big.Rat)
 	sq := new(big.Rat)
-	for _, g := range polys {
+	for i, g := range polys {
 		c := g.Coefficient(monomial.Exponent(v))
 		vr.Generators = append(vr.Generators, c)
-		vr.Coefficient.Add(vr.Coefficient, sq.Mul(c, c))
+		sq.Mul(c, c)
+		if weights != nil {
+			sq.Mul(sq, weights[i])
+		}
+		vr.Coefficient.Add(vr.Coefficient, sq)
 	}
 	return vr
 }

@@ -95,7 +95,11 @@
 // hyperplane at t_τ·τ (then the value is that of the full K: UpperBound or
 // better) and, for Exact, above every compact face (then the face verdicts
 // carry over); otherwise the value is Uncertified. Both checks are exact and
-// need no facet enumeration; see Truncation.
+// need no facet enumeration; see Truncation. When the caller knows more,
+// Problem.Remainder lists monomials that every omitted term is a multiple of
+// (monomial.Expansion.Remainder); the same two conditions are then checked
+// for those monomials, which certifies shapes such as a²b²·(a unit) that no
+// total degree can.
 //
 // # Numerical estimates
 //

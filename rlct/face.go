@@ -126,7 +126,12 @@ func (an *analysis) parts(f *polyhedron.Face) []*monomial.Poly {
 	return out
 }
 
-// facePolynomial prints the face polynomial of K from the parts, with at
+// ratOne is 1, for comparisons only.
+var ratOne = big.NewRat(1, 1)
+
+// facePolynomial prints the face polynomial of K from the parts (in
+// sum-of-squares form with the generator weights written in front of the
+// squares they multiply), with at
 // most limit terms before an abbreviation, and returns it with its number
 // of terms.
 func (an *analysis) facePolynomial(parts []*monomial.Poly, limit int) (string, int) {
@@ -139,7 +144,7 @@ func (an *analysis) facePolynomial(parts []*monomial.Poly, limit int) (string, i
 	}
 	var terms []string
 	shown := 0
-	for _, q := range parts {
+	for i, q := range parts {
 		if q.IsZero() {
 			continue
 		}
@@ -147,7 +152,11 @@ func (an *analysis) facePolynomial(parts []*monomial.Poly, limit int) (string, i
 			terms = append(terms, "…")
 			break
 		}
-		terms = append(terms, "("+abbreviatePoly(q, limit-shown)+")^2")
+		weight := ""
+		if an.weights != nil && an.weights[i].Cmp(ratOne) != 0 {
+			weight = an.weights[i].RatString() + "*"
+		}
+		terms = append(terms, weight+"("+abbreviatePoly(q, limit-shown)+")^2")
 		shown += q.Len()
 	}
 	return strings.Join(terms, " + "), total

@@ -56,6 +56,31 @@ type Problem struct {
 	// the prior rule (see Prior) and the report. Points must then hold
 	// exactly one point.
 	Centered bool
+
+	// Remainder, when Truncated is set, says more about the omitted terms
+	// than their total degree: every term of the true function minus K (in
+	// sum-of-squares form, of each true generator minus the given one, and
+	// of every generator left out) is a multiple of w^r for some r in
+	// Remainder, as monomial.Expansion.Remainder says of one expansion.
+	// The exponents are in the variables of K (offsets from the point
+	// when Centered, else exponents at the origin), in the coordinates of the polyhedron that is
+	// built (P(K), or P(⟨g_1, …, g_r⟩) in sum-of-squares form), and each has
+	// total degree above Order. nil means only the total degree is known.
+	// See Truncation for how it is used.
+	Remainder []monomial.Exponent
+
+	// GeneratorWeights, in sum-of-squares form, makes K = Σ c_i·g_i² with
+	// rational weights c_i > 0, one per generator; nil means every c_i = 1.
+	// The weights are used only to print K: its face polynomials and the
+	// coefficients of its vertices. They change neither λ, θ nor the status,
+	// because they change neither P(K) nor the zeros of any face polynomial
+	// in the real torus: a vertex 2v of P(K) = 2·P(⟨g_1, …, g_r⟩) is the sum
+	// of two exponents of the generators only as v + v (v is a vertex), so
+	// its coefficient in K is Σ c_i·g_i(v)², positive with or without the
+	// weights; and the face polynomial on a compact face σ is
+	// Σ c_i·(g_i on σ)², which vanishes exactly where every g_i on σ does,
+	// whatever the positive c_i (common practice).
+	GeneratorWeights []*big.Rat
 }
 
 // Local is a Problem checked and translated to one of its points: what
@@ -80,13 +105,18 @@ type Local struct {
 	// value: a prior exponent given for a coordinate that is not 0 at the
 	// point, which therefore does not count there.
 	Notes []string
+	// GeneratorWeights and Remainder are those of the Problem.
+	GeneratorWeights []*big.Rat
+	Remainder        []monomial.Exponent
 }
 
 // Locals checks p and returns it at each of its points, in order (one
 // Local at the origin when p.Points is empty). It returns ErrTwoForms,
 // ErrNoFunction, ErrNoVariables or ErrVariables for a malformed function,
 // ErrDimension for a prior or a point whose length does not match the
-// variables, ErrPrior for an exponent ≤ −1, and ErrShiftSeries for a
+// variables or a remainder monomial that does not fit, ErrWeights for
+// generator weights that are not one positive rational per generator,
+// ErrPrior for an exponent ≤ −1, and ErrShiftSeries for a
 // truncated series at a point other than the origin; with several points
 // the error names the point ("point 2: …").
 func (p *Problem) Locals() ([]*Local, error) {
@@ -95,6 +125,9 @@ func (p *Problem) Locals() ([]*Local, error) {
 		return nil, err
 	}
 	d := len(vars)
+	if err := p.checkExtras(d); err != nil {
+		return nil, err
+	}
 	if p.Prior != nil && len(p.Prior) != d {
 		return nil, fmt.Errorf("%w: prior has %d entries for %d variables", ErrDimension, len(p.Prior), d)
 	}
@@ -122,6 +155,7 @@ func (p *Problem) Locals() ([]*Local, error) {
 		if err != nil {
 			return nil, atPoint(k, len(points), err)
 		}
+		l.GeneratorWeights, l.Remainder = p.GeneratorWeights, p.Remainder
 		out[k] = l
 	}
 	return out, nil

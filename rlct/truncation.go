@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"math/big"
 
+	"github.com/lctkit/lctkit/monomial"
 	"github.com/lctkit/lctkit/polyhedron"
 )
 
@@ -29,6 +30,10 @@ type Truncation struct {
 	// the terms known now, or -1 when no order can. Terms that appear only
 	// at a higher order can change it, so it is a first order to try.
 	NeededOrder int `json:"needed_order"`
+	// Remainder is true when the check used the monomials of
+	// Problem.Remainder, which every omitted term is a multiple of, and not
+	// only their total degree.
+	Remainder bool `json:"remainder,omitempty"`
 }
 
 // checkTruncation certifies that the terms a series truncated at total
@@ -56,7 +61,13 @@ type Truncation struct {
 //     and on no compact face exactly when c_i < D+1 (c_i·e_i is a vertex,
 //     and every point beyond it on the axis lies above all compact faces);
 //     without a pure power in w_i no order can rule out new faces.
-func (an *analysis) checkTruncation(ctx context.Context, order int, hit *polyhedron.Hit) (*Truncation, error) {
+//
+// With Problem.Remainder the omitted terms are known to be multiples of
+// the remainder monomials, a subset of Q, and the same two conditions are
+// checked for those monomials alone (see remainderCheck); the answer is
+// the better of the two checks, and BoundOrder and NeededOrder still come
+// from the total degree.
+func (an *analysis) checkTruncation(ctx context.Context, order int, rem []monomial.Exponent, hit *polyhedron.Hit) (*Truncation, error) {
 	res := an.res
 	d := len(an.vars)
 	tr := &Truncation{Order: order, BoundOrder: -1, NeededOrder: -1}
@@ -117,6 +128,28 @@ func (an *analysis) checkTruncation(ctx context.Context, order int, hit *polyhed
 	}
 
 	notBound := "the value is not a bound: omitted terms could raise the Newton value or change θ, so it may lie below the true learning coefficient"
+	if rem != nil {
+		remPrincipal, remFaces, first, err := an.remainderCheck(ctx, rem, hit)
+		if err != nil {
+			return nil, err
+		}
+		tr.Remainder = true
+		tr.Principal = tr.Principal || remPrincipal
+		tr.Faces = tr.Principal && (tr.Faces || remFaces)
+		mono := ""
+		if first != nil {
+			mono = monomial.Monomial(an.vars, first, big.NewRat(1, 1)).String()
+		}
+		switch {
+		case !tr.Principal:
+			res.Reasons = append(res.Reasons, fmt.Sprintf(
+				"K is a series truncated at degree %d whose omitted terms are multiples of %s, which could reach the principal face, so %s", order, mono, notBound))
+		case !tr.Faces:
+			res.Reasons = append(res.Reasons, fmt.Sprintf(
+				"K is a series truncated at degree %d: the value is a certified upper bound for the full K, but its omitted terms are multiples of %s, which could change a compact face whose nondegeneracy is then unknown", order, mono))
+		}
+		return tr, nil
+	}
 	switch {
 	case !principalOK:
 		res.Reasons = append(res.Reasons, fmt.Sprintf(
