@@ -33,16 +33,24 @@ var ErrRecord error = &inputError{"rlct: bad record"}
 //	order  a non-negative integer literal, as Spec.Order, or "auto" for
 //	       OrderAuto (optional)
 //	vars   "x,y,z" or a list of names, as Spec.Vars (optional)
+//	model  a model description (package rlct/model), one string or a list
+//	       of its lines, instead of k or sos; with it only id and order
+//	       (which replaces the description's order) may be given
 //
-// Exactly one of k and sos must be given. A field whose value is null
-// counts as absent; any other field name is an error.
+// Exactly one of k, sos and model must be given. A field whose value is
+// null counts as absent; any other field name is an error.
 type Record struct {
 	// ID is the value of "id" exactly as it was written, nil when absent.
 	// It never passes through a float64, so an integer with any number of
 	// digits comes back unchanged when the record is encoded again.
 	ID json.RawMessage
 	// Spec is the problem; Spec.Limits is left zero for the caller to set.
+	// With Model set, only Spec.Order may be set.
 	Spec Spec
+	// Model is the text of a model description, its lines joined by
+	// newlines, when the record gives one; this package does not read it
+	// (package rlct/model does).
+	Model string
 }
 
 // DecodeRecord reads one record from data, which must hold a single JSON
@@ -82,16 +90,26 @@ func DecodeRecord(data []byte) (Record, error) {
 			s.Order, err = decodeOrder(f.value)
 		case "vars":
 			s.Vars, err = decodeNames(f.value)
+		case "model":
+			var lines []string
+			lines, err = decodeStrings(f.value)
+			rec.Model = strings.Join(lines, "\n")
 		default:
-			return rec, fmt.Errorf("%w: unknown field %q (known: id, k, sos, prior, at, order, vars)", ErrRecord, f.name)
+			return rec, fmt.Errorf("%w: unknown field %q (known: id, k, sos, prior, at, order, vars, model)", ErrRecord, f.name)
 		}
 		if err != nil {
 			return rec, fmt.Errorf("%w: field %q: %v", ErrRecord, f.name, err)
 		}
 	}
+	if rec.Model != "" {
+		if s.K != "" || len(s.SOS) > 0 || s.Prior != "" || len(s.At) > 0 || len(s.Vars) > 0 {
+			return rec, fmt.Errorf(`%w: a record with "model" takes only "id" and "order" besides (the description holds K, the prior and the truth)`, ErrRecord)
+		}
+		return rec, nil
+	}
 	switch {
 	case s.K == "" && len(s.SOS) == 0:
-		return rec, fmt.Errorf(`%w: neither "k" nor "sos" is given`, ErrRecord)
+		return rec, fmt.Errorf(`%w: none of "k", "sos" and "model" is given`, ErrRecord)
 	case s.K != "" && len(s.SOS) > 0:
 		return rec, fmt.Errorf(`%w: give either "k" or "sos", not both`, ErrRecord)
 	}
@@ -99,8 +117,8 @@ func DecodeRecord(data []byte) (Record, error) {
 }
 
 // MarshalJSON writes r in the form DecodeRecord reads: id (when set), k or
-// sos (a list), then prior, at (a list), order and vars (a list) when they
-// are set. An ID that is not valid JSON is an error.
+// sos (a list), then prior, at (a list), order, vars (a list) and model (a
+// string) when they are set. An ID that is not valid JSON is an error.
 func (r Record) MarshalJSON() ([]byte, error) {
 	var b bytes.Buffer
 	b.WriteByte('{')
@@ -130,6 +148,7 @@ func (r Record) MarshalJSON() ([]byte, error) {
 		{"at", len(s.At) > 0, s.At},
 		{"order", s.Order != 0, orderValue(s.Order)},
 		{"vars", len(s.Vars) > 0, s.Vars},
+		{"model", r.Model != "", r.Model},
 	}
 	for _, st := range steps {
 		if !st.set {

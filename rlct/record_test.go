@@ -39,11 +39,48 @@ func TestDecodeRecord(t *testing.T) {
 			t.Errorf("%s: %v", tt.in, err)
 			continue
 		}
+		if rec.Model != "" {
+			t.Errorf("%s: model %q, want none", tt.in, rec.Model)
+		}
 		if string(rec.ID) != tt.id {
 			t.Errorf("%s: id %q, want %q", tt.in, rec.ID, tt.id)
 		}
 		if !reflect.DeepEqual(rec.Spec, tt.spec) {
 			t.Errorf("%s: spec %+v, want %+v", tt.in, rec.Spec, tt.spec)
+		}
+	}
+}
+
+// TestDecodeModelRecord checks records that give a model description: the
+// text as one string or a list of lines, with an order that replaces the
+// description's.
+func TestDecodeModelRecord(t *testing.T) {
+	tests := []struct {
+		in    string
+		model string
+		order int
+	}{
+		{`{"id": 1, "model": "kind discrete\nparam a"}`, "kind discrete\nparam a", 0},
+		{`{"model": ["kind discrete", "param a"], "order": 4}`, "kind discrete\nparam a", 4},
+		{`{"model": ["kind discrete"], "k": null}`, "kind discrete", 0},
+	}
+	for _, tt := range tests {
+		rec, err := DecodeRecord([]byte(tt.in))
+		if err != nil {
+			t.Errorf("%s: %v", tt.in, err)
+			continue
+		}
+		if rec.Model != tt.model || rec.Spec.Order != tt.order {
+			t.Errorf("%s: model %q, order %d; want %q, %d", tt.in, rec.Model, rec.Spec.Order, tt.model, tt.order)
+		}
+		// MarshalJSON writes what DecodeRecord reads.
+		enc, err := json.Marshal(rec)
+		if err != nil {
+			t.Fatal(err)
+		}
+		back, err := DecodeRecord(enc)
+		if err != nil || back.Model != rec.Model || back.Spec.Order != rec.Spec.Order {
+			t.Errorf("%s: round trip through %s gives %+v, %v", tt.in, enc, back, err)
 		}
 	}
 }
@@ -64,8 +101,11 @@ func TestDecodeRecordErrors(t *testing.T) {
 		{`{"id": 1, "k": "x^2", "nonsense": 3}`, `1`, `unknown field "nonsense"`},
 		{`{"id": 1, "K": "x^2"}`, `1`, `unknown field "K"`},
 		{`{"id": 1, "k": "x^2", "k": "y^2"}`, `1`, `duplicate field "k"`},
-		{`{"id": 1}`, `1`, `neither "k" nor "sos"`},
-		{`{"id": 1, "k": ""}`, `1`, `neither "k" nor "sos"`},
+		{`{"id": 1, "model": "kind regression", "k": "x^2"}`, `1`, `takes only "id" and "order"`},
+		{`{"id": 1, "model": "kind regression", "prior": "x=1"}`, `1`, `takes only "id" and "order"`},
+		{`{"id": 1, "model": 3}`, `1`, `field "model": want a string or a list of strings`},
+		{`{"id": 1}`, `1`, `none of "k", "sos" and "model"`},
+		{`{"id": 1, "k": ""}`, `1`, `none of "k", "sos" and "model"`},
 		{`{"id": 1, "k": "x^2", "sos": ["x"]}`, `1`, `not both`},
 		{`{"id": 1, "k": 5}`, `1`, `field "k": want a string`},
 		{`{"id": 1, "sos": [1, 2]}`, `1`, `field "sos": entry 1: want a string`},
@@ -197,5 +237,5 @@ func ExampleDecodeRecord() {
 	fmt.Println(err)
 	// Output:
 	// 12345678901234567890123 [b1*a1 b1*a2] a1=1
-	// rlct: bad record: unknown field "weight" (known: id, k, sos, prior, at, order, vars)
+	// rlct: bad record: unknown field "weight" (known: id, k, sos, prior, at, order, vars, model)
 }
