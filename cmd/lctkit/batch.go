@@ -57,7 +57,9 @@ Input fields:
   at     "x=0,y=1/3" or a list of such points (optional)
   order  series truncation degree, an integer (optional)
   vars   "x,y,z" or ["x", "y", "z"] (optional)
-Any other field is an error.
+  model  a model description (see lctkit model --help), one string or a list
+         of its lines, instead of k or sos; only id and order may go with it
+Any other field is an error. A record with a model gets its name in "model".
 
 Every input line gives exactly one output line, whatever happens. A line that
 cannot be answered (malformed JSON, an unknown field, a parse error, K not
@@ -160,6 +162,9 @@ type batchAnswer struct {
 type batchReply struct {
 	ID   json.RawMessage `json:"id,omitempty"`
 	Line int             `json:"line"`
+	// Model is the name of the model, for a record that gives a model
+	// description.
+	Model string `json:"model,omitempty"`
 	result
 }
 
@@ -288,12 +293,13 @@ func (c *batchCmd) answer(it batchItem) (a batchAnswer) {
 		}
 		a.json = append(b, '\n')
 	}()
-	reply.result = c.solve(it, &reply.ID)
+	reply.result = c.solve(it, &reply.ID, &reply.Model)
 	return a
 }
 
-// solve answers one record; it sets *id as soon as the id is known.
-func (c *batchCmd) solve(it batchItem, id *json.RawMessage) result {
+// solve answers one record; it sets *id as soon as the id is known, and
+// *name to the model's name for a record with a model description.
+func (c *batchCmd) solve(it batchItem, id *json.RawMessage, name *string) result {
 	if it.err != nil {
 		return result{Error: it.err.Error()}
 	}
@@ -315,7 +321,12 @@ func (c *batchCmd) solve(it batchItem, id *json.RawMessage) result {
 		return result{Error: err.Error()}
 	}
 	rec.Spec.Limits = monomial.Limits{MaxTerms: c.MaxTerms}
-	_, r, err := rec.Spec.Bound(ctx, &rlct.Options{MaxFaces: c.MaxFaces})
+	var r *rlct.Result
+	if rec.Model != "" {
+		r, err = boundModel(ctx, rec, c.MaxTerms, c.MaxFaces, name)
+	} else {
+		_, r, err = rec.Spec.Bound(ctx, &rlct.Options{MaxFaces: c.MaxFaces})
+	}
 	if err != nil && ctx.Err() != nil {
 		return result{Error: "timed out after " + c.Timeout.String()}
 	}

@@ -168,6 +168,7 @@ type boundCmd struct {
 	N        string `help:"Also print the penalty λ·log n − (θ−1)·log log n at these sample sizes (comma separated)." placeholder:"1000,10000"`
 	AllFaces bool   `name:"all-faces" help:"Decide and list every compact face of the Newton polyhedron (the full per-face report, which can be very large); the status is the same without it."`
 	jsonFlag
+	Model string `help:"Build K from the model description in FILE (- for standard input) and bound it, as lctkit model does." placeholder:"FILE"`
 }
 
 // Help is shown under the command's usage.
@@ -199,6 +200,12 @@ Examples:
 
 // Run bounds the problem and prints the answer.
 func (c *boundCmd) Run(e *env) error {
+	if c.Model != "" {
+		if c.Expr != "" || c.SOS != "" || c.Prior != "" || len(c.At) > 0 || c.Vars != "" {
+			return usageError{errors.New("--model takes the prior, the truth and K from the description: give no EXPR, --sos, --prior, --at or --vars with it")}
+		}
+		return runModel(e, c.Model, modelFlags{Order: c.Order, MaxFaces: c.MaxFaces, MaxTerms: c.MaxTerms, N: c.N, AllFaces: c.AllFaces, jsonFlag: c.jsonFlag})
+	}
 	s, note, err := c.spec(c.Expr, e)
 	if err != nil {
 		return err

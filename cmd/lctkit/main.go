@@ -40,6 +40,7 @@ type cli struct {
 	Version kong.VersionFlag `help:"Print the version and exit."`
 
 	Bound   boundCmd   `cmd:"" help:"Bound the learning coefficient λ and multiplicity θ of K; exact when certified."`
+	Model   modelCmd   `cmd:"" help:"Build K from a model description (regression, discrete, mixture) exactly and bound it."`
 	Expand  expandCmd  `cmd:"" help:"Expand an expression into its exact canonical polynomial."`
 	Penalty penaltyCmd `cmd:"" help:"Print the asymptotic penalty λ·log n − (θ−1)·log log n beside the regular one."`
 	Faces   facesCmd   `cmd:"" help:"Print the Newton polyhedron: vertices, facets, compact faces with their verdicts, the principal face."`
