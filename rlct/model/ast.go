@@ -171,7 +171,8 @@ const (
 	opPow
 	opIndex
 	opTranspose
-	opParen // parentheses as written, kept for printing
+	opParen  // parentheses as written, kept for printing
+	opMatrix // [a, b; c, d]: args row by row, i rows and j columns
 )
 
 // node is an expression of a description.

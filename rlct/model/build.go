@@ -95,7 +95,7 @@ func Build(ctx context.Context, d *Description, opt *Options) (*Model, error) {
 	if opt == nil {
 		opt = &Options{}
 	}
-	b := &build{ctx: ctx, d: d, opt: opt, order: d.order}
+	b := &build{ctx: ctx, d: d, opt: opt, order: d.order, budget: maxText}
 	if opt.Order > 0 {
 		b.order = opt.Order
 	}
@@ -127,6 +127,9 @@ type build struct {
 	// series is set when some expression is not a polynomial: everything
 	// is then expanded at the (single) truth, in offsets from it.
 	series, decided bool
+
+	// budget is the text the expressions may still expand to (maxText).
+	budget int
 
 	m      *Model
 	rem    []monomial.Exponent // remainder of a series, in the parameters

@@ -2,6 +2,8 @@ package model
 
 import (
 	"math/big"
+
+	"github.com/lctkit/lctkit/monomial"
 )
 
 // check verifies that a description read without syntax errors is complete
@@ -59,8 +61,14 @@ func (d *Description) check() *Error {
 		case len(d.inputs) > 0:
 			return errorAt(src, d.inputs[0].pos, "a mixture has no inputs")
 		}
+		family := func(c *component) string {
+			if c.family == "bernoulli" {
+				return "binomial" // with one trial
+			}
+			return c.family
+		}
 		for _, c := range d.comps[1:] {
-			if c.family != d.comps[0].family || c.trials != d.comps[0].trials {
+			if family(c) != family(d.comps[0]) || c.trials != d.comps[0].trials {
 				return errorAt(src, c.pos, "the components of a mixture must come from one family, and this one differs from the first")
 			}
 		}
@@ -85,14 +93,21 @@ func (d *Description) check() *Error {
 		}
 		return nil
 	}
+	total := 0
 	for _, p := range d.params {
 		if err := addEntries(&p.decl); err != nil {
 			return err
+		}
+		if total += p.shape.size(); total > monomial.DefaultMaxVars {
+			return errorAt(src, p.pos, "the parameters have more than %d entries", monomial.DefaultMaxVars)
 		}
 	}
 	for _, in := range d.inputs {
 		if err := addEntries(&in.decl); err != nil {
 			return err
+		}
+		if total += in.shape.size(); total > monomial.DefaultMaxVars {
+			return errorAt(src, in.pos, "the parameters and inputs have more than %d entries", monomial.DefaultMaxVars)
 		}
 		if in.law.kind == lawMoments {
 			if err := in.law.checkMoments(src, in); err != nil {

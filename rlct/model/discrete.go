@@ -43,9 +43,12 @@ func buildDiscrete(b *build) error {
 	var groups []categoryGroup
 	var pieces []piece
 	for _, c := range combos {
+		if err := b.stopped(); err != nil {
+			return err
+		}
 		env := b.environment(c)
 		g := categoryGroup{weight: c.weight, given: c.label}
-		ev := &evaluator{src: d.src, env: env}
+		ev := &evaluator{src: d.src, env: env, budget: &b.budget}
 		for _, cat := range d.cats {
 			v, err := ev.run(cat.expr)
 			if err != nil {

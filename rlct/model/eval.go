@@ -85,6 +85,34 @@ type evaluator struct {
 	env map[string]*value
 	// shapes: compute shapes only (the check of Parse).
 	shapes bool
+	// budget, when set, is the number of bytes of text the evaluations may
+	// still generate (shared by the evaluators of one Build).
+	budget *int
+}
+
+// maxText bounds the text that the expressions of one description may
+// expand to before the expression language reads it (64 MiB).
+const maxText = 64 << 20
+
+// charge takes n bytes of generated text from the budget, failing at the
+// node when it is spent.
+func (ev *evaluator) charge(n *node, bytes int) {
+	if ev.shapes || ev.budget == nil {
+		return
+	}
+	*ev.budget -= bytes
+	if *ev.budget < 0 {
+		ev.fail(n, "the model's expressions expand to more than %d MiB of text; describe a smaller model", maxText>>20)
+	}
+}
+
+// size is the number of bytes of the entries of v.
+func (v *value) size() int {
+	n := 0
+	for _, f := range v.e {
+		n += len(f.b)
+	}
+	return n
 }
 
 // fail reports an error at the node.
@@ -123,6 +151,17 @@ func (ev *evaluator) newValue(s shape) *value {
 func scalar(v *value) bool { return v.shape.rows == 1 && v.shape.cols == 1 }
 
 func (ev *evaluator) eval(n *node) *value {
+	v := ev.eval1(n)
+	switch n.op {
+	case opParen, opIndex, opTranspose:
+		// shares the entries of its operand
+	default:
+		ev.charge(n, v.size())
+	}
+	return v
+}
+
+func (ev *evaluator) eval1(n *node) *value {
 	switch n.op {
 	case opNum:
 		v := ev.newValue(shape{rows: 1, cols: 1})
@@ -225,6 +264,9 @@ func (ev *evaluator) eval(n *node) *value {
 		if ev.shapes {
 			return v
 		}
+		// Each entry repeats a row of a and a column of b: charge that
+		// before writing it.
+		ev.charge(n, a.shape.rows*b.shape.cols*(a.shape.cols*4)+b.shape.cols*a.size()+a.shape.rows*b.size())
 		for i := range a.shape.rows {
 			for j := range b.shape.cols {
 				f := v.at(i, j)
@@ -275,6 +317,18 @@ func (ev *evaluator) eval(n *node) *value {
 				for j := range a.shape.cols {
 					v.e[j*a.shape.rows+i] = a.at(i, j)
 				}
+			}
+		}
+		return v
+	case opMatrix:
+		v := ev.newValue(shape{rows: n.i, cols: n.j})
+		for k, x := range n.args {
+			a := ev.eval(x)
+			if !scalar(a) {
+				ev.fail(x, "the entries of a matrix written out are scalars, and this one is %s", shapeWords(a.shape))
+			}
+			if !ev.shapes {
+				v.e[k] = a.e[0]
 			}
 		}
 		return v

@@ -112,7 +112,8 @@ func (p *parser) postfix() *node {
 
 // primary reads a number, a name, a call or a parenthesized expression.
 //
-//	Primary = number | identifier | function "(" Expr ")" | "sum" "(" Expr ")" | "(" Expr ")" .
+//	Primary = number | identifier | function "(" Expr ")" | "sum" "(" Expr ")"
+//	        | "(" Expr ")" | Matrix .
 func (p *parser) primary() *node {
 	at := p.tok.off
 	switch p.tok.kind {
@@ -147,9 +148,43 @@ func (p *parser) primary() *node {
 		x := p.expr()
 		p.expect(tRParen, "')'")
 		return &node{op: opParen, pos: at, args: []*node{x}}
+	case tLBrack:
+		p.enter()
+		defer func() { p.depth-- }()
+		return p.matrix()
 	}
 	p.fail(at, "expected an operand, found %s", p.found())
 	return nil
+}
+
+// matrix reads a matrix of scalar expressions, rows separated by ';'.
+//
+//	Matrix = "[" Expr { ( "," | ";" ) Expr } "]" .
+func (p *parser) matrix() *node {
+	n := &node{op: opMatrix, pos: p.tok.off}
+	p.next()
+	cols := 0
+	for {
+		n.args = append(n.args, p.expr())
+		cols++
+		switch p.tok.kind {
+		case tComma:
+			p.next()
+			continue
+		case tSemi, tRBrack:
+			if n.i > 0 && cols != n.j {
+				p.fail(p.tok.off, "this row has %d entries, and the first has %d", cols, n.j)
+			}
+			n.i, n.j, cols = n.i+1, cols, 0
+			if p.tok.kind == tSemi {
+				p.next()
+				continue
+			}
+			p.next()
+			return n
+		}
+		p.fail(p.tok.off, "expected ',', ';' or ']', found %s", p.found())
+	}
 }
 
 // precedence of a node when printed: higher binds tighter.
@@ -213,6 +248,19 @@ func (n *node) print(b *strings.Builder) {
 		x := n.args[0].unwrap()
 		wrap(x, x.precedence() < 5)
 		b.WriteByte('\'')
+	case opMatrix:
+		b.WriteByte('[')
+		for k, x := range n.args {
+			switch {
+			case k == 0:
+			case k%n.j == 0:
+				b.WriteString("; ")
+			default:
+				b.WriteString(", ")
+			}
+			x.print(b)
+		}
+		b.WriteByte(']')
 	}
 }
 
@@ -220,6 +268,15 @@ func (n *node) print(b *strings.Builder) {
 // the expression language (an identifier that it does not accept as a
 // variable) or sum.
 func isFunction(name string) bool { return name == "sum" || !monomial.IsIdentifier(name) }
+
+// start returns the offset where the expression's text begins.
+func (n *node) start() int {
+	switch n.op {
+	case opAdd, opSub, opMul, opDiv, opPow, opIndex, opTranspose:
+		return n.args[0].start()
+	}
+	return n.pos
+}
 
 // unwrap returns the node inside written parentheses.
 func (n *node) unwrap() *node {

@@ -172,11 +172,24 @@ func (dsg Design) text() (string, error) {
 		return "", familyError("a design needs as many weights as points, and at least one point")
 	}
 	var parts []string
+	sum := new(big.Rat)
 	for k, p := range dsg.Points {
-		if len(p) != len(dsg.Points[0]) || len(p) == 0 {
-			return "", familyError("the points of a design must have one length")
+		if len(p) != len(dsg.Points[0]) || len(p) == 0 || len(p) > maxShape {
+			return "", familyError("the points of a design must have one length, from 1 to %d", maxShape)
 		}
+		for _, q := range dsg.Points[:k] {
+			if ratsEqual(p, q) {
+				return "", familyError("the design lists a point twice")
+			}
+		}
+		if w := dsg.Weights[k]; w == nil || w.Sign() <= 0 {
+			return "", familyError("a design weight must be positive")
+		}
+		sum.Add(sum, dsg.Weights[k])
 		parts = append(parts, "("+ratJoin(p, ", ")+"): "+dsg.Weights[k].RatString())
+	}
+	if sum.Cmp(big.NewRat(1, 1)) != 0 {
+		return "", familyError("the design weights sum to %s, not 1", sum.RatString())
 	}
 	return "design { " + strings.Join(parts, ", ") + " }", nil
 }

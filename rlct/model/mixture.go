@@ -39,7 +39,7 @@ import (
 func buildMixture(b *build) error {
 	d := b.d
 	env := b.environment(combo{values: map[string][]*big.Rat{}, weight: big.NewRat(1, 1)})
-	ev := &evaluator{src: d.src, env: env}
+	ev := &evaluator{src: d.src, env: env, budget: &b.budget}
 	var weights, args []*frag
 	for _, c := range d.comps {
 		w, err := ev.run(c.weight)

@@ -13,6 +13,10 @@ import (
 // designs of several inputs).
 const maxCombos = 100_000
 
+// maxBasis bounds the monomials of the integrated inputs that the mean may
+// involve (the moment matrix has that many rows and is factored exactly).
+const maxBasis = 300
+
 // combo is one joint point of the design inputs, with its weight.
 type combo struct {
 	values map[string][]*big.Rat // input name → its coordinates
@@ -88,7 +92,7 @@ func (b *build) environment(c combo) map[string]*value {
 // evalAll evaluates expressions in env and returns their entries, in
 // order (a matrix row by row).
 func (b *build) evalAll(env map[string]*value, exprs []*node) ([]*frag, error) {
-	ev := &evaluator{src: b.d.src, env: env}
+	ev := &evaluator{src: b.d.src, env: env, budget: &b.budget}
 	var out []*frag
 	for _, n := range exprs {
 		v, err := ev.run(n)
@@ -157,6 +161,9 @@ func buildRegression(b *build) error {
 	var where []string
 	outputs := 0
 	for _, c := range combos {
+		if err := b.stopped(); err != nil {
+			return err
+		}
 		fs, err := b.evalAll(b.environment(c), d.means)
 		if err != nil {
 			return err
@@ -198,7 +205,7 @@ func buildRegression(b *build) error {
 			}
 		}
 		if low, k := lowestW(exs, nw); low == 0 {
-			return errorAt(d.src, d.means[0].pos, "%sthe expansion of the mean in the inputs does not end: some coefficient in the parameters is not a polynomial in %s, so its expectation is no finite sum of moments (terms without parameters cancel in K: leave them out of the mean)", pieces[k].context, strings.Join(xvars, ", "))
+			return errorAt(d.src, pieces[k].f.marks[0].src, "%sthe expansion of the mean in the inputs does not end: some coefficient in the parameters is not a polynomial in %s, so its expectation is no finite sum of moments (terms without parameters cancel in K: leave them out of the mean)", pieces[k].context, strings.Join(xvars, ", "))
 		}
 	}
 
@@ -242,6 +249,12 @@ func buildRegression(b *build) error {
 		}
 		return -slices.Compare(a, c)
 	})
+	if len(alphas) > maxBasis {
+		return errorAt(d.src, d.means[0].start(), "the mean needs %d monomials of the integrated inputs, more than %d: their moment matrix would be too large", len(alphas), maxBasis)
+	}
+	if err := b.stopped(); err != nil {
+		return err
+	}
 	for i, a := range alphas {
 		basis[fmt.Sprint([]int(a))] = i
 	}
