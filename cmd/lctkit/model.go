@@ -162,7 +162,7 @@ func writeModel(w io.Writer, m *model.Model) {
 		}
 		fmt.Fprintf(w, "    %s*(%s)^2   [%s]\n", p.GeneratorWeights[i].RatString(), shortPolynomial(g.String(), g.Len()), m.Labels[i])
 	}
-	if m.Offsets {
+	if m.Offsets && !allZero(m.Truth) {
 		fmt.Fprintf(w, "  a series in the offsets w − w* from the truth %s, under the parameters' names\n", m.TruthString())
 	}
 	if rem := m.RemainderStrings(); len(rem) > 0 {
