@@ -75,4 +75,3 @@ func BenchmarkBuildAndBound(b *testing.B) {
 		}
 	}
 }
-

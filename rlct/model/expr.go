@@ -286,13 +286,6 @@ func (n *node) unwrap() *node {
 	return n
 }
 
-// exprString prints an expression.
-func exprString(n *node) string {
-	var b strings.Builder
-	n.print(&b)
-	return b.String()
-}
-
 // ratText writes a rational as an operand of the expression language.
 func ratText(r *big.Rat) string {
 	if r.Sign() >= 0 && r.IsInt() {
