@@ -204,7 +204,7 @@ func (c *boundCmd) Run(e *env) error {
 		if c.Expr != "" || c.SOS != "" || c.Prior != "" || len(c.At) > 0 || c.Vars != "" {
 			return usageError{errors.New("--model takes the prior, the truth and K from the description: give no EXPR, --sos, --prior, --at or --vars with it")}
 		}
-		return runModel(e, c.Model, modelFlags{Order: c.Order, MaxFaces: c.MaxFaces, MaxTerms: c.MaxTerms, N: c.N, AllFaces: c.AllFaces, jsonFlag: c.jsonFlag})
+		return runModel(e, c.Model, modelFlags{Order: max(int(c.Order), 0), MaxFaces: c.MaxFaces, MaxTerms: c.MaxTerms, N: c.N, AllFaces: c.AllFaces, jsonFlag: c.jsonFlag})
 	}
 	s, note, err := c.spec(c.Expr, e)
 	if err != nil {
