@@ -299,6 +299,8 @@ func (r *Result) summary() string {
 	switch {
 	case tr != nil && tr.BoundOrder >= 0:
 		return fmt.Sprintf("not a bound: the value comes from a series truncated at degree %d whose omitted terms could change it, so it may lie below the true learning coefficient; truncating at degree %d or more would certify it as a bound, judging by the terms known now", tr.Order, tr.BoundOrder)
+	case tr != nil && tr.Remainder:
+		return fmt.Sprintf("not a bound: the value comes from a series truncated at degree %d whose omitted terms could change it, so it may lie below the true learning coefficient; the total degree names no order that would certify it, but a higher order may, since the omitted terms then have higher degree", tr.Order)
 	case tr != nil:
 		return fmt.Sprintf("not a bound: the value comes from a series truncated at degree %d whose omitted terms could change it at any order, so it may lie below the true learning coefficient; no truncation order certifies it (write K exactly, or in coordinates where every variable has weight at the principal face)", tr.Order)
 	case len(r.Locals) > 0:

@@ -19,7 +19,7 @@ var (
 	resultKeys      = []string{"lambda", "theta", "status", "summary", "distance", "variables", "prior", "weights", "point", "form", "reasons", "notes", "principal_face", "certificate", "nondegeneracy", "truncation", "locals"}
 	faceKeys        = []string{"dim", "codim", "compact", "principal", "vertices", "rays", "normal", "rhs", "polynomial", "terms", "verdict", "rule", "witness", "reason"}
 	certificateKeys = []string{"unsafe_points", "faces_examined", "by_rule", "degenerate", "undetermined", "complete", "stopped", "deciding_faces"}
-	truncationKeys  = []string{"order", "principal", "faces", "bound_order", "needed_order"}
+	truncationKeys  = []string{"order", "principal", "faces", "bound_order", "needed_order", "remainder"}
 	witnessKeys     = []string{"root", "monomial", "point"}
 	penaltyKeys     = []string{"lambda", "theta", "status", "note", "n", "singular", "regular", "dim"}
 )
@@ -91,7 +91,7 @@ func TestJSONFieldNames(t *testing.T) {
 		// Every compact face listed.
 		{"all faces", Spec{K: "(y - x^2)^2"}, &Options{AllFaces: true}, []string{"nondegeneracy"}},
 		// A truncated series.
-		{"truncated", Spec{K: "x^2*(1-cos(y))", Order: 6}, nil, []string{"truncation", "reasons"}},
+		{"truncated", Spec{K: "x^2 + sin(y)^8", Order: 6}, nil, []string{"truncation", "reasons"}},
 		// Several points, and a prior exponent that does not count.
 		{"points", Spec{K: "x^2*(x-1)^4 + y^2", Prior: "x=1", At: []string{"x=0", "x=1"}}, nil, []string{"locals", "notes"}},
 	}

@@ -55,10 +55,15 @@ func (p *Problem) checkExtras(d int) error {
 //     P keeps its exact coefficient, and every term added lies in r + R^d_{≥0}
 //     ⊆ P: the full K has the same Newton polyhedron, hence the same t_τ,
 //     principal face and θ.
-//   - Otherwise, if min y·r > t_τ over the optimal supporting hyperplanes y
-//     at t_τ·τ (the normalised normal cone of the principal face, y ≥ 0, so
-//     y·(r + s) ≥ y·r), every multiple of r lies strictly above all of them,
-//     which keeps t_τ and the principal face, as in the total-degree rule.
+//   - The other monomials r must lie strictly above the principal face for
+//     one common optimal supporting hyperplane y at t_τ·τ (an element of the
+//     normalised normal cone of the principal face; y ≥ 0, so y·(r + s) ≥
+//     y·r): one exact LP maximises min_r y·r over that cone
+//     (polyhedron.NormalConeMaxMin), and the condition holds when the
+//     maximum exceeds t_τ. Then a y of the relative interior near the
+//     optimum does too; it exposes the principal face of P, every point of P
+//     and of the first kind lies on or above it, and every multiple of these
+//     r strictly above, so the full K keeps t_τ and the principal face.
 //   - If r lies in P on no compact face, then no multiple of r lies on a
 //     compact face either (a compact face has a strictly positive normal a,
 //     and a·(r + s) ≥ a·r > b), so every compact face and its face polynomial
@@ -72,38 +77,45 @@ func (p *Problem) checkExtras(d int) error {
 // condition), nil when both hold.
 func (an *analysis) remainderCheck(ctx context.Context, rem []monomial.Exponent, hit *polyhedron.Hit) (principal, faces bool, first monomial.Exponent, err error) {
 	newton := an.res.newton
-	principal, faces = true, true
-	var firstPrincipal, firstFaces monomial.Exponent
+	faces = true
+	var firstFaces monomial.Exponent
+	var above [][]int // the monomials that must lie above the principal face
+	var aboveExp []monomial.Exponent
 	x := make([]*big.Rat, len(an.vars))
-	c := make([]*big.Rat, len(an.vars))
 	for _, r := range rem {
 		for i, e := range r {
 			x[i] = new(big.Rat).SetInt64(int64(e))
-			c[i] = x[i]
 		}
 		f, ferr := newton.CompactFaceAt(ctx, x)
 		inP := ferr == nil
 		if ferr != nil && !errors.Is(ferr, polyhedron.ErrNotBoundary) {
 			return false, false, nil, ferr
 		}
-		okPrincipal := inP && (f == nil || f.Dim > 0)
-		if !okPrincipal {
-			v, _, err := newton.NormalConeMin(ctx, hit.Face, an.res.Weights, c)
-			if err != nil {
-				return false, false, nil, err
-			}
-			okPrincipal = v.Cmp(hit.T) > 0
+		if !(inP && (f == nil || f.Dim > 0)) {
+			above, aboveExp = append(above, []int(r)), append(aboveExp, r)
 		}
-		okFaces := inP && f == nil
-		if !okPrincipal && principal {
-			principal, firstPrincipal = false, r
-		}
-		if !okFaces && faces {
+		if !(inP && f == nil) && faces {
 			faces, firstFaces = false, r
 		}
 	}
-	if !principal {
-		return false, false, firstPrincipal, nil
+	if len(above) > 0 {
+		v, y, err := newton.NormalConeMaxMin(ctx, hit.Face, an.res.Weights, above)
+		if err != nil {
+			return false, false, nil, err
+		}
+		if v.Cmp(hit.T) <= 0 {
+			// Name a monomial that this best y does not put above.
+			for k, r := range above {
+				yr := new(big.Rat)
+				for i, e := range r {
+					yr.Add(yr, new(big.Rat).Mul(y[i], big.NewRat(int64(e), 1)))
+				}
+				if yr.Cmp(hit.T) <= 0 {
+					return false, false, aboveExp[k], nil
+				}
+			}
+			return false, false, aboveExp[0], nil
+		}
 	}
 	return true, faces, firstFaces, nil
 }

@@ -29,10 +29,21 @@ var remainderCases = []struct {
 	// dominates (1,1), so it lies in P on no compact face: exact.
 	{name: "a*tanh(b) with its remainder", sos: []string{"a*b - 1/3*a*b^3"}, order: 4,
 		remainder: [][]int{{1, 5}}, lambda: "1/2", theta: 2, status: Exact},
-	// The same without the remainder: the supporting line y = (1, 0) at
-	// the vertex gives b no weight, so no total degree certifies it.
+	// The same without the remainder: the normal cone of the vertex (1,1)
+	// is every y >= 0 with y_a + y_b = 1; y = (1/2, 1/2) puts the degree-5
+	// omitted terms at 5/2 > t = 1, so the value is certified (the
+	// sharpened rule: one y suffices), but without a pure power in a no
+	// order rules out new compact faces: an upper bound.
 	{name: "a*tanh(b) by the degree alone", sos: []string{"a*b - 1/3*a*b^3"}, order: 4,
-		lambda: "1/2", theta: 2, status: Uncertified, reason: "no truncation order can certify it"},
+		lambda: "1/2", theta: 2, status: UpperBound, reason: "no truncation order can rule that out"},
+	// x²(1 − cos y) = x²y²/2 − x²y⁴/24 + … by the degree alone: the vertex
+	// (2,2), t = 2, max over its normal cone of min(y_x, y_y) is 1/2, so
+	// (D+1)/2 > 2 needs D ≥ 4 (worked by hand): order 3 is not a bound,
+	// order 4 an upper bound.
+	{name: "x^2(1-cos y) by the degree alone at order 3", k: "1/2*x^2*y^2", order: 3,
+		lambda: "1/2", theta: 2, status: Uncertified, reason: "order 4 would"},
+	{name: "x^2(1-cos y) by the degree alone at order 4", k: "1/2*x^2*y^2 - 1/24*x^2*y^4", order: 4,
+		lambda: "1/2", theta: 2, status: UpperBound, reason: "no truncation order can rule that out"},
 	// x² + y⁴: the edge x/2 + y/4 = 1 meets the diagonal at t = 4/3, λ =
 	// 3/4, θ = 1. Order 3 by the degree: the normal cone of the edge is
 	// y = (2/3, 1/3), and (D+1)·min y_i = 4/3 is not above t: not certified.

@@ -73,7 +73,7 @@ func (s *Spec) Problem() (*Problem, error) {
 		if err != nil {
 			return nil, &SpecError{"k", s.K, err}
 		}
-		p.K, p.Truncated = ex.Poly, ex.Truncated
+		p.K, p.Truncated, p.Remainder = ex.Poly, ex.Truncated, ex.Remainder
 		vars = ex.Poly.Vars()
 	} else {
 		src := strings.Join(s.SOS, ";\n")
@@ -84,6 +84,7 @@ func (s *Spec) Problem() (*Problem, error) {
 		for _, ex := range exs {
 			p.Generators = append(p.Generators, ex.Poly)
 			p.Truncated = p.Truncated || ex.Truncated
+			p.Remainder = append(p.Remainder, ex.Remainder...)
 		}
 		if len(exs) > 0 {
 			vars = exs[0].Poly.Vars()
@@ -132,7 +133,7 @@ func (s *Spec) expandAt(p *Problem, vars []string) error {
 		if err != nil {
 			return &SpecError{"k", s.K, err}
 		}
-		p.K, p.Truncated = ex.Poly, ex.Truncated
+		p.K, p.Truncated, p.Remainder = ex.Poly, ex.Truncated, ex.Remainder
 		return nil
 	}
 	src := strings.Join(s.SOS, ";\n")
@@ -140,10 +141,11 @@ func (s *Spec) expandAt(p *Problem, vars []string) error {
 	if err != nil {
 		return &SpecError{"sos", src, err}
 	}
-	p.Generators = p.Generators[:0]
+	p.Generators, p.Remainder = p.Generators[:0], nil
 	for _, ex := range exs {
 		p.Generators = append(p.Generators, ex.Poly)
 		p.Truncated = p.Truncated || ex.Truncated
+		p.Remainder = append(p.Remainder, ex.Remainder...)
 	}
 	return nil
 }

@@ -48,10 +48,16 @@ type Truncation struct {
 //
 //   - Principal face. The optimal supporting hyperplanes at t_τ·τ are the
 //     y ≥ 0 with y·τ = 1 and y·v ≥ t_τ for every vertex v: the normal cone
-//     of the principal face. If (D+1)·m > t_τ with m the least entry of
-//     any such y (m = min_i min_y y_i, one exact LP per coordinate), every
-//     point of Q lies strictly above all of them, so adding or cancelling
-//     terms there changes neither t_τ nor the principal face nor θ.
+//     of the principal face. It suffices that one of them puts Q strictly
+//     above it: with m = max_y min_i y_i over that cone (one exact LP,
+//     polyhedron.NormalConeMaxMin), (D+1)·m > t_τ. Then a y of the relative
+//     interior near the optimum, which exposes the principal face exactly,
+//     has (D+1)·min_i y_i > t_τ too, every point of Q lies strictly above
+//     it, and adding or cancelling terms there changes neither t_τ nor the
+//     principal face nor θ. (The older rule asked this of every y, m =
+//     min_i min_y y_i, which fails whenever some optimal y gives a variable
+//     no weight: x²(1 − cos y) at the vertex (2,2) is certified by the
+//     present rule at D ≥ 4 and by the older at no order.)
 //   - All compact faces. If moreover every (D+1)·e_i lies in P and on no
 //     compact face, then Q lies in P and strictly above every compact face
 //     (a compact face has a strictly positive normal a, and a·x ≥ (D+1)·min_i
@@ -73,20 +79,22 @@ func (an *analysis) checkTruncation(ctx context.Context, order int, rem []monomi
 	tr := &Truncation{Order: order, BoundOrder: -1, NeededOrder: -1}
 	newton := res.newton
 
-	// Principal condition.
-	m, at := (*big.Rat)(nil), -1
-	c := make([]*big.Rat, d)
-	for i := range d {
-		for k := range c {
-			c[k] = new(big.Rat)
-		}
-		c[i].SetInt64(1)
-		v, _, err := newton.NormalConeMin(ctx, hit.Face, res.Weights, c)
-		if err != nil {
-			return nil, err
-		}
-		if m == nil || v.Cmp(m) < 0 {
-			m, at = v, i
+	// Principal condition: the largest least weight m = max_y min_i y_i
+	// over the normalised normal cone of the principal face, one exact LP.
+	units := make([][]int, d)
+	for i := range units {
+		units[i] = make([]int, d)
+		units[i][i] = 1
+	}
+	m, y, err := newton.NormalConeMaxMin(ctx, hit.Face, res.Weights, units)
+	if err != nil {
+		return nil, err
+	}
+	at := 0 // a variable the best y gives no weight (when m = 0)
+	for i := range y {
+		if y[i].Sign() == 0 {
+			at = i
+			break
 		}
 	}
 	principalOK := m.Sign() > 0
@@ -153,7 +161,7 @@ func (an *analysis) checkTruncation(ctx context.Context, order int, rem []monomi
 	switch {
 	case !principalOK:
 		res.Reasons = append(res.Reasons, fmt.Sprintf(
-			"K is a series truncated at degree %d and no truncation order can certify it: a supporting hyperplane at the principal face gives no weight to %s, so omitted terms of any degree in %s can reach the principal face, and %s", order, an.vars[at], an.vars[at], notBound))
+			"K is a series truncated at degree %d and no truncation order can certify it by the total degree alone: no supporting hyperplane at the principal face gives weight to every variable (the best one gives none to %s), so omitted terms of high degree in one variable can reach the principal face, and %s", order, an.vars[at], notBound))
 	case !tr.Principal:
 		res.Reasons = append(res.Reasons, fmt.Sprintf(
 			"K is a series truncated at degree %d, too low to certify the value (order %d would, judging by the terms known now), and %s", order, tr.BoundOrder, notBound))

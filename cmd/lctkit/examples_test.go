@@ -23,8 +23,11 @@ var exampleChecks = map[string]struct {
 	"calibration": {"1/2", 1, "exact"},
 	// Newton value only; the true λ is 1 (rank-2 quadratic form, common practice).
 	"calibration-shifted": {"3/2", 1, "upper-bound"},
-	// lowest terms ab, a², b³: Howald 2001, Trans. AMS 353, halved.
+	// a·tanh(b) = a·b·unit: K ≍ a²b², normal crossings (Watanabe 2009,
+	// ch. 2, from memory): λ = 1/2 attained by a and b, θ = 2.
 	"mixture": {"1/2", 2, "exact"},
+	// at a* = 1/2: K ≍ b² times a unit, λ = 1/2, θ = 1 (common practice).
+	"mixture-interior": {"1/2", 1, "exact"},
 	// Newton value H·min(M, N)/2 = 3 worked by hand in the README; the
 	// Aoyagi & Watanabe 2005 value (from memory) is λ = 3 with θ = 2.
 	"model-sensor-array": {"3", 1, "upper-bound"},
