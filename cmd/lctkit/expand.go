@@ -5,6 +5,7 @@ import (
 	"io"
 	"math/big"
 	"slices"
+	"strings"
 
 	"github.com/lctkit/lctkit/monomial"
 	"github.com/lctkit/lctkit/rlct"
@@ -14,7 +15,7 @@ import (
 type expandCmd struct {
 	Expr  string `arg:"" help:"The expression, or - to read it from standard input."`
 	Order int    `help:"Truncate power series at this total degree (needed for exp, log, sin, … and division by non-constants)." placeholder:"D"`
-	At    string `help:"Translate to this point first: the result is a polynomial in w − w*." placeholder:"x=1/2,y=0"`
+	At    string `help:"Expand around this point: the result is a polynomial in the offsets w − w* (named like the variables), each function expanded around its argument's value there." placeholder:"x=1/2,y=0"`
 	Vars  string `help:"Variables that come first, in this order (the others follow in the order they first appear)." placeholder:"x,y,z"`
 	jsonFlag
 }
@@ -33,6 +34,9 @@ type expandAnswer struct {
 	Degree     int      `json:"degree"`
 	Order      int      `json:"order,omitempty"`
 	Truncated  bool     `json:"truncated"`
+	// Remainder lists monomials such that every omitted term is a
+	// multiple of one of them (empty when nothing was omitted).
+	Remainder []string `json:"remainder,omitempty"`
 }
 
 // Run expands the expression.
@@ -59,28 +63,31 @@ func (c *expandCmd) Run(e *env) error {
 			vars = append(vars, n)
 		}
 	}
-	ex, err := monomial.Parse(src, monomial.Config{Vars: vars, Order: c.Order})
+	cfg := monomial.Config{Vars: vars, Order: c.Order}
+	if point != nil {
+		// Each function is expanded around its argument's value at the
+		// point, so series work there too.
+		cfg.At = make(map[string]*big.Rat, len(names))
+		for j, n := range names {
+			cfg.At[n] = point[j]
+		}
+	}
+	ex, err := monomial.Parse(src, cfg)
 	if err != nil {
 		printError(e.stderr, "", src, err)
 		return exitError{exitFailed, err}
 	}
 	p := ex.Poly
-	if point != nil {
-		full := make([]*big.Rat, p.NumVars())
-		for i, v := range p.Vars() {
-			full[i] = new(big.Rat)
-			for j, n := range names {
-				if n == v {
-					full[i] = point[j]
-				}
-			}
-		}
-		if ex.Truncated {
-			return badFlag("--at", fmt.Errorf("the expression is a power series truncated around 0, and its truncation cannot be moved to another point; write it in shifted variables instead"))
-		}
-		p = p.Translate(full)
+	a := &expandAnswer{Polynomial: p.String(), Variables: p.Vars(), Terms: p.Len(), Degree: p.Degree(), Order: ex.Order, Truncated: ex.Truncated}
+	for _, r := range ex.Remainder {
+		a.Remainder = append(a.Remainder, monomial.Monomial(p.Vars(), r, big.NewRat(1, 1)).String())
 	}
-	return e.print(&expandAnswer{Polynomial: p.String(), Variables: p.Vars(), Terms: p.Len(), Degree: p.Degree(), Order: ex.Order, Truncated: ex.Truncated}, c.JSON)
+	return e.print(a, c.JSON)
 }
 
-func (a *expandAnswer) writeText(w io.Writer) { fmt.Fprintln(w, a.Polynomial) }
+func (a *expandAnswer) writeText(w io.Writer) {
+	fmt.Fprintln(w, a.Polynomial)
+	if len(a.Remainder) > 0 {
+		fmt.Fprintf(w, "  + terms that are multiples of %s (truncated at degree %d)\n", strings.Join(a.Remainder, ", "), a.Order)
+	}
+}

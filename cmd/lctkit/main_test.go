@@ -177,6 +177,9 @@ func TestExpand(t *testing.T) {
 	}{
 		// (1+u)^3 + ... at x = 1: the binomial theorem (common practice).
 		{[]string{"expand", "x^3", "--at", "x=1"}, "x^3 + 3*x^2 + 3*x + 1\n"},
+		// A series at a point: 1/(1 + x) at x = 1 is 1/(2 + u) = 1/2 − u/4 +
+		// u²/8 − … (geometric series, by hand), cut at degree 2.
+		{[]string{"expand", "1/(1+x)", "--order", "2", "--at", "x=1"}, "1/8*x^2 - 1/4*x + 1/2\n  + terms that are multiples of x^3 (truncated at degree 2)\n"},
 		{[]string{"expand", "0.25*x + 1e-3"}, "1/4*x + 1/1000\n"},
 	}
 	for _, tt := range tests {
