@@ -53,6 +53,10 @@ type Options struct {
 	// DefaultMaxFaces. When the bound is reached before the status is
 	// settled, the status is UpperBound and the reason says so.
 	MaxFaces int
+
+	// NoReduction turns off the splitting of regular directions (see
+	// Reduction): the answer is then the Newton value of K itself.
+	NoReduction bool
 }
 
 func (o *Options) maxFaces() int {
@@ -67,7 +71,8 @@ func (o *Options) maxFaces() int {
 // and exact numbers as strings in lowest terms ("3/4", "2"), so no value
 // passes through a float.
 type Result struct {
-	// Lambda is 1/t_τ, the Newton value of the learning coefficient.
+	// Lambda is 1/t_τ, the Newton value of the learning coefficient, or
+	// with a Reduction r/2 + λ(core).
 	Lambda *big.Rat `json:"lambda"`
 	// Theta is the codimension of the principal face.
 	Theta int `json:"theta"`
@@ -76,7 +81,8 @@ type Result struct {
 	// Summary says in one sentence what the status claims, and for a value
 	// that is not a bound, what would certify it.
 	Summary string `json:"summary"`
-	// Distance is t_τ of the Newton polyhedron of K.
+	// Distance is t_τ of the Newton polyhedron of K (of K itself, also
+	// with a Reduction, whose Core has the core's).
 	Distance *big.Rat `json:"distance"`
 	// Vars names the variables in order.
 	Vars []string `json:"variables"`
@@ -105,6 +111,11 @@ type Result struct {
 	Faces []Face `json:"nondegeneracy,omitempty"`
 	// Truncation is the check of a truncated series, nil when K is exact.
 	Truncation *Truncation `json:"truncation,omitempty"`
+	// Reduction, when not nil, is the splitting of regular directions at
+	// the point that gave Lambda, Theta and Status (the fields that
+	// describe the polyhedron above are those of K itself, and
+	// Reduction.Unreduced has its Newton value).
+	Reduction *Reduction `json:"reduction,omitempty"`
 	// Locals holds the answer at each point when several were given, in
 	// the order of Problem.Points; the fields above are then those of the
 	// minimum over them, except Status, Summary and Reasons, which are
@@ -175,9 +186,20 @@ func boundEach(ctx context.Context, p *Problem, opt *Options) ([]*Result, []*Loc
 	return results, locals, nil
 }
 
-// boundLocal bounds the problem at one point; order and truncated are
-// those of the Problem.
+// boundLocal bounds the problem at one point, through the reduction of
+// reduce.go when it claims more; order and truncated are those of the
+// Problem.
 func boundLocal(ctx context.Context, l *Local, order int, truncated bool, opt *Options) (*Result, error) {
+	res, err := boundPlain(ctx, l, order, truncated, opt)
+	if err != nil || opt.NoReduction {
+		return res, err
+	}
+	return applyReduction(ctx, l, order, truncated, opt, res)
+}
+
+// boundPlain bounds the problem at one point by the Newton polyhedron of
+// K itself.
+func boundPlain(ctx context.Context, l *Local, order int, truncated bool, opt *Options) (*Result, error) {
 	if err := checkVanishing(l.Polys, l.SumOfSquares); err != nil {
 		return nil, err
 	}

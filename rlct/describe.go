@@ -73,7 +73,8 @@ type Facet struct {
 }
 
 // Describe bounds p at each of its points, as Bound does with
-// Options.AllFaces set (every compact face is decided and listed), and
+// Options.AllFaces and Options.NoReduction set (every compact face of the
+// polyhedron of K itself is decided and listed), and
 // describes the Newton polyhedron each answer comes from: one Description
 // per point, in the order of Problem.Points (one for the origin when there
 // are none). It returns the errors of Bound, and an error wrapping
@@ -85,6 +86,7 @@ func Describe(ctx context.Context, p *Problem, opt *Options) ([]*Description, er
 		o = *opt
 	}
 	o.AllFaces = true
+	o.NoReduction = true // the answer the polyhedron gives, that of K itself
 	results, locals, err := boundEach(ctx, p, &o)
 	if err != nil {
 		return nil, err

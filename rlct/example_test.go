@@ -26,15 +26,32 @@ func ExampleBound() {
 	// Output: 5/12 1 exact
 }
 
-// A degenerate divergence gives only an upper bound, with the reason.
+// A degenerate divergence gives only an upper bound, with the reason, when
+// no reduction applies (here it is turned off; see ExampleBound_reduction).
 func ExampleBound_degenerate() {
 	ex, _ := monomial.Parse("(x^2 - y)^2", monomial.Config{})
-	r, _ := rlct.Bound(context.Background(), &rlct.Problem{K: ex.Poly}, nil)
+	r, _ := rlct.Bound(context.Background(), &rlct.Problem{K: ex.Poly}, &rlct.Options{NoReduction: true})
 	fmt.Println(r.Lambda.RatString(), r.Theta, r.Status)
 	fmt.Println(r.Reasons[0])
 	// Output:
 	// 3/4 1 upper-bound
 	// the face with vertices (0,2) (4,0) is degenerate: its face polynomial x^4 - 2*x^2*y + y^2 vanishes at x=1, y=1 in the real torus
+}
+
+// The same divergence through the reduction: K's quadratic part y² has
+// rank 1, so solving ∂K/∂y = 0 (y = x²) splits off u = y − x², and the core
+// K(x, x²) = 0 leaves x free: λ = 1/2, θ = 1.
+func ExampleBound_reduction() {
+	ex, _ := monomial.Parse("(x^2 - y)^2", monomial.Config{})
+	r, _ := rlct.Bound(context.Background(), &rlct.Problem{K: ex.Poly}, nil)
+	fmt.Println(r.Lambda.RatString(), r.Theta, r.Status)
+	fmt.Println(r.Reduction.Solution[0], "free:", r.Reduction.Free)
+	u := r.Reduction.Unreduced
+	fmt.Println("without it:", u.Lambda.RatString(), u.Theta, u.Status)
+	// Output:
+	// 1/2 1 exact
+	// y = x^2 free: [x]
+	// without it: 3/4 1 upper-bound
 }
 
 // A Spec reads the problem from text, as the command line does: here the

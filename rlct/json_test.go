@@ -16,7 +16,7 @@ import (
 // written out here, not taken from the code, so that renaming a field in the
 // code fails this test.
 var (
-	resultKeys      = []string{"lambda", "theta", "status", "summary", "distance", "variables", "prior", "weights", "point", "form", "reasons", "notes", "principal_face", "certificate", "nondegeneracy", "truncation", "locals"}
+	resultKeys      = []string{"lambda", "theta", "status", "summary", "distance", "variables", "prior", "weights", "point", "form", "reasons", "notes", "principal_face", "certificate", "nondegeneracy", "truncation", "reduction", "locals"}
 	faceKeys        = []string{"dim", "codim", "compact", "principal", "vertices", "rays", "normal", "rhs", "polynomial", "terms", "verdict", "rule", "witness", "reason"}
 	certificateKeys = []string{"unsafe_points", "faces_examined", "by_rule", "degenerate", "undetermined", "complete", "stopped", "deciding_faces"}
 	truncationKeys  = []string{"order", "principal", "faces", "bound_order", "needed_order", "remainder"}
@@ -87,9 +87,11 @@ func TestJSONFieldNames(t *testing.T) {
 		must []string
 	}{
 		// A degenerate edge: reasons and a deciding face with a witness.
-		{"degenerate", Spec{K: "(y - x^2)^2"}, nil, []string{"lambda", "theta", "status", "summary", "distance", "variables", "prior", "weights", "point", "form", "reasons", "principal_face", "certificate"}},
+		{"degenerate", Spec{K: "(y - x^2)^2"}, &Options{NoReduction: true}, []string{"lambda", "theta", "status", "summary", "distance", "variables", "prior", "weights", "point", "form", "reasons", "principal_face", "certificate"}},
 		// Every compact face listed.
 		{"all faces", Spec{K: "(y - x^2)^2"}, &Options{AllFaces: true}, []string{"nondegeneracy"}},
+		// A reduction.
+		{"reduction", Spec{K: "(x - y)^2 + z^4"}, nil, []string{"reduction"}},
 		// A truncated series.
 		{"truncated", Spec{K: "x^2 + sin(y)^8", Order: 6}, nil, []string{"truncation", "reasons"}},
 		// Several points, and a prior exponent that does not count.

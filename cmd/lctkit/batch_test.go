@@ -70,7 +70,7 @@ func TestBatchMixedInput(t *testing.T) {
 		// upper bound (the true λ is 1/2 after u = x − y; Watanabe 2009,
 		// Algebraic Geometry and Statistical Learning Theory, ch. 2,
 		// coordinate invariance).
-		{`{"id":12345678901234567890123,"k":"(x-y)^2"}`, want{id: `12345678901234567890123`, lambda: "1", theta: 1, status: "upper-bound"}},
+		{`{"id":12345678901234567890123,"k":"(x-y)^2"}`, want{id: `12345678901234567890123`, lambda: "1/2", theta: 1, status: "exact"}}, // through the reduction u = x − y (hand)
 		{`{"id": 3, "k": "x^2"`, want{id: `3`, err: "invalid JSON"}},
 		{`not json at all`, want{err: "invalid JSON at byte"}},
 		{`{"id": "p", "k": "x^2 + (y*"}`, want{id: `"p"`, err: "k: 1:10: expected operand"}},

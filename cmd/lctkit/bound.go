@@ -32,6 +32,8 @@ type problemFlags struct {
 
 	MaxFaces int `name:"max-faces" help:"Most compact faces the certificate examines before it stops with an upper bound (default 20000)." placeholder:"N"`
 	MaxTerms int `name:"max-terms" help:"Most terms an expansion may have (default 2000000)." placeholder:"N"`
+
+	NoReduce bool `name:"no-reduce" help:"Do not split off regular directions (solving generators with independent linear parts, or the quadratic part of K, for some coordinates): give the Newton value of K itself."`
 }
 
 // Validate checks the flags' ranges before Run.
@@ -47,7 +49,7 @@ func (f *problemFlags) Validate() error {
 
 // options returns the library options the flags ask for.
 func (f *problemFlags) options() *rlct.Options {
-	return &rlct.Options{MaxFaces: f.MaxFaces}
+	return &rlct.Options{MaxFaces: f.MaxFaces, NoReduction: f.NoReduce}
 }
 
 // spec turns the flags and the expression argument into a library spec. It
@@ -320,6 +322,10 @@ func writeStatusLine(w io.Writer, r *rlct.Result, indent string) {
 // writeDetails prints the polyhedron, the certificate and the reasons of
 // one point's answer.
 func writeDetails(w io.Writer, r *rlct.Result, indent string) {
+	if red := r.Reduction; red != nil {
+		writeReduction(w, r, indent)
+		return
+	}
 	fmt.Fprintf(w, "%sNewton distance t = %s along τ = (%s) in (%s)\n", indent, r.Distance.RatString(), ratList(r.Weights), strings.Join(r.Vars, ", "))
 	pf := r.Principal
 	kind := "compact"
@@ -489,4 +495,36 @@ func allZero(xs []*big.Rat) bool {
 		}
 	}
 	return true
+}
+
+// writeReduction prints an answer found through a reduction: the change of
+// coordinates, the core's details, and the value without the reduction.
+func writeReduction(w io.Writer, r *rlct.Result, indent string) {
+	red := r.Reduction
+	how := "solved ∂K/∂" + strings.Join(red.Solved, " = ∂K/∂") + " = 0 (the quadratic part has rank " + strconv.Itoa(red.Rank) + ")"
+	if red.Kind == "generators" {
+		gs := make([]string, len(red.Generators))
+		for i, g := range red.Generators {
+			gs[i] = strconv.Itoa(g)
+		}
+		how = "solved generators " + strings.Join(gs, ", ") + " for " + strings.Join(red.Solved, ", ")
+	}
+	fmt.Fprintf(w, "%sreduction: %s; they contribute %d/2 to λ: %s\n", indent, how, red.Rank, strings.Join(red.Solution, "; "))
+	if len(red.Free) > 0 {
+		fmt.Fprintf(w, "%sfree directions (contribute 0): %s\n", indent, strings.Join(red.Free, ", "))
+	}
+	if len(red.Kept) > 0 {
+		fmt.Fprintf(w, "%snot moved (prior exponent at the point): %s\n", indent, strings.Join(red.Kept, ", "))
+	}
+	if c := red.Core; c != nil {
+		fmt.Fprintf(w, "%score in (%s): λ = %s, θ = %d (%s)\n", indent, strings.Join(c.Vars, ", "), c.Lambda.RatString(), c.Theta, statusWord(c.Status))
+		writeDetails(w, c, indent+"  ")
+	} else {
+		fmt.Fprintf(w, "%score: 0 (λ = 0, θ = 1)\n", indent)
+	}
+	u := red.Unreduced
+	fmt.Fprintf(w, "%swithout the reduction: λ = %s, θ = %d (%s)\n", indent, u.Lambda.RatString(), u.Theta, statusWord(u.Status))
+	for _, n := range r.Notes {
+		fmt.Fprintf(w, "%snote: %s\n", indent, n)
+	}
 }

@@ -30,6 +30,7 @@ type estimateCmd struct {
 	Vars     string    `help:"Variables that come first, in this order; names K does not use still count as dimensions." placeholder:"x,y,z"`
 	MaxFaces int       `name:"max-faces" help:"Most compact faces the certificate of the Newton bound examines before it stops with an upper bound (default 20000)." placeholder:"N"`
 	MaxTerms int       `name:"max-terms" help:"Most terms an expansion may have (default 2000000)." placeholder:"N"`
+	NoReduce bool      `name:"no-reduce" help:"Compare with the Newton value of K itself, without splitting off regular directions."`
 
 	Box     boxFlag `help:"The box sampled, as offsets from the point: R (meaning -R:R) or A:B for every variable, or per variable x=0:1,y=0.5; unnamed variables get -1:1." placeholder:"x=0:1,y=-1:1"`
 	Live    int     `help:"Live points per run (default 200; at least 10)." placeholder:"N"`
@@ -82,7 +83,7 @@ Examples:
 
 // problem returns the flags as those of bound, with the one point.
 func (c *estimateCmd) problem() *problemFlags {
-	f := &problemFlags{Prior: c.Prior, SOS: c.SOS, Order: c.Order, Vars: c.Vars, MaxFaces: c.MaxFaces, MaxTerms: c.MaxTerms}
+	f := &problemFlags{Prior: c.Prior, SOS: c.SOS, Order: c.Order, Vars: c.Vars, MaxFaces: c.MaxFaces, MaxTerms: c.MaxTerms, NoReduce: c.NoReduce}
 	if c.At.set {
 		f.At = []string{c.At.value}
 	}

@@ -59,14 +59,18 @@ func TestEstimateAgainstKnownValues(t *testing.T) {
 		// (x−y)²: Newton bound 1, but λ = 1/2, θ = 1 after u = x − y
 		// (coordinate invariance of λ; Watanabe 2009, Algebraic Geometry and
 		// Statistical Learning Theory).
-		{"(x-y)^2", []string{"(x-y)^2"}, 0.5, 1, 0.006, 0.1, "1", "upper-bound", "the bound is probably strict here"},
+		{"(x-y)^2", []string{"(x-y)^2", "--no-reduce"}, 0.5, 1, 0.006, 0.1, "1", "upper-bound", "the bound is probably strict here"},
 		// The same at the point x = 1, written in x: the translation is exact.
-		{"shifted", []string{"(x-1)^2 - 2*(x-1)*y + y^2", "--at", "x=1"}, 0.5, 1, 0.006, 0.1, "1", "upper-bound", "the bound is probably strict here"},
+		{"shifted", []string{"(x-1)^2 - 2*(x-1)*y + y^2", "--at", "x=1", "--no-reduce"}, 0.5, 1, 0.006, 0.1, "1", "upper-bound", "the bound is probably strict here"},
 		// Sum of squares (s·g1 − 1)² + (s·g2)² at s = g1 = 1: the zero set is
 		// the smooth curve s·g1 = 1, g2 = 0 of codimension 2, so λ = 2/2 = 1,
 		// θ = 1 (regular case, common practice), while the Newton value is
 		// 3/2.
-		{"sum of squares", []string{"--sos", "s*g1 - 1; s*g2", "--at", "s=1,g1=1", "--box=-0.5:0.5"}, 1, 1, 0.01, 0.1, "3/2", "upper-bound", "the bound is probably strict here"},
+		{"sum of squares", []string{"--sos", "s*g1 - 1; s*g2", "--at", "s=1,g1=1", "--box=-0.5:0.5", "--no-reduce"}, 1, 1, 0.01, 0.1, "3/2", "upper-bound", "the bound is probably strict here"},
+		// The same two through the reduction, which finds the true values
+		// exactly; the estimate must agree with them.
+		{"(x-y)^2 reduced", []string{"(x-y)^2"}, 0.5, 1, 0.006, 0.1, "1/2", "exact", "consistent with the exact value"},
+		{"sum of squares reduced", []string{"--sos", "s*g1 - 1; s*g2", "--at", "s=1,g1=1", "--box=-0.5:0.5"}, 1, 1, 0.01, 0.1, "1", "exact", "consistent with the exact value"},
 	}
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
@@ -98,7 +102,7 @@ func TestEstimateAgainstKnownValues(t *testing.T) {
 // estimate, the table has one row per point of the JSON, and the verdict is
 // the library's.
 func TestEstimateText(t *testing.T) {
-	args := append([]string{"estimate", "(x-y)^2"}, quick...)
+	args := append([]string{"estimate", "(x-y)^2", "--no-reduce"}, quick...)
 	out, _, code := runCLI(t, "", args...)
 	if code != exitOK {
 		t.Fatalf("exit %d", code)
@@ -117,7 +121,7 @@ func TestEstimateText(t *testing.T) {
 			t.Errorf("output lacks %q:\n%s", want, out)
 		}
 	}
-	rep := estimateJSONOf(t, append([]string{"(x-y)^2"}, quick...)...)
+	rep := estimateJSONOf(t, append([]string{"(x-y)^2", "--no-reduce"}, quick...)...)
 	points := rep["points"].([]any)
 	rows := 0
 	for _, line := range strings.Split(out, "\n") {
@@ -209,7 +213,7 @@ func TestEstimateDeterministic(t *testing.T) {
 // axis labels and legend, at positions that follow the numbers.
 func TestEstimateSVG(t *testing.T) {
 	file := filepath.Join(t.TempDir(), "curve.svg")
-	rep := estimateJSONOf(t, append([]string{"(x-y)^2", "--svg", file}, quick...)...)
+	rep := estimateJSONOf(t, append([]string{"(x-y)^2", "--no-reduce", "--svg", file}, quick...)...)
 	data, err := os.ReadFile(file)
 	if err != nil {
 		t.Fatal(err)

@@ -21,8 +21,8 @@ var exampleChecks = map[string]struct {
 }{
 	// s²(g1² + g2²): normal crossings, min(1/2, 1) (Watanabe 2009, ch. 2).
 	"calibration": {"1/2", 1, "exact"},
-	// Newton value only; the true λ is 1 (rank-2 quadratic form, common practice).
-	"calibration-shifted": {"3/2", 1, "upper-bound"},
+	// after splitting off the rank-2 quadratic part: λ = 2/2 = 1 (common practice).
+	"calibration-shifted": {"1", 1, "exact"},
 	// a·tanh(b) = a·b·unit: K ≍ a²b², normal crossings (Watanabe 2009,
 	// ch. 2, from memory): λ = 1/2 attained by a and b, θ = 2.
 	"mixture": {"1/2", 2, "exact"},

@@ -69,7 +69,9 @@ func TestStatusWords(t *testing.T) {
 		text   []string
 	}{
 		{[]string{"x^2 + y^10", "--order", "8"}, "exact", []string{"λ = 3/5", "(exact)"}},
-		{[]string{"(x-y)^2"}, "upper-bound", []string{"(upper bound)", "θ is ordered together with λ"}},
+		{[]string{"(x-y)^2", "--no-reduce"}, "upper-bound", []string{"(upper bound)", "θ is ordered together with λ"}},
+		// Through the reduction u = x − y (hand: λ = 1/2, y free).
+		{[]string{"(x-y)^2"}, "exact", []string{"(exact)", "reduction: solved ∂K/∂x = 0", "free directions (contribute 0): y", "without the reduction: λ = 1, θ = 1 (upper bound)"}},
 		{[]string{"z^2 + x^2*sin(y)^2", "--order", "3"}, "uncertified", []string{"(NOT A BOUND)", "not a bound", "may lie below"}},
 		{[]string{"(x - tanh(x))^2 + y^2", "--order", "4"}, "uncertified", []string{"(NOT A BOUND)", "may lie below"}},
 		// sin(x)^8 cut at degree 6 leaves only its remainder x^8, which
@@ -117,7 +119,7 @@ func TestStatusWords(t *testing.T) {
 
 // A penalty from a pair that is not exact is marked on every line.
 func TestPenaltyMarksBoundPairs(t *testing.T) {
-	out, _, _ := runCLI(t, "", "bound", "(x-y)^2", "--n", "1000,10000")
+	out, _, _ := runCLI(t, "", "bound", "(x-y)^2", "--no-reduce", "--n", "1000,10000")
 	if strings.Count(out, "[upper bound pair]") != 2 || !strings.Contains(out, "note: from an upper bound") {
 		t.Errorf("penalties not marked:\n%s", out)
 	}
@@ -128,7 +130,7 @@ func TestPenaltyMarksBoundPairs(t *testing.T) {
 }
 
 func TestBoundUpperBoundSaysWhy(t *testing.T) {
-	out, _, code := runCLI(t, "", "bound", "(x-y)^2")
+	out, _, code := runCLI(t, "", "bound", "(x-y)^2", "--no-reduce")
 	if code != exitOK {
 		t.Fatalf("exit %d", code)
 	}

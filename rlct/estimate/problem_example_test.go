@@ -10,7 +10,8 @@ import (
 
 // ExampleProblem estimates λ for K = (x − 1)² − 2(x − 1)y + y² at
 // x = 1, which is u² − 2uy + y² = (u − y)² in the offset u = x − 1: the Newton
-// polyhedron gives the bound 1, while λ = 1/2.
+// polyhedron of K itself gives the bound 1, while λ = 1/2 (which Bound finds
+// exactly through its reduction, turned off here).
 func ExampleProblem() {
 	s := rlct.Spec{K: "(x-1)^2 - 2*(x-1)*y + y^2", At: []string{"x=1"}}
 	p, err := s.Problem()
@@ -18,7 +19,7 @@ func ExampleProblem() {
 		fmt.Println(err)
 		return
 	}
-	bound, err := rlct.Bound(context.Background(), p, nil)
+	bound, err := rlct.Bound(context.Background(), p, &rlct.Options{NoReduction: true})
 	if err != nil {
 		fmt.Println(err)
 		return
