@@ -51,6 +51,9 @@ var reduceTests = []struct {
 	{"(x-y)^2+z^4", Spec{K: "(x-y)^2 + z^4"}, "3/4", 1, Exact, []string{"y"}, true, ""},
 	// u = x − y: K = u², λ = 1/2, y free (hand).
 	{"(x-y)^2", Spec{K: "(x-y)^2"}, "1/2", 1, Exact, []string{"y"}, true, ""},
+	// (y − x²)²: u = y − x², core 0, x free: λ = 1/2 (hand; the Newton
+	// value 3/4 is only a bound).
+	{"(y-x^2)^2", Spec{K: "(y - x^2)^2"}, "1/2", 1, Exact, []string{"x"}, true, ""},
 	// K = (x + y²)² + y⁶ expanded: u = x + y², λ = 1/2 + 1/6 (hand).
 	{"(x+y^2)^2+y^6", Spec{K: "x^2 + 2*x*y^2 + y^4 + y^6"}, "2/3", 1, Exact, nil, true, ""},
 	// Sum-of-squares form, the same function.
