@@ -183,5 +183,23 @@ func FuzzHull(f *testing.F) {
 			t.Errorf("t = %v, facets give %v", h.T, want)
 		}
 		checkFace(t, n, fs, lat, h.Point, h.Face)
+		// The same on a fresh polyhedron, whose vertices are not known:
+		// the distance over the points, the face's vertices among its own
+		// points.
+		lazy, err := New(d, points)
+		if err != nil {
+			t.Fatal(err)
+		}
+		hl, err := lazy.Distance(context.Background(), tau)
+		if err != nil {
+			t.Fatal(err)
+		}
+		if hl.T.Cmp(h.T) != 0 || !hl.Face.Equal(h.Face) || hl.Face.Dim != h.Face.Dim {
+			t.Errorf("over the points: t = %v face %v dim %d; over the vertices: t = %v face %v dim %d",
+				hl.T, hl.Face.Vertices, hl.Face.Dim, h.T, h.Face.Vertices, h.Face.Dim)
+		}
+		if ok, err := lazy.Exposes(context.Background(), h.Face); err != nil || !ok {
+			t.Errorf("over the points, Exposes(the face hit) = %v, %v", ok, err)
+		}
 	})
 }
