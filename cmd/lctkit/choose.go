@@ -7,12 +7,14 @@ import (
 	"io"
 	"math"
 	"os"
+	"path/filepath"
 	"strconv"
 	"strings"
 	"unicode/utf8"
 
 	"github.com/lctkit/lctkit/monomial"
 	"github.com/lctkit/lctkit/rlct"
+	"github.com/lctkit/lctkit/rlct/model"
 	"github.com/lctkit/lctkit/rlct/sbic"
 )
 
@@ -97,6 +99,9 @@ func (c *chooseCmd) Run(e *env) error {
 			s.Limits = monomial.Limits{MaxTerms: c.MaxTerms}
 		}
 	}
+	if err := c.buildDescriptions(tab); err != nil {
+		return c.fail(e, err)
+	}
 	cands, logLik, computed, err := tab.Candidates(context.Background(), &rlct.Options{MaxFaces: c.MaxFaces})
 	if err != nil {
 		return c.fail(e, err)
@@ -127,6 +132,41 @@ func (c *chooseCmd) read(e *env) ([]byte, error) {
 		return nil, fmt.Errorf("%s is larger than %d MiB", c.Table, maxInput>>20)
 	}
 	return os.ReadFile(c.Table)
+}
+
+// buildDescriptions reads and builds the model descriptions that pairs
+// name (files relative to the table's directory; the working directory
+// for a table read from standard input) into their problems.
+func (c *chooseCmd) buildDescriptions(tab *sbic.Table) error {
+	base := "."
+	if c.Table != "-" {
+		base = filepath.Dir(c.Table)
+	}
+	for i := range tab.Pairs {
+		tp := &tab.Pairs[i]
+		if tp.Description == "" {
+			continue
+		}
+		path := tp.Description
+		if !filepath.IsAbs(path) {
+			path = filepath.Join(base, path)
+		}
+		label := fmt.Sprintf("%s: pair %q at %q: description", tp.Where, tp.Model, tp.Truth)
+		text, err := os.ReadFile(path)
+		if err != nil {
+			return fmt.Errorf("%s: %w", label, err)
+		}
+		d, err := model.Parse(string(text))
+		if err != nil {
+			return fmt.Errorf("%s: %s:%w", label, path, err)
+		}
+		m, err := model.Build(context.Background(), d, &model.Options{Limits: monomial.Limits{MaxTerms: c.MaxTerms}})
+		if err != nil {
+			return fmt.Errorf("%s: %s:%w", label, path, err)
+		}
+		tp.Problem = m.Problem
+	}
+	return nil
 }
 
 // fail prints err (with a caret under an expression's error) and returns

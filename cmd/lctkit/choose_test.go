@@ -476,3 +476,59 @@ func TestChooseRenders(t *testing.T) {
 	}
 	t.Logf("%.2f%% vermillion, %.2f%% blue, %.2f%% dark", 100*float64(vermillion)/float64(total), 100*float64(blue)/float64(total), 100*float64(dark)/float64(total))
 }
+
+// A pair given by a model description: a one-hidden-unit reduced-rank
+// regression (3 inputs, 2 outputs, standard normal inputs) at the zero
+// truth. K = ‖b·a‖²/(2σ²) up to the constant, and for H = 1 at the zero
+// matrix λ = min(M, N)/2 = 1 (Aoyagi & Watanabe 2005, from memory; the
+// same value as lctkit's certified rank-0 answers), θ = 1 for M ≠ N.
+func TestChooseDescriptionPair(t *testing.T) {
+	dir := t.TempDir()
+	desc := `model one unit
+kind regression
+param b[2,1]
+param a[1,3]
+input x[3] ~ normal
+noise 1
+mean b*a*x
+`
+	if err := os.WriteFile(filepath.Join(dir, "unit.txt"), []byte(desc), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	table := `n 100
+model zero dim 0 loglik -150
+model unit dim 4 loglik -140
+order zero <= unit
+pair zero zero lambda 0 status exact
+pair unit unit regular status exact
+pair unit zero description "unit.txt"
+`
+	path := filepath.Join(dir, "table.txt")
+	if err := os.WriteFile(path, []byte(table), 0o644); err != nil {
+		t.Fatal(err)
+	}
+	out, errOut, code := runCLI(t, "", "choose", path)
+	if code != exitOK {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	if !strings.Contains(out, "unit at zero  λ = 1  θ = 1  exact") || !strings.Contains(out, "model description unit.txt") {
+		t.Errorf("description pair:\n%s", out)
+	}
+	// A missing file and a description with an error are reported with
+	// the pair's line.
+	bad := strings.Replace(table, `"unit.txt"`, `"nowhere.txt"`, 1)
+	os.WriteFile(path, []byte(bad), 0o644)
+	if _, errOut, code := runCLI(t, "", "choose", path); code == exitOK || !strings.Contains(errOut, "line 7") {
+		t.Errorf("missing description: exit %d, %s", code, errOut)
+	}
+	os.WriteFile(filepath.Join(dir, "unit.txt"), []byte(strings.Replace(desc, "mean b*a*x", "mean b*a*", 1)), 0o644)
+	os.WriteFile(path, []byte(table), 0o644)
+	if _, errOut, code := runCLI(t, "", "choose", path); code == exitOK || !strings.Contains(errOut, "unit.txt:7:") {
+		t.Errorf("bad description: exit %d, %s", code, errOut)
+	}
+	// A description with status or theta is refused by the table reader.
+	os.WriteFile(path, []byte(strings.Replace(table, `description "unit.txt"`, `description "unit.txt" status exact`, 1)), 0o644)
+	if _, errOut, code := runCLI(t, "", "choose", path); code == exitOK || !strings.Contains(errOut, "give none of status") {
+		t.Errorf("description with status: exit %d, %s", code, errOut)
+	}
+}

@@ -38,6 +38,7 @@ import (
 //	pairfield  = "lambda" rational | "theta" integer | "status" status
 //	           | "regular"
 //	           | "k" string | "sos" string | "prior" string | "at" string
+//	           | "description" string
 //	           | "order" integer | "vars" string
 //	           | "estimate" rational integer | "source" string .
 //	status    = "exact" | "upper-bound" | "uncertified" .
@@ -63,7 +64,11 @@ import (
 //     the Kullback–Leibler divergence of M from a truth in T, with the
 //     optional prior, at, order and vars of `lctkit bound` (at may be
 //     repeated for several points). lctkit bounds it (rlct.Bound) and the
-//     pair takes λ, θ and the status of the answer.
+//     pair takes λ, θ and the status of the answer;
+//   - description "FILE": a model description (the format of package
+//     rlct/model) of model M with its truth in T, in a file named relative
+//     to the table's own; the caller builds it into TablePair.Problem
+//     (lctkit choose does), and the pair takes the bound of that problem.
 //
 // In every form, estimate λ θ gives another value that the sensitivity
 // report puts in the pair's place when the pair is not exact, and source
@@ -102,7 +107,8 @@ import (
 // (a string such as "3/2", or a number), "theta", "status", "regular"
 // (true), "k", "sos" (a list of strings, or one string with ';'), "prior",
 // "at" (a string or a list), "order", "vars" (a string or a list),
-// "estimate" ({"lambda": …, "theta": …}) and "source". Unknown and repeated
+// "description" (a file name), "estimate" ({"lambda": …, "theta": …}) and
+// "source". Unknown and repeated
 // fields are errors.
 type Table struct {
 	// N is the sample size, 0 when the table gives none.
@@ -144,6 +150,13 @@ type TablePair struct {
 	Regular bool
 	// Spec, when not nil, is the function whose bound gives the pair.
 	Spec *rlct.Spec
+	// Description names a file holding a model description of the pair
+	// (see the package rlct/model); this package does not read it. The
+	// caller builds it and sets Problem.
+	Description string
+	// Problem, when not nil and Spec is nil, is the problem whose bound
+	// gives the pair: set by the caller from Description, or directly.
+	Problem *rlct.Problem
 	// Estimate and Source are as in Pair.
 	Estimate *Value
 	Source   string
@@ -547,9 +560,11 @@ func (r *textReader) pair() error {
 			p.Estimate = &v
 		case "source":
 			p.Source, err = r.quoted("the source")
+		case "description":
+			p.Description, err = r.quoted("the description's file")
 		default:
 			r.pos--
-			return r.errorf("%s: unknown field %q (want lambda, theta, status, regular, k, sos, prior, at, order, vars, estimate or source)", label, key)
+			return r.errorf("%s: unknown field %q (want lambda, theta, status, regular, k, sos, prior, at, order, vars, description, estimate or source)", label, key)
 		}
 		if err != nil {
 			return err
@@ -569,17 +584,21 @@ func (r *textReader) pair() error {
 // given (in JSON, "regular" only when true).
 func (p *TablePair) check(seen map[string]bool) error {
 	ways := 0
-	for _, k := range []string{"lambda", "regular", "k", "sos"} {
+	for _, k := range []string{"lambda", "regular", "k", "sos", "description"} {
 		if seen[k] {
 			ways++
 		}
 	}
 	switch {
 	case ways == 0:
-		return errors.New("give the value (lambda λ status S, or regular status S) or a function (k \"EXPR\" or sos \"g1; g2\")")
+		return errors.New("give the value (lambda λ status S, or regular status S), a function (k \"EXPR\" or sos \"g1; g2\") or a model description (description \"FILE\")")
 	case ways > 1:
-		return errors.New("give only one of lambda, regular, k and sos")
-	case p.Spec == nil && !seen["status"]:
+		return errors.New("give only one of lambda, regular, k, sos and description")
+	case seen["description"] && (seen["status"] || seen["theta"] || seen["prior"] || seen["at"] || seen["order"] || seen["vars"]):
+		return errors.New("a model description gives the prior, the truth and K, and lctkit's bound gives status and theta; give none of status, theta, prior, at, order and vars with it")
+	case seen["description"] && strings.TrimSpace(p.Description) == "":
+		return errors.New("description: an empty file name")
+	case p.Spec == nil && !seen["description"] && !seen["status"]:
 		return errors.New("status is missing: say what the value claims (exact, upper-bound or uncertified)")
 	case p.Spec != nil && (seen["status"] || seen["theta"]):
 		return errors.New("status and theta come from lctkit's bound of K; give neither with k or sos")
@@ -596,7 +615,7 @@ func (p *TablePair) check(seen map[string]bool) error {
 			return fmt.Errorf("order %d is above the largest order lctkit expands, %d", p.Spec.Order, monomial.DefaultMaxOrder)
 		}
 	}
-	if p.Spec == nil && !p.Regular && !seen["theta"] {
+	if p.Spec == nil && !seen["description"] && !p.Regular && !seen["theta"] {
 		p.Theta = 1
 	}
 	if p.Regular {
@@ -681,18 +700,30 @@ func (t *Table) Candidates(ctx context.Context, opt *rlct.Options) (*Candidates,
 			if p.Source == "" {
 				p.Source = fmt.Sprintf("regular value d/2 with d = %d", t.Models[i].Dim)
 			}
-		case tp.Spec != nil:
-			res, err := boundSpec(ctx, tp.Spec, opt)
+		case tp.Spec != nil || tp.Problem != nil:
+			var res *rlct.Result
+			var err error
+			src := "computed by lctkit from K"
+			if tp.Spec != nil {
+				res, err = boundSpec(ctx, tp.Spec, opt)
+			} else {
+				res, err = rlct.Bound(ctx, tp.Problem, opt)
+				if tp.Description != "" {
+					src = "computed by lctkit from the model description " + tp.Description
+				}
+			}
 			if err != nil {
 				return nil, nil, nil, &boundError{fmt.Sprintf("sbic: %s: pair %q at %q: %v", tp.Where, tp.Model, tp.Truth, err), err}
 			}
 			p.Lambda, p.Theta, p.Status = res.Lambda, res.Theta, res.Status
-			src := "computed by lctkit from K"
 			if tp.Source != "" {
 				src += "; " + tp.Source
 			}
 			p.Source = src
 			computed = append(computed, Computed{Pair: n, Result: res})
+		}
+		if tp.Description != "" && tp.Problem == nil {
+			return nil, nil, nil, inputf("sbic: %s: pair %q at %q: the model description %s was not built (the caller builds descriptions; lctkit choose does)", tp.Where, tp.Model, tp.Truth, tp.Description)
 		}
 		pairs[n] = p
 	}

@@ -295,3 +295,38 @@ func FuzzReadTable(f *testing.F) {
 		_, _ = c.Choose(n, ll)
 	})
 }
+
+// A pair named by a model description is bounded from the Problem the
+// caller builds; without one it is an error that says so.
+func TestTableDescriptionPair(t *testing.T) {
+	src := `{"n": 50, "models": [{"name": "a", "dim": 0, "loglik": -10}, {"name": "b", "dim": 2, "loglik": -8}],
+	"order": [["a", "b"]],
+	"pairs": [{"model": "a", "truth": "a", "lambda": "0", "status": "exact"},
+	          {"model": "b", "truth": "b", "regular": true, "status": "exact"},
+	          {"model": "b", "truth": "a", "description": "b.txt"}]}`
+	tab, err := ReadTable([]byte(src))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if tab.Pairs[2].Description != "b.txt" {
+		t.Fatalf("description %q", tab.Pairs[2].Description)
+	}
+	if _, _, _, err := tab.Candidates(context.Background(), nil); err == nil || !strings.Contains(err.Error(), "was not built") {
+		t.Errorf("unbuilt description: %v", err)
+	}
+	// K = (x·y)² as the caller's problem: λ = 1/2, θ = 2 (normal crossings,
+	// common practice).
+	ex, err := monomial.Parse("x*y", monomial.Config{})
+	if err != nil {
+		t.Fatal(err)
+	}
+	tab.Pairs[2].Problem = &rlct.Problem{Generators: []*monomial.Poly{ex.Poly}}
+	c, _, computed, err := tab.Candidates(context.Background(), nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	p := c.Pairs()[2]
+	if p.Lambda.Cmp(big.NewRat(1, 2)) != 0 || p.Theta != 2 || p.Status != rlct.Exact || len(computed) != 1 || !strings.Contains(p.Source, "b.txt") {
+		t.Errorf("pair %+v, computed %d", p, len(computed))
+	}
+}

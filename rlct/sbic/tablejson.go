@@ -30,20 +30,21 @@ type jsonModel struct {
 }
 
 type jsonPair struct {
-	Model    *string         `json:"model"`
-	Truth    *string         `json:"truth"`
-	Lambda   json.RawMessage `json:"lambda"`
-	Theta    *int            `json:"theta"`
-	Status   *string         `json:"status"`
-	Regular  *bool           `json:"regular"`
-	K        *string         `json:"k"`
-	SOS      json.RawMessage `json:"sos"`
-	Prior    *string         `json:"prior"`
-	At       json.RawMessage `json:"at"`
-	Order    *int            `json:"order"`
-	Vars     json.RawMessage `json:"vars"`
-	Estimate *jsonValue      `json:"estimate"`
-	Source   *string         `json:"source"`
+	Model       *string         `json:"model"`
+	Truth       *string         `json:"truth"`
+	Lambda      json.RawMessage `json:"lambda"`
+	Theta       *int            `json:"theta"`
+	Status      *string         `json:"status"`
+	Regular     *bool           `json:"regular"`
+	K           *string         `json:"k"`
+	SOS         json.RawMessage `json:"sos"`
+	Prior       *string         `json:"prior"`
+	At          json.RawMessage `json:"at"`
+	Order       *int            `json:"order"`
+	Vars        json.RawMessage `json:"vars"`
+	Estimate    *jsonValue      `json:"estimate"`
+	Source      *string         `json:"source"`
+	Description *string         `json:"description"`
 }
 
 type jsonValue struct {
@@ -189,6 +190,9 @@ func (jp *jsonPair) pair(where string) (TablePair, error) {
 	}
 	if seen["k"] || seen["sos"] {
 		p.Spec = &spec
+	}
+	if jp.Description != nil {
+		seen["description"], p.Description = true, *jp.Description
 	}
 	if jp.Estimate != nil {
 		if !present(jp.Estimate.Lambda) || jp.Estimate.Theta == nil {
