@@ -57,6 +57,11 @@ type Options struct {
 	// NoReduction turns off the splitting of regular directions (see
 	// Reduction): the answer is then the Newton value of K itself.
 	NoReduction bool
+
+	// NoRepair turns off the repair of degenerate edges by changes of
+	// coordinates (see Repair): with NoReduction as well, the answer is
+	// the Newton value of K itself.
+	NoRepair bool
 }
 
 func (o *Options) maxFaces() int {
@@ -116,6 +121,20 @@ type Result struct {
 	// describe the polyhedron above are those of K itself, and
 	// Reduction.Unreduced has its Newton value).
 	Reduction *Reduction `json:"reduction,omitempty"`
+	// Repair, when not nil, is the sequence of coordinate changes along
+	// degenerate edges that gave Lambda, Theta and Status (the fields
+	// that describe the polyhedron above are those of K itself, and
+	// Repair.Unrepaired has its Newton value).
+	Repair *Repair `json:"repair,omitempty"`
+	// LambdaCertified is set when λ itself is certified to be the learning
+	// coefficient while θ is not (Status is then UpperBound: the true λ
+	// equals Lambda and the true θ is at least Theta). It is false when
+	// Status is Exact, which certifies both.
+	LambdaCertified bool `json:"lambda_certified,omitempty"`
+	// Changes lists every change of coordinates behind the answer, in the
+	// order made (a reduction, then repair steps), in words a reader can
+	// replay; Reduction and Repair hold the details.
+	Changes []string `json:"changes,omitempty"`
 	// Locals holds the answer at each point when several were given, in
 	// the order of Problem.Points; the fields above are then those of the
 	// minimum over them, except Status, Summary and Reasons, which are
@@ -125,6 +144,7 @@ type Result struct {
 
 	newton *polyhedron.Newton
 	scale  int
+	local  *Local // the problem this answer is the Newton value of
 }
 
 // Bound computes the Newton-polyhedron value (λ, θ) of p at each of its
@@ -191,10 +211,19 @@ func boundEach(ctx context.Context, p *Problem, opt *Options) ([]*Result, []*Loc
 // Problem.
 func boundLocal(ctx context.Context, l *Local, order int, truncated bool, opt *Options) (*Result, error) {
 	res, err := boundPlain(ctx, l, order, truncated, opt)
-	if err != nil || opt.NoReduction {
-		return res, err
+	if err != nil {
+		return nil, err
 	}
-	return applyReduction(ctx, l, order, truncated, opt, res)
+	plain := res
+	if !opt.NoReduction {
+		if res, err = applyReduction(ctx, l, order, truncated, opt, res); err != nil {
+			return nil, err
+		}
+	}
+	if !opt.NoRepair {
+		return applyRepair(ctx, l, truncated, opt, plain, res)
+	}
+	return res, nil
 }
 
 // boundPlain bounds the problem at one point by the Newton polyhedron of
@@ -219,7 +248,7 @@ func boundPlain(ctx context.Context, l *Local, order int, truncated bool, opt *O
 		return nil, err
 	}
 	res := &Result{Vars: l.Vars, Prior: l.Prior, Weights: l.Weights, Point: l.Point, Notes: l.Notes,
-		newton: newton, scale: 1, Form: "polynomial"}
+		newton: newton, scale: 1, Form: "polynomial", local: l}
 	if l.SumOfSquares {
 		res.scale, res.Form = 2, "sum-of-squares"
 	}
@@ -315,6 +344,9 @@ func (r *Result) summary() string {
 	case Exact:
 		return "exact: λ and θ are the learning coefficient and its multiplicity, with a certificate"
 	case UpperBound:
+		if r.LambdaCertified {
+			return "λ certified, θ not: λ is the learning coefficient, with a certificate; θ is only bounded (the true θ is at least this θ)"
+		}
 		return "upper bound: the true λ is at most this λ, and if they are equal the true θ is at least this θ (θ is ordered together with λ); this is not necessarily the learning coefficient"
 	}
 	tr := r.Truncation

@@ -54,7 +54,7 @@ func TestSumOfSquaresAgreesWithExpansion(t *testing.T) {
 			squares = append(squares, "("+g+")^2")
 		}
 		k := strings.Join(squares, " + ")
-		all := &Options{AllFaces: true, NoReduction: true} // the Newton values of both forms
+		all := &Options{AllFaces: true, NoReduction: true, NoRepair: true} // the Newton values of both forms
 		rs := solveWith(t, &Spec{SOS: gens, Vars: vars[:d]}, all)
 		rk := solveWith(t, &Spec{K: k, Vars: vars[:d]}, all)
 		if rs.Lambda.Cmp(rk.Lambda) != 0 || rs.Theta != rk.Theta {

@@ -87,6 +87,7 @@ func Describe(ctx context.Context, p *Problem, opt *Options) ([]*Description, er
 	}
 	o.AllFaces = true
 	o.NoReduction = true // the answer the polyhedron gives, that of K itself
+	o.NoRepair = true
 	results, locals, err := boundEach(ctx, p, &o)
 	if err != nil {
 		return nil, err

@@ -30,7 +30,7 @@ func ExampleBound() {
 // no reduction applies (here it is turned off; see ExampleBound_reduction).
 func ExampleBound_degenerate() {
 	ex, _ := monomial.Parse("(x^2 - y)^2", monomial.Config{})
-	r, _ := rlct.Bound(context.Background(), &rlct.Problem{K: ex.Poly}, &rlct.Options{NoReduction: true})
+	r, _ := rlct.Bound(context.Background(), &rlct.Problem{K: ex.Poly}, &rlct.Options{NoReduction: true, NoRepair: true})
 	fmt.Println(r.Lambda.RatString(), r.Theta, r.Status)
 	fmt.Println(r.Reasons[0])
 	// Output:

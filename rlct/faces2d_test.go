@@ -222,7 +222,7 @@ func TestQuadraticFaceEndToEnd(t *testing.T) {
 		{Spec{K: "(x-y)^2 + z^4"}, "5/4", UpperBound, ""},
 	}
 	for _, c := range cases {
-		r := solveWith(t, &c.spec, &Options{NoReduction: true})
+		r := solveWith(t, &c.spec, &Options{NoReduction: true, NoRepair: true})
 		if r.Lambda.RatString() != c.lambda || r.Status != c.status {
 			t.Fatalf("%+v: λ = %s (%s), want %s (%s); reasons %v", c.spec, r.Lambda.RatString(), r.Status, c.lambda, c.status, r.Reasons)
 		}

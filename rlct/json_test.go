@@ -16,7 +16,7 @@ import (
 // written out here, not taken from the code, so that renaming a field in the
 // code fails this test.
 var (
-	resultKeys      = []string{"lambda", "theta", "status", "summary", "distance", "variables", "prior", "weights", "point", "form", "reasons", "notes", "principal_face", "certificate", "nondegeneracy", "truncation", "reduction", "locals"}
+	resultKeys      = []string{"lambda", "theta", "status", "summary", "distance", "variables", "prior", "weights", "point", "form", "reasons", "notes", "principal_face", "certificate", "nondegeneracy", "truncation", "reduction", "repair", "lambda_certified", "changes", "locals"}
 	faceKeys        = []string{"dim", "codim", "compact", "principal", "vertices", "rays", "normal", "rhs", "polynomial", "terms", "verdict", "rule", "witness", "reason"}
 	certificateKeys = []string{"unsafe_points", "faces_examined", "by_rule", "degenerate", "undetermined", "complete", "stopped", "deciding_faces"}
 	truncationKeys  = []string{"order", "principal", "faces", "bound_order", "needed_order", "remainder"}
@@ -87,11 +87,15 @@ func TestJSONFieldNames(t *testing.T) {
 		must []string
 	}{
 		// A degenerate edge: reasons and a deciding face with a witness.
-		{"degenerate", Spec{K: "(y - x^2)^2"}, &Options{NoReduction: true}, []string{"lambda", "theta", "status", "summary", "distance", "variables", "prior", "weights", "point", "form", "reasons", "principal_face", "certificate"}},
+		{"degenerate", Spec{K: "(y - x^2)^2"}, &Options{NoReduction: true, NoRepair: true}, []string{"lambda", "theta", "status", "summary", "distance", "variables", "prior", "weights", "point", "form", "reasons", "principal_face", "certificate"}},
 		// Every compact face listed.
 		{"all faces", Spec{K: "(y - x^2)^2"}, &Options{AllFaces: true}, []string{"nondegeneracy"}},
 		// A reduction.
 		{"reduction", Spec{K: "(x - y)^2 + z^4"}, nil, []string{"reduction"}},
+		// A repair of a degenerate edge, and λ certified by Varchenko's
+		// criterion.
+		{"repair", Spec{K: "x^2*y^2 - 2*x*y^3 + y^4 + x^6"}, nil, []string{"repair", "changes"}},
+		{"varchenko", Spec{K: "(x^2 - y^3)^2"}, nil, []string{"repair", "lambda_certified", "changes"}},
 		// A truncated series.
 		{"truncated", Spec{K: "x^2 + sin(y)^8", Order: 6}, nil, []string{"truncation", "reasons"}},
 		// Several points, and a prior exponent that does not count.

@@ -201,7 +201,7 @@ func TestBoundPoints(t *testing.T) {
 			for _, w := range tt.points {
 				p.Points = append(p.Points, ratVec(t, w))
 			}
-			r, err := Bound(context.Background(), p, &Options{NoReduction: true})
+			r, err := Bound(context.Background(), p, &Options{NoReduction: true, NoRepair: true})
 			if err != nil {
 				t.Fatal(err)
 			}

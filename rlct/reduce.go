@@ -678,6 +678,7 @@ func applyReduction(ctx context.Context, l *Local, order int, truncated bool, op
 	out.Lambda, out.Theta, out.Status = got.Lambda, got.Theta, got.Status
 	out.Reasons = got.Reasons
 	out.Reduction = red
+	out.Changes = []string{"reduction: " + red.describe() + " (" + strings.Join(red.Solution, "; ") + ")"}
 	out.Summary = out.summary()
 	return &out, nil
 }

@@ -33,7 +33,8 @@ type problemFlags struct {
 	MaxFaces int `name:"max-faces" help:"Most compact faces the certificate examines before it stops with an upper bound (default 20000)." placeholder:"N"`
 	MaxTerms int `name:"max-terms" help:"Most terms an expansion may have (default 2000000)." placeholder:"N"`
 
-	NoReduce bool `name:"no-reduce" help:"Do not split off regular directions (solving generators with independent linear parts, or the quadratic part of K, for some coordinates): give the Newton value of K itself."`
+	NoReduce bool `name:"no-reduce" help:"Do not change coordinates at all (no splitting off of regular directions, no repair of degenerate edges): give the Newton value of K itself."`
+	NoRepair bool `name:"no-repair" help:"Do not repair degenerate edges by changes of coordinates x_j -> x_j + c*w^m (the splitting off of regular directions still runs unless --no-reduce is given)."`
 }
 
 // Validate checks the flags' ranges before Run.
@@ -49,7 +50,7 @@ func (f *problemFlags) Validate() error {
 
 // options returns the library options the flags ask for.
 func (f *problemFlags) options() *rlct.Options {
-	return &rlct.Options{MaxFaces: f.MaxFaces, NoReduction: f.NoReduce}
+	return &rlct.Options{MaxFaces: f.MaxFaces, NoReduction: f.NoReduce, NoRepair: f.NoReduce || f.NoRepair}
 }
 
 // spec turns the flags and the expression argument into a library spec. It
