@@ -435,7 +435,12 @@ func newCandidate(l *Local, e repairEdge, u []int, g upoly, c *big.Rat, j int, s
 	if sigma < 0 {
 		coef.Inv(coef)
 	}
-	phi := monomial.Variable(l.Vars, j).Add(monomial.Monomial(l.Vars, m, coef))
+	shift := monomial.Monomial(l.Vars, m, coef)
+	phi := monomial.Variable(l.Vars, j).Add(shift)
+	rhs := l.Vars[j] + " + " + shift.String()
+	if coef.Sign() < 0 {
+		rhs = l.Vars[j] + " - " + shift.Neg().String()
+	}
 	return repairCandidate{
 		j:   j,
 		phi: phi,
@@ -445,7 +450,7 @@ func newCandidate(l *Local, e repairEdge, u []int, g upoly, c *big.Rat, j int, s
 			Monomial:     monomialString(l.Vars, u),
 			Root:         c,
 			Variable:     l.Vars[j],
-			Substitution: l.Vars[j] + " -> " + phi.String(),
+			Substitution: l.Vars[j] + " -> " + rhs,
 		},
 	}
 }
