@@ -112,8 +112,8 @@ func repair(ctx context.Context, l *Local, truncated bool, opt *Options, res *Re
 	rep := &Repair{Steps: []RepairStep{}, Unrepaired: valueOf(res)}
 	cur, curL := res, l
 	for range maxRepairSteps {
-		if err := stopped(ctx); err != nil {
-			return nil, nil, nil, err
+		if ctx.Err() != nil {
+			break // the deadline ends the repair like a budget: the answer so far stands
 		}
 		if cur.Status == Exact {
 			break
@@ -136,8 +136,8 @@ func repair(ctx context.Context, l *Local, truncated bool, opt *Options, res *Re
 			}
 			r, err := boundPlain(ctx, nl, 0, false, opt)
 			if err != nil {
-				if errors.Is(err, ErrInput) {
-					continue // a candidate that cannot be bounded is not used
+				if errors.Is(err, ErrInput) || ctx.Err() != nil {
+					continue // a candidate that cannot be bounded in time is not used
 				}
 				return nil, nil, nil, err
 			}
@@ -235,6 +235,13 @@ func checkConsistent(a, b *Result) error {
 // substituteLocal returns l with x_j replaced by c.phi in every
 // polynomial.
 func substituteLocal(l *Local, c *repairCandidate) (*Local, error) {
+	for _, q := range l.Polys {
+		for e := range q.All() {
+			if e[c.j] > maxRepairDegree {
+				return nil, errTooLarge // (x_j + c·w^m)^e would be too large to expand
+			}
+		}
+	}
 	sub := newSubstituter(l.Vars, []int{c.j}, []*monomial.Poly{c.phi}, -1)
 	nl := *l
 	nl.Polys = make([]*monomial.Poly, len(l.Polys))
@@ -374,7 +381,7 @@ func repairCandidates(ctx context.Context, l *Local, cur *Result) ([]repairCandi
 		}
 		js := movable(u)
 		if len(js) == 0 {
-			why = append(why, fmt.Sprintf("the edge %s was not repaired: its direction %v has no entry ±1 with the others of the opposite sign, so its root %s of %s = c needs a fractional power (a Puiseux step with ramification), which this change of coordinates does not make",
+			why = append(why, fmt.Sprintf("the edge %s was not repaired: its direction %v has no entry ±1 with every other entry of the opposite sign or zero, so no coordinate x_j can be moved to x_j + c·w^m along it (a monomial w^m with m ≥ 0) for its root %s of %s = c; in two variables that root needs a fractional power (a Puiseux step with ramification)",
 				formatVertices([][]int{scaled(e.v0, cur.scale), scaled(e.v1, cur.scale)}), u, rats[0].RatString(), monomialString(l.Vars, u)))
 			continue
 		}

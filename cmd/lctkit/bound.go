@@ -275,7 +275,11 @@ func statusWord(s rlct.Status) string {
 // writeBound prints the plain-text answer. With several points it prints
 // the minimum, then each point's answer under its own label.
 func writeBound(w io.Writer, r *rlct.Result, pen *rlct.Penalties) {
-	fmt.Fprintf(w, "λ = %s   θ = %d   (%s)\n", r.Lambda.RatString(), r.Theta, statusWord(r.Status))
+	word := statusWord(r.Status)
+	if r.LambdaCertified {
+		word = "λ certified, θ an upper bound"
+	}
+	fmt.Fprintf(w, "λ = %s   θ = %d   (%s)\n", r.Lambda.RatString(), r.Theta, word)
 	writeStatusLine(w, r, "  ")
 	if len(r.Locals) == 0 {
 		if !allZero(r.Point) {
@@ -313,6 +317,10 @@ func writeBound(w io.Writer, r *rlct.Result, pen *rlct.Penalties) {
 func writeStatusLine(w io.Writer, r *rlct.Result, indent string) {
 	switch r.Status {
 	case rlct.UpperBound:
+		if r.LambdaCertified {
+			fmt.Fprintf(w, "%sthe true λ is %s (certified); θ is not certified: the true θ is at least %d\n", indent, r.Lambda.RatString(), r.Theta)
+			return
+		}
 		fmt.Fprintf(w, "%sthe true λ is at most %s, and if it equals %s the true θ is at least %d (θ is ordered together with λ)\n",
 			indent, r.Lambda.RatString(), r.Lambda.RatString(), r.Theta)
 	case rlct.Uncertified:
@@ -326,6 +334,9 @@ func writeDetails(w io.Writer, r *rlct.Result, indent string) {
 	if red := r.Reduction; red != nil {
 		writeReduction(w, r, indent)
 		return
+	}
+	if r.Repair != nil {
+		writeRepair(w, r, indent)
 	}
 	fmt.Fprintf(w, "%sNewton distance t = %s along τ = (%s) in (%s)\n", indent, r.Distance.RatString(), ratList(r.Weights), strings.Join(r.Vars, ", "))
 	pf := r.Principal
@@ -342,7 +353,11 @@ func writeDetails(w io.Writer, r *rlct.Result, indent string) {
 			fmt.Fprintf(w, "%struncation at degree %d: the omitted terms cannot change the answer\n", indent, r.Truncation.Order)
 		}
 	case rlct.UpperBound:
-		fmt.Fprintf(w, "%sThis is an upper bound, not necessarily the learning coefficient, because:\n", indent)
+		if r.LambdaCertified {
+			fmt.Fprintf(w, "%sλ is certified; θ is only an upper bound in the order of λ and θ, because:\n", indent)
+		} else {
+			fmt.Fprintf(w, "%sThis is an upper bound, not necessarily the learning coefficient, because:\n", indent)
+		}
 	default:
 		fmt.Fprintf(w, "%sThis is not a bound: it may lie below the true learning coefficient, because:\n", indent)
 	}
@@ -528,4 +543,20 @@ func writeReduction(w io.Writer, r *rlct.Result, indent string) {
 	for _, n := range r.Notes {
 		fmt.Fprintf(w, "%snote: %s\n", indent, n)
 	}
+}
+
+// writeRepair prints the changes of coordinates behind a repaired answer,
+// K after them and the values before and after; the polyhedron of K
+// itself follows.
+func writeRepair(w io.Writer, r *rlct.Result, indent string) {
+	rep := r.Repair
+	for _, c := range r.Changes {
+		fmt.Fprintf(w, "%schange: %s\n", indent, c)
+	}
+	if len(rep.Steps) > 0 {
+		fmt.Fprintf(w, "%sK after the changes: %s\n", indent, strings.Join(rep.K, "; "))
+	}
+	f, u := rep.Final, rep.Unrepaired
+	fmt.Fprintf(w, "%safter the changes: λ = %s, θ = %d (%s); K itself: λ = %s, θ = %d (%s), whose polyhedron follows\n",
+		indent, f.Lambda.RatString(), f.Theta, statusWord(f.Status), u.Lambda.RatString(), u.Theta, statusWord(u.Status))
 }
