@@ -19,7 +19,7 @@ func ExampleProblem() {
 		fmt.Println(err)
 		return
 	}
-	bound, err := rlct.Bound(context.Background(), p, &rlct.Options{NoReduction: true})
+	bound, err := rlct.Bound(context.Background(), p, &rlct.Options{NoReduction: true, NoRepair: true})
 	if err != nil {
 		fmt.Println(err)
 		return
