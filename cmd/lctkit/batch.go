@@ -31,13 +31,14 @@ const batchGCPercent = 400
 
 // batchCmd bounds many problems given as JSON lines.
 type batchCmd struct {
-	File     string        `arg:"" optional:"" default:"-" help:"JSON lines input, one problem per line; - or nothing reads standard input."`
-	Workers  int           `help:"Records computed at once (default: all cores, GOMAXPROCS)." placeholder:"N"`
-	Shard    string        `help:"Answer only the lines L with (L−1) mod n = i, for 0 ≤ i < n (the first line belongs to shard 0/n); other lines give no output." placeholder:"i/n"`
-	Timeout  time.Duration `help:"Give up on a record after this long (0: never), e.g. 10s or 1m." placeholder:"10s"`
-	MaxTerms int           `help:"Most terms an expansion may have (0: the library default, 2,000,000)." placeholder:"N"`
-	MaxFaces int           `name:"max-faces" help:"Most compact faces the certificate of one record examines before it stops with an upper bound (default 20000)." placeholder:"N"`
-	Brief    bool          `help:"Leave out the faces (the principal face and the faces that decided the status); λ, θ, status, summary, reasons and the certificate's counts stay."`
+	File      string        `arg:"" optional:"" default:"-" help:"JSON lines input, one problem per line; - or nothing reads standard input."`
+	Workers   int           `help:"Records computed at once (default: all cores, GOMAXPROCS)." placeholder:"N"`
+	Shard     string        `help:"Answer only the lines L with (L−1) mod n = i, for 0 ≤ i < n (the first line belongs to shard 0/n); other lines give no output." placeholder:"i/n"`
+	Timeout   time.Duration `help:"Give up on a record after this long (0: never), e.g. 10s or 1m." placeholder:"10s"`
+	MaxTerms  int           `help:"Most terms an expansion may have (0: the library default, 2,000,000)." placeholder:"N"`
+	MaxFaces  int           `name:"max-faces" help:"Most compact faces the certificate of one record examines before it stops with an upper bound (default 20000)." placeholder:"N"`
+	Brief     bool          `help:"Leave out the faces (the principal face and the faces that decided the status); λ, θ, status, summary, reasons and the certificate's counts stay."`
+	NoChanges bool          `name:"no-changes" help:"Make no change of coordinates (no reduction, no repair): each record gets the Newton value of K itself, as bound --no-reduce gives."`
 
 	shardIndex, shardCount int
 }
@@ -82,6 +83,10 @@ every record written. --shard i/n splits one input among n runs (on n machines, 
 outputs of shards 0/n, 1/n, …, (n−1)/n together hold every line exactly once,
 and sorting their concatenation by "line" gives the unsharded output.
 
+--no-changes turns off the changes of coordinates (the splitting off of regular
+directions and the repair of degenerate edges), so every record gets the
+Newton value of K as given, as "bound --no-reduce" does.
+
 --timeout limits each record, from reading it to its answer. When it passes
 while faces are being examined, the record gets its value with status
 "upper-bound" and the reason "budget reached"; when it passes earlier (building
@@ -99,6 +104,11 @@ Examples:
   lctkit batch problems.jsonl > answers.jsonl
   echo '{"id": 1, "k": "x^4 + y^6"}' | lctkit batch
   lctkit batch --shard 0/4 --timeout 30s --max-terms 100000 problems.jsonl`
+}
+
+// options are the library options of every record.
+func (c *batchCmd) options() *rlct.Options {
+	return &rlct.Options{MaxFaces: c.MaxFaces, NoReduction: c.NoChanges, NoRepair: c.NoChanges}
 }
 
 // Validate checks the flags before Run.
@@ -323,9 +333,9 @@ func (c *batchCmd) solve(it batchItem, id *json.RawMessage, name *string) result
 	rec.Spec.Limits = monomial.Limits{MaxTerms: c.MaxTerms}
 	var r *rlct.Result
 	if rec.Model != "" {
-		r, err = boundModel(ctx, rec, c.MaxTerms, c.MaxFaces, name)
+		r, err = boundModel(ctx, rec, c.MaxTerms, c.options(), name)
 	} else {
-		_, r, err = rec.Spec.Bound(ctx, &rlct.Options{MaxFaces: c.MaxFaces})
+		_, r, err = rec.Spec.Bound(ctx, c.options())
 	}
 	if err != nil && ctx.Err() != nil {
 		return result{Error: "timed out after " + c.Timeout.String()}

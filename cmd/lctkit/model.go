@@ -228,7 +228,7 @@ func caretPad(line string, col int) string {
 // boundModel builds and bounds the model description of a batch record;
 // it sets *name to the model's name. Errors in the description read
 // "model: line:col: message".
-func boundModel(ctx context.Context, rec rlct.Record, maxTerms, maxFaces int, name *string) (*rlct.Result, error) {
+func boundModel(ctx context.Context, rec rlct.Record, maxTerms int, opt *rlct.Options, name *string) (*rlct.Result, error) {
 	d, err := model.Parse(rec.Model)
 	if err != nil {
 		return nil, fmt.Errorf("model: %w", err)
@@ -238,5 +238,5 @@ func boundModel(ctx context.Context, rec rlct.Record, maxTerms, maxFaces int, na
 	if err != nil {
 		return nil, fmt.Errorf("model: %w", err)
 	}
-	return m.Bound(ctx, &rlct.Options{MaxFaces: maxFaces})
+	return m.Bound(ctx, opt)
 }
