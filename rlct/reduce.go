@@ -31,8 +31,18 @@ type Reduction struct {
 	Generators []int `json:"generators,omitempty"`
 	// Solution gives each solved coordinate as a function of the others,
 	// "x = y - y^2", in the offsets from the point. When Order > 0 it is a
-	// series cut above degree Order.
+	// series cut above degree Order. When Eliminations is set, each is the
+	// exact rational function of that step, in the coordinates left by
+	// the steps before it.
 	Solution []string `json:"solution"`
+	// Eliminations, when set, are the exact steps that solved the
+	// generators one at a time (see Elimination): the core is then an
+	// exact polynomial, and replaying the steps on the generators gives K.
+	Eliminations []Elimination `json:"eliminations,omitempty"`
+	// K holds the core after the reduction (in sum-of-squares form its
+	// generators), in the offsets from the point, when it is exact and
+	// found by Eliminations.
+	K []string `json:"k,omitempty"`
 	// Order is 0 when the solution and the core are exact, otherwise the
 	// total degree at which the core (a series) was cut; the core's
 	// Truncation then says whether the omitted terms can matter.
@@ -172,6 +182,12 @@ func reduce(ctx context.Context, l *Local, order int, truncated bool, opt *Optio
 		red.Solved = append(red.Solved, l.Vars[j])
 	}
 
+	if l.SumOfSquares && !truncated {
+		red, res, why, err := reduceExact(ctx, l, movable, sys.rank(), opt, red)
+		if err != nil || red != nil || why != "" {
+			return red, res, why, err
+		}
+	}
 	D := order
 	if !truncated {
 		D = defaultReduceOrder
@@ -203,6 +219,42 @@ func reduce(ctx context.Context, l *Local, order int, truncated bool, opt *Optio
 		}
 		return red, res, "", nil
 	}
+}
+
+// reduceExact runs eliminate on the coordinates cols and, when it splits
+// off all rank regular directions, bounds the exact polynomial core. It
+// returns a nil Reduction and an empty reason when the series solve should
+// be tried instead (some direction could not be eliminated exactly, or the
+// polynomials grew too large).
+func reduceExact(ctx context.Context, l *Local, cols []int, rank int, opt *Options, red *Reduction) (*Reduction, *Result, string, error) {
+	el, err := eliminate(l, cols, rank)
+	if errors.Is(err, errTooLarge) || el == nil || len(el.pivots) != rank {
+		return nil, nil, "", nil
+	}
+	if err != nil {
+		return nil, nil, "", err
+	}
+	red.Generators, red.Solved, red.Solution = nil, nil, nil
+	for k, j := range el.pivots {
+		red.Generators = append(red.Generators, el.gens[k]+1)
+		red.Solved = append(red.Solved, l.Vars[j])
+		st := el.steps[k]
+		sol := l.Vars[j] + " = " + st.Numerator
+		if st.Denominator != "1" {
+			sol = l.Vars[j] + " = (" + st.Numerator + ")/(" + st.Denominator + ")"
+		}
+		red.Solution = append(red.Solution, sol)
+	}
+	red.Eliminations = el.steps
+	red.Order = 0
+	for _, q := range el.core {
+		red.K = append(red.K, q.String())
+	}
+	res, why, err := boundCore(ctx, l, el.core, el.pivots, false, 0, opt, red)
+	if err != nil || res == nil {
+		return nil, nil, why, err
+	}
+	return red, res, "", nil
 }
 
 func allIndices(d int) []int {

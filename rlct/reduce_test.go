@@ -8,6 +8,8 @@ import (
 	"slices"
 	"strings"
 	"testing"
+
+	"github.com/lctkit/lctkit/monomial"
 )
 
 // rrGenerators returns the generators of ‖BA − B*A*‖² for reduced-rank
@@ -269,5 +271,167 @@ func TestReduceLinearChange(t *testing.T) {
 				t.Errorf("trial %d %+v: λ = %s, θ = %d (%s), want %s, 1, exact (reasons %q)", trial, sp, res.Lambda.RatString(), res.Theta, res.Status, want.RatString(), res.Reasons)
 			}
 		}
+	}
+}
+
+// TestReduceReducedRankExact: reduced-rank regression at a truth of rank
+// r ≥ 1. The generators Σ_k b_ik·a_kj − δ_ij are solved exactly, one at a
+// time (eliminate), so the core is an exact polynomial. The expected
+// values come from aoyagiWatanabe (bound_test.go: Aoyagi & Watanabe 2005,
+// main theorem, from memory). Checks:
+//   - the value never lies below the Aoyagi–Watanabe formula (it is
+//     certified, so a value below would be a wrong bound), and equals it
+//     when exact;
+//   - λ(M,N,H,r) = λ(M−r, N−r, H−r, 0) + r(M+N−r)/2 (Aoyagi & Watanabe
+//     2005, the reduction of the rank-r case to the rank-0 case; from
+//     memory), checked on the formula itself so that the two recollections
+//     agree;
+//   - when H − r ≤ 1 the core is exact (H − r = 1: the core is ‖b·aᵀ‖²
+//     for vectors b, a, whose Newton polyhedron is nondegenerate, common
+//     practice; H − r = 0: the core is 0), so the answer must be exact.
+func TestReduceReducedRankExact(t *testing.T) {
+	for _, s := range [][4]int{
+		{2, 2, 2, 1}, {3, 3, 2, 1}, {3, 2, 2, 1}, {2, 3, 2, 1}, {4, 3, 2, 1},
+		{2, 4, 2, 1}, {4, 2, 2, 1}, {5, 5, 2, 1}, {3, 3, 3, 2}, {4, 3, 3, 2},
+		{4, 4, 3, 2}, {5, 4, 3, 2}, {3, 3, 3, 1}, {4, 4, 3, 1},
+	} {
+		m, n, h, r := s[0], s[1], s[2], s[3]
+		t.Run(fmt.Sprintf("M=%d,N=%d,H=%d,r=%d", m, n, h, r), func(t *testing.T) {
+			wantL, wantT := aoyagiWatanabe(m, n, h, r)
+			coreL, coreT := aoyagiWatanabe(m-r, n-r, h-r, 0)
+			if m-r < 1 || n-r < 1 {
+				coreL, coreT = new(big.Rat), 1
+			}
+			split := new(big.Rat).Add(coreL, big.NewRat(int64(r*(m+n-r)), 2))
+			if split.Cmp(wantL) != 0 || coreT != wantT {
+				t.Fatalf("the formula disagrees with its reduction: %s, %d vs %s, %d", wantL.RatString(), wantT, split.RatString(), coreT)
+			}
+			sp := rrSpec(m, n, h, r)
+			p, err := sp.Problem()
+			if err != nil {
+				t.Fatal(err)
+			}
+			res, err := Bound(context.Background(), p, nil)
+			if err != nil {
+				t.Fatal(err)
+			}
+			got := fmt.Sprintf("λ = %s, θ = %d (%s)", res.Lambda.RatString(), res.Theta, res.Status)
+			switch c := res.Lambda.Cmp(wantL); {
+			case res.Status == Uncertified:
+				t.Errorf("%s: uncertified", got)
+			case c < 0 || c == 0 && res.Theta > wantT: // below in the order of Less
+				t.Errorf("%s lies below the formula's λ = %s, θ = %d", got, wantL.RatString(), wantT)
+			case res.Status == Exact && (c != 0 || res.Theta != wantT):
+				t.Errorf("%s, want λ = %s, θ = %d", got, wantL.RatString(), wantT)
+			}
+			if h-r <= 1 {
+				if res.Status != Exact {
+					t.Errorf("%s, want exact (core with H − r = %d); notes %q", got, h-r, res.Notes)
+				}
+				if res.Reduction == nil || len(res.Reduction.Eliminations) != r*(m+n-r) || res.Reduction.Order != 0 {
+					t.Errorf("reduction %+v, want %d exact eliminations", res.Reduction, r*(m+n-r))
+				}
+			}
+		})
+	}
+}
+
+// TestReduceReplay replays the recorded eliminations on the generators and
+// checks that they give Reduction.K: the record alone reproduces the core.
+// The replay substitutes x = Numerator/Denominator in each generator h not
+// yet solved and multiplies by Denominator^e (e the degree of h in x),
+// with the polynomial arithmetic of monomial only.
+func TestReduceReplay(t *testing.T) {
+	for _, tc := range []struct {
+		name string
+		sp   Spec
+	}{
+		{"rr 3x3 H=2 r=1", rrSpec(3, 3, 2, 1)},
+		{"rr 3x3 H=3 r=2", rrSpec(3, 3, 3, 2)},
+		{"x-y; z^2", Spec{SOS: []string{"x - y", "z^2"}}},
+		{"unit coefficient 1+z", Spec{SOS: []string{"(1 + z)*x + y^2", "x*y + z^3"}}},
+	} {
+		sp := tc.sp
+		t.Run(tc.name, func(t *testing.T) {
+			p, err := sp.Problem()
+			if err != nil {
+				t.Fatal(err)
+			}
+			locals, err := p.Locals()
+			if err != nil {
+				t.Fatal(err)
+			}
+			r, err := Bound(context.Background(), p, nil)
+			if err != nil {
+				t.Fatal(err)
+			}
+			red := r.Reduction
+			if red == nil || len(red.Eliminations) == 0 {
+				t.Fatalf("no exact reduction: %+v (notes %q)", red, r.Notes)
+			}
+			vars := locals[0].Vars
+			polys := slices.Clone(locals[0].Polys)
+			alive := make([]bool, len(polys))
+			for i := range alive {
+				alive[i] = true
+			}
+			parse := func(s string) *monomial.Poly {
+				e, err := monomial.Parse(s, monomial.Config{Vars: vars})
+				if err != nil {
+					t.Fatal(err)
+				}
+				q, err := e.Poly.Embed(vars)
+				if err != nil {
+					t.Fatal(err)
+				}
+				return q
+			}
+			for _, st := range red.Eliminations {
+				j := slices.Index(vars, st.Variable)
+				num, den := parse(st.Numerator), parse(st.Denominator)
+				if den.ConstantTerm().Sign() == 0 {
+					t.Fatalf("denominator %s is not a unit at the point", st.Denominator)
+				}
+				g := polys[st.Generator-1]
+				// The solved generator vanishes: den·g(num/den) = 0.
+				if v := g.Substitute(j, monomial.Zero(vars)).Mul(den).Add(g.Sub(g.Substitute(j, monomial.Zero(vars))).Substitute(j, num)); !v.IsZero() {
+					t.Errorf("step %+v: den·g(x = num/den) = %s, want 0", st, v)
+				}
+				alive[st.Generator-1] = false
+				for i, h := range polys {
+					if !alive[i] {
+						continue
+					}
+					e := 0
+					for ex := range h.All() {
+						e = max(e, ex[j])
+					}
+					out := monomial.Zero(vars)
+					for ex, c := range h.All() {
+						f := slices.Clone(ex)
+						k := f[j]
+						f[j] = 0
+						term := monomial.Monomial(vars, f, c)
+						for range k {
+							term = term.Mul(num)
+						}
+						for range e - k {
+							term = term.Mul(den)
+						}
+						out = out.Add(term)
+					}
+					polys[i] = out
+				}
+			}
+			var got []string
+			for i, q := range polys {
+				if alive[i] {
+					got = append(got, q.String())
+				}
+			}
+			if !slices.Equal(got, red.K) {
+				t.Errorf("replayed %q, recorded %q", got, red.K)
+			}
+		})
 	}
 }

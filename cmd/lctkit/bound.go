@@ -513,6 +513,9 @@ func allZero(xs []*big.Rat) bool {
 	return true
 }
 
+// maxCoreText is the longest list of core generators printed as text.
+const maxCoreText = 2000
+
 // writeReduction prints an answer found through a reduction: the change of
 // coordinates, the core's details, and the value without the reduction.
 func writeReduction(w io.Writer, r *rlct.Result, indent string) {
@@ -526,6 +529,16 @@ func writeReduction(w io.Writer, r *rlct.Result, indent string) {
 		how = "solved generators " + strings.Join(gs, ", ") + " for " + strings.Join(red.Solved, ", ")
 	}
 	fmt.Fprintf(w, "%sreduction: %s; they contribute %d/2 to λ: %s\n", indent, how, red.Rank, strings.Join(red.Solution, "; "))
+	if len(red.Eliminations) > 0 {
+		fmt.Fprintf(w, "%ssolved exactly, one at a time, each in the coordinates left by the ones before; the other generators were multiplied by the power of the denominator (a unit at the point) that clears it\n", indent)
+		if core := strings.Join(red.K, "; "); len(red.K) == 0 {
+			fmt.Fprintf(w, "%score generators: none (every generator was solved)\n", indent)
+		} else if len(core) <= maxCoreText {
+			fmt.Fprintf(w, "%score generators: %s\n", indent, core)
+		} else {
+			fmt.Fprintf(w, "%score generators: %d polynomials (listed by --json)\n", indent, len(red.K))
+		}
+	}
 	if len(red.Free) > 0 {
 		fmt.Fprintf(w, "%sfree directions (contribute 0): %s\n", indent, strings.Join(red.Free, ", "))
 	}
