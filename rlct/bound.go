@@ -62,6 +62,11 @@ type Options struct {
 	// coordinates (see Repair): with NoReduction as well, the answer is
 	// the Newton value of K itself.
 	NoRepair bool
+
+	// AfterChanges makes Describe write out the polyhedron of the problem
+	// after the last change of coordinates (see Description.After)
+	// instead of that of K itself. Bound ignores it.
+	AfterChanges bool
 }
 
 func (o *Options) maxFaces() int {

@@ -33,6 +33,18 @@ type Description struct {
 	// Hit is t_τ·τ, the point where the ray from the origin along τ meets
 	// P(K); it lies in the relative interior of the principal face.
 	Hit []*big.Rat `json:"hit_point"`
+	// After is set by Describe with Options.AfterChanges when the answer
+	// for K came through a change of coordinates whose last problem has a
+	// polyhedron: "reduction" (the core after the reduction, in its own
+	// variables) or "repair" (K after the repair's last step). Result is
+	// then the answer for that problem, and Whole the answer for K.
+	After string `json:"after,omitempty"`
+	// Whole is set with Options.AfterChanges whenever the answer for K
+	// came through a change of coordinates: that answer, whose Changes,
+	// Reduction and Repair list the steps. When After is empty (the core
+	// after the reduction is 0, so it has no polyhedron) the polyhedron is
+	// that of K itself and Result its Newton value.
+	Whole *Result `json:"whole,omitempty"`
 }
 
 // Vertex is a vertex of P(K) with the term of K there.
@@ -73,34 +85,66 @@ type Facet struct {
 }
 
 // Describe bounds p at each of its points, as Bound does with
-// Options.AllFaces and Options.NoReduction set (every compact face of the
-// polyhedron of K itself is decided and listed), and
+// Options.AllFaces, Options.NoReduction and Options.NoRepair set (every
+// compact face of the polyhedron of K itself is decided and listed), and
 // describes the Newton polyhedron each answer comes from: one Description
 // per point, in the order of Problem.Points (one for the origin when there
-// are none). It returns the errors of Bound, and an error wrapping
-// polyhedron.ErrTooLarge when the facets cannot be enumerated within
-// opt.Limits; with several points the error names the point.
+// are none). With Options.AfterChanges it bounds p as Bound does (with
+// AllFaces) and, where the answer came through a change of coordinates,
+// describes the problem after the last change instead (Description.After,
+// Description.Whole). It returns the errors of Bound, and an error
+// wrapping polyhedron.ErrTooLarge when the facets cannot be enumerated
+// within opt.Limits; with several points the error names the point.
 func Describe(ctx context.Context, p *Problem, opt *Options) ([]*Description, error) {
 	o := Options{}
 	if opt != nil {
 		o = *opt
 	}
 	o.AllFaces = true
-	o.NoReduction = true // the answer the polyhedron gives, that of K itself
-	o.NoRepair = true
-	results, locals, err := boundEach(ctx, p, &o)
+	plainOpt := o
+	plainOpt.NoReduction = true // the answer the polyhedron gives, that of K itself
+	plainOpt.NoRepair = true
+	results, locals, err := boundEach(ctx, p, &plainOpt)
 	if err != nil {
 		return nil, err
 	}
+	var changed []*Result
+	if o.AfterChanges {
+		if changed, _, err = boundEach(ctx, p, &o); err != nil {
+			return nil, err
+		}
+	}
 	out := make([]*Description, len(results))
 	for k, res := range results {
-		d, err := describe(ctx, res, locals[k])
+		l, after := locals[k], ""
+		var whole *Result
+		if changed != nil && (changed[k].Reduction != nil || changed[k].Repair != nil) {
+			whole = changed[k]
+			if final, what := lastProblem(whole); final != nil {
+				res, l, after = final, final.local, what
+			}
+		}
+		d, err := describe(ctx, res, l)
 		if err != nil {
 			return nil, atPoint(k, len(results), err)
 		}
+		d.After, d.Whole = after, whole
 		out[k] = d
 	}
 	return out, nil
+}
+
+// lastProblem returns the answer for the problem after the last change of
+// coordinates behind r, with its polyhedron, and which change it follows;
+// nil when there is none with a polyhedron.
+func lastProblem(r *Result) (*Result, string) {
+	switch {
+	case r.Repair != nil && r.Repair.final != nil && r.Repair.final.local != nil:
+		return r.Repair.final, "repair"
+	case r.Reduction != nil && r.Reduction.Core != nil && r.Reduction.Core.local != nil:
+		return r.Reduction.Core, "reduction"
+	}
+	return nil, ""
 }
 
 // describe writes out the polyhedron of res, the answer for l.

@@ -15,6 +15,8 @@ type drawCmd struct {
 	Expr string `arg:"" optional:"" help:"K(w), an expression vanishing at the point; - reads it from standard input. Without it the bundled example is drawn."`
 	problemFlags
 	Output string `short:"o" required:"" help:"The SVG file to write; - writes to standard output." placeholder:"FILE.svg"`
+
+	AfterChanges bool `name:"after-changes" help:"Draw the polyhedron after the last change of coordinates (the core after the reduction, or K after the repair) when the answer came through one."`
 }
 
 // Help is shown under the command's usage.
@@ -25,12 +27,16 @@ its vertices labelled with the monomials of K, the ray from the origin along
 τ with the point t_τ·τ where it meets P(K), the principal face drawn thick,
 degenerate faces dotted, and a caption with λ, θ and whether the value is
 exact or an upper bound. Three variables are drawn in a fixed oblique
-projection. For more variables use lctkit faces.
+projection. For more variables use lctkit faces. With --after-changes, when the
+answer came through a change of coordinates, the polyhedron drawn is that of
+the problem after the last change (the core after the reduction, or K after
+the repair), and the caption gives that problem's λ and θ.
 
 Examples:
   lctkit draw 'x^4 + y^6' -o x4y6.svg
   lctkit draw '(y - x^2)^2' -o degenerate.svg
-  lctkit draw 'x^2*y^2 + z^2' -o space.svg`
+  lctkit draw 'x^2*y^2 + z^2' -o space.svg
+  lctkit draw '(y - x^2)^2' --after-changes -o repaired.svg`
 }
 
 // Run computes the polyhedron and writes the picture.
@@ -55,11 +61,23 @@ func (c *drawCmd) Run(e *env) error {
 		return fmt.Errorf("draw supports %d or %d variables, and K has %d (%s)%s; lctkit faces lists the Newton polyhedron in any dimension",
 			picture.MinVars, picture.MaxVars, n, strings.Join(vars, ", "), hint)
 	}
-	ds, err := rlct.Describe(context.Background(), p, c.options())
+	opt := c.options()
+	opt.AfterChanges = c.AfterChanges
+	ds, err := rlct.Describe(context.Background(), p, opt)
 	if err != nil {
 		return err
 	}
-	svg, err := picture.SVG(ds[0], pictureTitle(s))
+	title := pictureTitle(s)
+	if d := ds[0]; d.After != "" {
+		if n := len(d.Vars); n < picture.MinVars || n > picture.MaxVars {
+			return fmt.Errorf("after the %s the problem has %d variables (%s), and draw supports %d or %d; lctkit faces --after-changes lists its polyhedron",
+				d.After, n, strings.Join(d.Vars, ", "), picture.MinVars, picture.MaxVars)
+		}
+		title = afterTitle(d) + " of " + title
+	} else if d.Whole != nil {
+		title += " (after the reduction the core is 0; K itself is drawn)"
+	}
+	svg, err := picture.SVG(ds[0], title)
 	if err != nil {
 		return err
 	}
@@ -71,6 +89,14 @@ func (c *drawCmd) Run(e *env) error {
 		return fmt.Errorf("writing the picture: %w", err)
 	}
 	return nil
+}
+
+// afterTitle names the problem a description with After set is that of.
+func afterTitle(d *rlct.Description) string {
+	if d.After == "reduction" {
+		return "the core after the reduction"
+	}
+	return "K after the repair"
 }
 
 // pictureTitle names K the way the user wrote it.

@@ -113,3 +113,20 @@ func TestDrawErrors(t *testing.T) {
 		t.Errorf("a failed draw wrote %s", out)
 	}
 }
+
+// TestDrawAfterChanges: draw --after-changes draws K after the repair
+// (two variables) and refuses a core in one variable with a pointer to
+// faces.
+func TestDrawAfterChanges(t *testing.T) {
+	out, errOut, code := runCLI(t, "", "draw", "y^2*(x-y)^2 + x^6", "--after-changes", "-o", "-")
+	if code != exitOK {
+		t.Fatalf("exit %d: %s", code, errOut)
+	}
+	if !strings.Contains(out, "K after the repair of K") || !strings.Contains(out, "<svg") {
+		t.Errorf("no repaired picture:\n%.400s", out)
+	}
+	_, errOut, code = runCLI(t, "", "draw", "(x-y)^2 + z^4", "--after-changes", "-o", "-")
+	if code == exitOK || !strings.Contains(errOut, "faces --after-changes") {
+		t.Errorf("exit %d, stderr %q; want an error pointing at faces --after-changes", code, errOut)
+	}
+}

@@ -16,6 +16,8 @@ type facesCmd struct {
 	Expr string `arg:"" optional:"" help:"K(w), an expression vanishing at the point; - reads it from standard input. Without it the bundled example is described."`
 	problemFlags
 	jsonFlag
+
+	AfterChanges bool `name:"after-changes" help:"Describe the polyhedron after the last change of coordinates (the core after the reduction, or K after the repair) when the answer came through one."`
 }
 
 // Help is shown under the command's usage.
@@ -28,10 +30,19 @@ is marked with *. Exponents are those of K, so in sum-of-squares form they are
 twice those of the generators. With several --at points each is described in
 turn; --json then prints an object whose "locals" holds one entry per point.
 
+With --after-changes, when the answer came through a change of coordinates
+(the splitting off of regular directions, or the repair of degenerate edges),
+the steps are listed first and the polyhedron described is that of the problem
+after the last one: the core after the reduction (in its own variables; λ of K
+is r/2 more) or K after the repair's last step. In JSON, "after" names it and
+"whole" holds the answer for K with its steps ("changes", "reduction",
+"repair").
+
 Examples:
   lctkit faces 'x^4 + y^6'
   lctkit faces '(y - x^2)^2'                  # a degenerate edge, with a witness
-  lctkit faces --sos 'a*b; a*c' --prior a=1 --json`
+  lctkit faces --sos 'a*b; a*c' --prior a=1 --json
+  lctkit faces '(x-y)^2 + z^4' --after-changes`
 }
 
 // Run describes the polyhedron at each point.
@@ -40,7 +51,9 @@ func (c *facesCmd) Run(e *env) error {
 	if err != nil {
 		return err
 	}
-	descs, err := describe(s, c.options(), e)
+	opt := c.options()
+	opt.AfterChanges = c.AfterChanges
+	descs, err := describe(s, opt, e)
 	if err != nil {
 		return err
 	}
@@ -100,6 +113,17 @@ func writeFaces(out io.Writer, d *rlct.Description) {
 }
 
 func writeFacesTo(w io.Writer, d *rlct.Description) {
+	if wh := d.Whole; wh != nil {
+		fmt.Fprintf(w, "answer for K: λ = %s   θ = %d   (%s)\n", wh.Lambda.RatString(), wh.Theta, statusWord(wh.Status))
+		for _, c := range wh.Changes {
+			fmt.Fprintf(w, "  %s\n", c)
+		}
+		if d.After == "" {
+			fmt.Fprint(w, "after the changes nothing is left to describe (the core is 0); below is the polyhedron of K itself\n\n")
+		} else {
+			fmt.Fprintf(w, "below: %s, in (%s)\n\n", afterTitle(d), strings.Join(d.Vars, ", "))
+		}
+	}
 	status := statusWord(d.Status)
 	where := "at the origin"
 	if !allZero(d.Point) {

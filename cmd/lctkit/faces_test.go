@@ -169,3 +169,112 @@ func TestFacesJSON(t *testing.T) {
 		t.Errorf("exit %d, output %s", code, out)
 	}
 }
+
+// TestFacesAfterChanges: faces --after-changes describes the problem after
+// the last change of coordinates and lists the answer for K with its steps.
+// Values by hand: (x−y)² + z⁴ has the core z⁴ after u = x − y (λ = 1/4,
+// and 1/2 + 1/4 for K); y²(x−y)² + x⁶ becomes y²x² + (x+y)⁶ after
+// x → x + y, whose ray along (1, 1) meets the vertex (2, 2): λ = 1/2,
+// θ = 2; (x−y)² reduces to a core 0, so K itself is described, with its
+// Newton value 1 (the ray meets the edge x + y = 2 at t = 1) beside the
+// answer 1/2 for K.
+func TestFacesAfterChanges(t *testing.T) {
+	for _, tc := range []struct {
+		expr          string
+		after         string
+		vars          string
+		lambda        string
+		theta         int
+		whole, wholeS string // λ and status of the answer for K, "" when no change
+	}{
+		{"(x-y)^2 + z^4", "reduction", "z", "1/4", 1, "3/4", "exact"},
+		{"y^2*(x-y)^2 + x^6", "repair", "y,x", "1/2", 2, "1/2", "exact"},
+		{"(x-y)^2", "", "x,y", "1", 1, "1/2", "exact"},
+		{"x^4 + y^6", "", "x,y", "5/12", 1, "", ""},
+	} {
+		t.Run(tc.expr, func(t *testing.T) {
+			out, errOut, code := runCLI(t, "", "faces", tc.expr, "--after-changes", "--json")
+			if code != exitOK {
+				t.Fatalf("exit %d: %s", code, errOut)
+			}
+			var d struct {
+				After  string   `json:"after"`
+				Vars   []string `json:"variables"`
+				Lambda string   `json:"lambda"`
+				Theta  int      `json:"theta"`
+				Whole  *struct {
+					Lambda  string   `json:"lambda"`
+					Status  string   `json:"status"`
+					Changes []string `json:"changes"`
+				} `json:"whole"`
+			}
+			if err := json.Unmarshal([]byte(out), &d); err != nil {
+				t.Fatalf("%v\n%s", err, out)
+			}
+			if d.After != tc.after || strings.Join(d.Vars, ",") != tc.vars || d.Lambda != tc.lambda || d.Theta != tc.theta {
+				t.Errorf("after %q in %v: λ %s θ %d, want %q in %s: λ %s θ %d", d.After, d.Vars, d.Lambda, d.Theta, tc.after, tc.vars, tc.lambda, tc.theta)
+			}
+			switch {
+			case tc.whole == "" && d.Whole != nil:
+				t.Errorf("whole %+v, want none", d.Whole)
+			case tc.whole != "" && d.Whole == nil:
+				t.Errorf("no whole answer")
+			case tc.whole != "" && (d.Whole.Lambda != tc.whole || d.Whole.Status != tc.wholeS || len(d.Whole.Changes) == 0):
+				t.Errorf("whole %+v, want λ %s (%s) with changes", d.Whole, tc.whole, tc.wholeS)
+			}
+			text, _, _ := runCLI(t, "", "faces", tc.expr, "--after-changes")
+			if tc.whole != "" && !strings.HasPrefix(text, "answer for K: λ = "+tc.whole) {
+				t.Errorf("text does not start with the answer for K:\n%s", text)
+			}
+		})
+	}
+}
+
+// TestNoChangeFlags: --no-reduce gives the Newton value of K itself;
+// --no-repair keeps the reduction and turns off the repair. Values by
+// hand: (x−y)² + z⁴ has the Newton value 5/4 (the ray along (1,1,1) meets
+// the face through (2,0,0), (0,2,0), (0,0,4) at t = 4/5; the edge
+// (x − y)² is degenerate, so an upper bound) and 3/4 after u = x − y;
+// y²(x−y)² + x⁶ has no quadratic part to split off and needs the repair
+// (x → x + y) for its exact 1/2, θ = 2; without it the Newton value is the
+// same pair, only an upper bound (the edge y²(y − x)² is degenerate).
+func TestNoChangeFlags(t *testing.T) {
+	for _, tc := range []struct {
+		expr, flag      string
+		lambda          string
+		theta           int
+		status          string
+		reduced, repair bool
+	}{
+		{"(x-y)^2 + z^4", "--no-reduce", "5/4", 1, "upper-bound", false, false},
+		{"(x-y)^2 + z^4", "--no-repair", "3/4", 1, "exact", true, false},
+		{"y^2*(x-y)^2 + x^6", "--no-repair", "1/2", 2, "upper-bound", false, false},
+		{"y^2*(x-y)^2 + x^6", "--no-reduce", "1/2", 2, "upper-bound", false, false},
+		{"y^2*(x-y)^2 + x^6", "", "1/2", 2, "exact", false, true},
+	} {
+		t.Run(tc.expr+" "+tc.flag, func(t *testing.T) {
+			args := []string{"bound", tc.expr, "--json"}
+			if tc.flag != "" {
+				args = append(args, tc.flag)
+			}
+			out, errOut, code := runCLI(t, "", args...)
+			if code != exitOK {
+				t.Fatalf("exit %d: %s", code, errOut)
+			}
+			var r struct {
+				Lambda    string `json:"lambda"`
+				Theta     int    `json:"theta"`
+				Status    string `json:"status"`
+				Reduction any    `json:"reduction"`
+				Repair    any    `json:"repair"`
+			}
+			if err := json.Unmarshal([]byte(out), &r); err != nil {
+				t.Fatalf("%v\n%s", err, out)
+			}
+			if r.Lambda != tc.lambda || r.Theta != tc.theta || r.Status != tc.status || (r.Reduction != nil) != tc.reduced || (r.Repair != nil) != tc.repair {
+				t.Errorf("λ %s θ %d %s reduced %v repaired %v, want λ %s θ %d %s reduced %v repaired %v",
+					r.Lambda, r.Theta, r.Status, r.Reduction != nil, r.Repair != nil, tc.lambda, tc.theta, tc.status, tc.reduced, tc.repair)
+			}
+		})
+	}
+}
