@@ -12,6 +12,7 @@ import (
 	"strings"
 	"unicode/utf8"
 
+	"github.com/lctkit/lctkit/internal/svg"
 	"github.com/lctkit/lctkit/monomial"
 	"github.com/lctkit/lctkit/rlct"
 	"github.com/lctkit/lctkit/rlct/model"
@@ -346,7 +347,7 @@ func writeChoose(w io.Writer, r *sbic.Result, computed []sbic.Computed) {
 		p := pairs[ps.Pair]
 		fmt.Fprintf(w, "  %s (%s, λ = %s, θ = %d):\n", names[ps.Pair], statusWord(p.Status), p.Lambda.RatString(), p.Theta)
 		if note := rlct.PenaltyNote(p.Status); note != "" {
-			for _, l := range wrap(note, 100) {
+			for _, l := range svg.Wrap(note, 100) {
 				fmt.Fprintf(w, "    %s\n", l)
 			}
 		}
@@ -390,12 +391,12 @@ const (
 // status of a score by the fill of its marker (filled, hollow, hollow with
 // a cross).
 const (
-	sbicLine   = `stroke="` + colorVermillion + `" stroke-width="2.2"`
-	bicLine    = `stroke="` + colorBlue + `" stroke-width="2" stroke-dasharray="7 4"`
-	sbicFilled = `fill="` + colorVermillion + `" stroke="` + colorVermillion + `" stroke-width="1.8"`
-	sbicHollow = `fill="#FFFFFF" stroke="` + colorVermillion + `" stroke-width="2"`
-	bicMarker  = `fill="` + colorBlue + `" stroke="#FFFFFF" stroke-width="1"`
-	choiceRing = `fill="none" stroke="` + colorBlack + `" stroke-width="1.5"`
+	sbicLine   = `stroke="` + svg.ColorVermillion + `" stroke-width="2.2"`
+	bicLine    = `stroke="` + svg.ColorBlue + `" stroke-width="2" stroke-dasharray="7 4"`
+	sbicFilled = `fill="` + svg.ColorVermillion + `" stroke="` + svg.ColorVermillion + `" stroke-width="1.8"`
+	sbicHollow = `fill="#FFFFFF" stroke="` + svg.ColorVermillion + `" stroke-width="2"`
+	bicMarker  = `fill="` + svg.ColorBlue + `" stroke="#FFFFFF" stroke-width="1"`
+	choiceRing = `fill="none" stroke="` + svg.ColorBlack + `" stroke-width="1.5"`
 )
 
 // plotDepth returns how far below the best score the plot reaches, given
@@ -465,69 +466,69 @@ func choosePlot(r *sbic.Result) string {
 	legend = append(legend, legendItem{"choice", "the model each criterion chooses"})
 	legendTop := chooseBottom + 88
 	captionTop := legendTop + float64(len(legend))*legendRow + 14
-	caption := wrap(fmt.Sprintf("n = %g. Scores are float64 evaluations of log marginal-likelihood approximations, drawn in nats below the best score (%.4f). sBIC chooses %s, BIC chooses %s.",
+	caption := svg.Wrap(fmt.Sprintf("n = %g. Scores are float64 evaluations of log marginal-likelihood approximations, drawn in nats below the best score (%.4f). sBIC chooses %s, BIC chooses %s.",
 		r.N, best, r.Models[r.SBIC.Model].Name, r.Models[r.BIC.Model].Name), 86)
 	if hasBound || hasNotBound {
-		caption = append(caption, wrap("A hollow marker is a score that rests on a pair that is not exact: see the text output for how the choice moves when such a pair is replaced.", 86)...)
+		caption = append(caption, svg.Wrap("A hollow marker is a score that rests on a pair that is not exact: see the text output for how the choice moves when such a pair is replaced.", 86)...)
 	}
 	height := captionTop + float64(len(caption))*captionLine + 8
 
-	var s svgDoc
-	s.printf(`<svg xmlns="http://www.w3.org/2000/svg" width="%d" height="%s" viewBox="0 0 %d %s" font-family="%s">`+"\n",
-		choosePlotWidth, num(height), choosePlotWidth, num(height), fontFamily)
-	s.printf("<title>%s</title>\n", esc("sBIC and BIC of the candidate models, n = "+strconv.FormatFloat(r.N, 'g', -1, 64)))
-	s.printf(`<rect width="100%%" height="100%%" fill="#FFFFFF"/>` + "\n")
-	s.text(point{choosePlotWidth / 2, 28}, `class="title" text-anchor="middle" font-size="17" font-weight="bold"`, "Singular BIC and BIC of the candidates")
-	s.text(point{choosePlotWidth / 2, 50}, `class="subtitle" text-anchor="middle" font-size="13" fill="`+colorMuted+`"`,
+	var s svg.Doc
+	s.Printf(`<svg xmlns="http://www.w3.org/2000/svg" width="%d" height="%s" viewBox="0 0 %d %s" font-family="%s">`+"\n",
+		choosePlotWidth, svg.Num(height), choosePlotWidth, svg.Num(height), svg.FontFamily)
+	s.Printf("<title>%s</title>\n", svg.Esc("sBIC and BIC of the candidate models, n = "+strconv.FormatFloat(r.N, 'g', -1, 64)))
+	s.Printf(`<rect width="100%%" height="100%%" fill="#FFFFFF"/>` + "\n")
+	s.Text(point{X: choosePlotWidth / 2, Y: 28}, `class="title" text-anchor="middle" font-size="17" font-weight="bold"`, "Singular BIC and BIC of the candidates")
+	s.Text(point{X: choosePlotWidth / 2, Y: 50}, `class="subtitle" text-anchor="middle" font-size="13" fill="`+svg.ColorMuted+`"`,
 		fmt.Sprintf("n = %g · float64 evaluations · higher is better", r.N))
 
 	// Grid, frame and axes.
 	ystep := tickStep(yhi-ylo, 7)
-	s.printf(`<g class="grid" stroke="%s" stroke-width="1">`+"\n", colorGrid)
+	s.Printf(`<g class="grid" stroke="%s" stroke-width="1">`+"\n", svg.ColorGrid)
 	var yticks []float64
 	for v := math.Ceil(ylo/ystep) * ystep; v <= yhi+1e-12; v += ystep {
 		yticks = append(yticks, v)
-		s.line(point{chooseLeft, py(v)}, point{chooseRight, py(v)}, "")
+		s.Line(point{X: chooseLeft, Y: py(v)}, point{X: chooseRight, Y: py(v)}, "")
 	}
-	s.printf("</g>\n")
-	s.printf(`<rect class="frame" x="%s" y="%s" width="%s" height="%s" fill="none" stroke="%s" stroke-width="1.2"/>`+"\n",
-		num(chooseLeft), num(chooseTop), num(chooseRight-chooseLeft), num(chooseBottom-chooseTop), colorBlack)
+	s.Printf("</g>\n")
+	s.Printf(`<rect class="frame" x="%s" y="%s" width="%s" height="%s" fill="none" stroke="%s" stroke-width="1.2"/>`+"\n",
+		svg.Num(chooseLeft), svg.Num(chooseTop), svg.Num(chooseRight-chooseLeft), svg.Num(chooseBottom-chooseTop), svg.ColorBlack)
 	yDec := max(0, -int(math.Floor(math.Log10(ystep)+1e-9)))
-	s.printf(`<g class="ticks" font-size="13">` + "\n")
+	s.Printf(`<g class="ticks" font-size="13">` + "\n")
 	for _, v := range yticks {
 		label := strconv.FormatFloat(v, 'f', yDec, 64)
 		if strings.Trim(label, "-0.") == "" {
 			label = strconv.FormatFloat(0, 'f', yDec, 64)
 		}
-		s.text(point{chooseLeft - 8, py(v) + 4.5}, `class="y-tick" text-anchor="end"`, strings.Replace(label, "-", "−", 1))
+		s.Text(point{X: chooseLeft - 8, Y: py(v) + 4.5}, `class="y-tick" text-anchor="end"`, strings.Replace(label, "-", "−", 1))
 	}
 	for k, i := range topo {
 		m := r.Models[i]
-		s.text(point{px(k), chooseBottom + 20}, `class="x-tick" text-anchor="middle"`, shorten(m.Name, int(step/8)))
-		s.text(point{px(k), chooseBottom + 37}, `class="x-tick-dim" text-anchor="middle" font-size="12" fill="`+colorMuted+`"`, fmt.Sprintf("d = %d", m.Dim))
+		s.Text(point{X: px(k), Y: chooseBottom + 20}, `class="x-tick" text-anchor="middle"`, svg.Shorten(m.Name, int(step/8)))
+		s.Text(point{X: px(k), Y: chooseBottom + 37}, `class="x-tick-dim" text-anchor="middle" font-size="12" fill="`+svg.ColorMuted+`"`, fmt.Sprintf("d = %d", m.Dim))
 	}
-	s.printf("</g>\n")
-	s.text(point{(chooseLeft + chooseRight) / 2, chooseBottom + 56}, `class="x-axis-label" text-anchor="middle" font-size="14"`,
+	s.Printf("</g>\n")
+	s.Text(point{X: (chooseLeft + chooseRight) / 2, Y: chooseBottom + 56}, `class="x-axis-label" text-anchor="middle" font-size="14"`,
 		"candidate models (each after its submodels)")
-	s.text(point{24, (chooseTop + chooseBottom) / 2},
-		fmt.Sprintf(`class="y-axis-label" text-anchor="middle" font-size="14" transform="rotate(-90 24 %s)"`, num((chooseTop+chooseBottom)/2)),
+	s.Text(point{X: 24, Y: (chooseTop + chooseBottom) / 2},
+		fmt.Sprintf(`class="y-axis-label" text-anchor="middle" font-size="14" transform="rotate(-90 24 %s)"`, svg.Num((chooseTop+chooseBottom)/2)),
 		"score − best score (nats)")
 
 	// The two series: lines, then markers.
 	var bicPts, sbicPts []point
 	for k, i := range topo {
-		bicPts = append(bicPts, point{px(k), place(r.Models[i].BIC - best)})
-		sbicPts = append(sbicPts, point{px(k), place(r.Models[i].SBIC - best)})
+		bicPts = append(bicPts, point{X: px(k), Y: place(r.Models[i].BIC - best)})
+		sbicPts = append(sbicPts, point{X: px(k), Y: place(r.Models[i].SBIC - best)})
 	}
 	if len(topo) > 1 {
-		s.polyline(bicPts, `class="bic-line" `+bicLine)
-		s.polyline(sbicPts, `class="sbic-line" `+sbicLine)
+		s.Polyline(bicPts, `class="bic-line" `+bicLine)
+		s.Polyline(sbicPts, `class="sbic-line" `+sbicLine)
 	}
 	for k, i := range topo {
 		m := r.Models[i]
 		off := 7.0 // the two markers of a model side by side
-		b := point{bicPts[k].x + off, bicPts[k].y}
-		sb := point{sbicPts[k].x - off, sbicPts[k].y}
+		b := point{X: bicPts[k].X + off, Y: bicPts[k].Y}
+		sb := point{X: sbicPts[k].X - off, Y: sbicPts[k].Y}
 		chooseMarker(&s, "bic", b, clipped(m.BIC-best))
 		kind := "sbic"
 		switch m.Status {
@@ -538,44 +539,44 @@ func choosePlot(r *sbic.Result) string {
 		}
 		chooseMarker(&s, kind, sb, clipped(m.SBIC-best))
 		if clipped(m.BIC - best) {
-			s.text(point{b.x + 8, b.y - 8}, `class="clipped-label" font-size="11" fill="`+colorBlue+`" `+halo, fmt.Sprintf("%.1f", m.BIC-best))
+			s.Text(point{X: b.X + 8, Y: b.Y - 8}, `class="clipped-label" font-size="11" fill="`+svg.ColorBlue+`" `+svg.Halo, fmt.Sprintf("%.1f", m.BIC-best))
 		}
 		if clipped(m.SBIC - best) {
-			s.text(point{sb.x - 8, sb.y - 8}, `class="clipped-label" text-anchor="end" font-size="11" fill="`+colorVermillion+`" `+halo, fmt.Sprintf("%.1f", m.SBIC-best))
+			s.Text(point{X: sb.X - 8, Y: sb.Y - 8}, `class="clipped-label" text-anchor="end" font-size="11" fill="`+svg.ColorVermillion+`" `+svg.Halo, fmt.Sprintf("%.1f", m.SBIC-best))
 		}
 		// The rings, labelled outwards: sBIC to the left, BIC to the right.
 		if i == r.SBIC.Model {
-			s.circle(sb, 10, `class="choice-sbic" `+choiceRing)
-			s.text(point{sb.x - 13, sb.y - 8}, `class="choice-label" text-anchor="end" font-size="12" `+halo, "sBIC")
+			s.Circle(sb, 10, `class="choice-sbic" `+choiceRing)
+			s.Text(point{X: sb.X - 13, Y: sb.Y - 8}, `class="choice-label" text-anchor="end" font-size="12" `+svg.Halo, "sBIC")
 		}
 		if i == r.BIC.Model {
-			s.circle(b, 10, `class="choice-bic" `+choiceRing)
-			s.text(point{b.x + 13, b.y - 8}, `class="choice-label" font-size="12" `+halo, "BIC")
+			s.Circle(b, 10, `class="choice-bic" `+choiceRing)
+			s.Text(point{X: b.X + 13, Y: b.Y - 8}, `class="choice-label" font-size="12" `+svg.Halo, "BIC")
 		}
 	}
 
 	// Legend and caption.
-	s.printf(`<g class="legend" font-size="13">` + "\n")
+	s.Printf(`<g class="legend" font-size="13">` + "\n")
 	for n, it := range legend {
 		x := 24.0
 		ly := legendTop + float64(n)*legendRow
-		chooseSwatch(&s, it.kind, point{x, ly - 4.5})
-		s.text(point{x + 44, ly}, `class="legend-label"`, it.label)
+		chooseSwatch(&s, it.kind, point{X: x, Y: ly - 4.5})
+		s.Text(point{X: x + 44, Y: ly}, `class="legend-label"`, it.label)
 	}
-	s.printf("</g>\n")
-	s.printf(`<g class="caption" font-size="13">` + "\n")
+	s.Printf("</g>\n")
+	s.Printf(`<g class="caption" font-size="13">` + "\n")
 	for n, l := range caption {
-		s.text(point{24, captionTop + float64(n)*captionLine}, `class="caption-text"`, l)
+		s.Text(point{X: 24, Y: captionTop + float64(n)*captionLine}, `class="caption-text"`, l)
 	}
-	s.printf("</g>\n</svg>\n")
-	return s.b.String()
+	s.Printf("</g>\n</svg>\n")
+	return s.String()
 }
 
 // chooseMarker draws the marker of a score: a square for the BIC, a circle
 // for the sBIC (filled when it rests on exact pairs only, hollow on a bound,
 // hollow with a cross on a value that is not a bound), a downward triangle
 // when the score lies below the plotted range.
-func chooseMarker(s *svgDoc, kind string, c point, clipped bool) {
+func chooseMarker(s *svg.Doc, kind string, c point, clipped bool) {
 	style := bicMarker
 	if kind != "bic" {
 		style = sbicFilled
@@ -585,33 +586,33 @@ func chooseMarker(s *svgDoc, kind string, c point, clipped bool) {
 	}
 	switch {
 	case clipped:
-		s.printf(`<polygon points="%s" class="marker-%s-clipped" %s/>`+"\n", pointList([]point{{c.x - 6, c.y - 5}, {c.x + 6, c.y - 5}, {c.x, c.y + 5}}), kind, style)
+		s.Printf(`<polygon points="%s" class="marker-%s-clipped" %s/>`+"\n", svg.PointList([]point{{X: c.X - 6, Y: c.Y - 5}, {X: c.X + 6, Y: c.Y - 5}, {X: c.X, Y: c.Y + 5}}), kind, style)
 	case kind == "bic":
-		s.printf(`<rect class="marker-bic" x="%s" y="%s" width="9" height="9" %s/>`+"\n", num(c.x-4.5), num(c.y-4.5), style)
+		s.Printf(`<rect class="marker-bic" x="%s" y="%s" width="9" height="9" %s/>`+"\n", svg.Num(c.X-4.5), svg.Num(c.Y-4.5), style)
 	default:
-		s.circle(c, 5, `class="marker-`+kind+`" `+style)
+		s.Circle(c, 5, `class="marker-`+kind+`" `+style)
 	}
 	if kind == "sbic-notbound" && !clipped {
-		s.line(point{c.x - 3, c.y - 3}, point{c.x + 3, c.y + 3}, `stroke="`+colorVermillion+`" stroke-width="1.6"`)
-		s.line(point{c.x - 3, c.y + 3}, point{c.x + 3, c.y - 3}, `stroke="`+colorVermillion+`" stroke-width="1.6"`)
+		s.Line(point{X: c.X - 3, Y: c.Y - 3}, point{X: c.X + 3, Y: c.Y + 3}, `stroke="`+svg.ColorVermillion+`" stroke-width="1.6"`)
+		s.Line(point{X: c.X - 3, Y: c.Y + 3}, point{X: c.X + 3, Y: c.Y - 3}, `stroke="`+svg.ColorVermillion+`" stroke-width="1.6"`)
 	}
 }
 
 // chooseSwatch draws the sample of a legend entry, 36 px wide, centred
-// vertically at c.y.
-func chooseSwatch(s *svgDoc, kind string, c point) {
-	a, b, m := point{c.x, c.y}, point{c.x + 36, c.y}, point{c.x + 18, c.y}
+// vertically at c.Y.
+func chooseSwatch(s *svg.Doc, kind string, c point) {
+	a, b, m := point{X: c.X, Y: c.Y}, point{X: c.X + 36, Y: c.Y}, point{X: c.X + 18, Y: c.Y}
 	switch kind {
 	case "sbic", "sbic-bound", "sbic-notbound":
-		s.line(a, b, sbicLine)
+		s.Line(a, b, sbicLine)
 		chooseMarker(s, kind, m, false)
 	case "bic":
-		s.line(a, b, bicLine)
+		s.Line(a, b, bicLine)
 		chooseMarker(s, kind, m, false)
 	case "clipped":
 		chooseMarker(s, "sbic", m, true)
 	case "choice":
-		s.circle(m, 5, sbicFilled)
-		s.circle(m, 10, choiceRing)
+		s.Circle(m, 5, sbicFilled)
+		s.Circle(m, 10, choiceRing)
 	}
 }

@@ -8,6 +8,7 @@ import (
 	"strconv"
 	"strings"
 
+	"github.com/lctkit/lctkit/internal/svg"
 	"github.com/lctkit/lctkit/rlct"
 	"github.com/lctkit/lctkit/rlct/estimate"
 )
@@ -155,7 +156,7 @@ func (r *estimateResult) writeText(w io.Writer) {
 	}
 	e := r.est
 	fmt.Fprintln(w, "Numerical ESTIMATE by nested sampling, not a proof.")
-	for _, l := range wrap(estimateCaution, 78) {
+	for _, l := range svg.Wrap(estimateCaution, 78) {
 		fmt.Fprintln(w, "  "+l)
 	}
 	fmt.Fprintln(w)
@@ -188,7 +189,7 @@ func (r *estimateResult) writeText(w io.Writer) {
 	}
 	fmt.Fprintf(w, "verdict: %s\n", r.verdictText())
 	for _, n := range r.notes() {
-		for i, l := range wrap("note: "+n, 78) {
+		for i, l := range svg.Wrap("note: "+n, 78) {
 			if i > 0 {
 				l = "  " + l
 			}

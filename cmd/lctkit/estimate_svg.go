@@ -5,6 +5,8 @@ import (
 	"math"
 	"strconv"
 	"strings"
+
+	"github.com/lctkit/lctkit/internal/svg"
 )
 
 // Layout of the estimate plot, in pixels: 600 px wide, the plot under the
@@ -20,12 +22,12 @@ const (
 // Styles of the estimate plot (Okabe–Ito colours, and each element also
 // differs by marker or line style).
 const (
-	pointStyle    = `fill="` + colorBlue + `" stroke="#FFFFFF" stroke-width="1"`
-	errorBarStyle = `stroke="` + colorBlue + `" stroke-width="1.6"`
-	fitStyle      = `stroke="` + colorVermillion + `" stroke-width="2.2" stroke-linejoin="round"`
-	limitStyle    = `stroke="` + colorVermillion + `" stroke-width="1.5" stroke-dasharray="2 4"`
-	limitBand     = `fill="` + colorOrange + `" fill-opacity="0.22"`
-	boundStyle    = `stroke="` + colorBlack + `" stroke-width="2" stroke-dasharray="9 5"`
+	pointStyle    = `fill="` + svg.ColorBlue + `" stroke="#FFFFFF" stroke-width="1"`
+	errorBarStyle = `stroke="` + svg.ColorBlue + `" stroke-width="1.6"`
+	fitStyle      = `stroke="` + svg.ColorVermillion + `" stroke-width="2.2" stroke-linejoin="round"`
+	limitStyle    = `stroke="` + svg.ColorVermillion + `" stroke-width="1.5" stroke-dasharray="2 4"`
+	limitBand     = `fill="` + svg.ColorOrange + `" fill-opacity="0.22"`
+	boundStyle    = `stroke="` + svg.ColorBlack + `" stroke-width="2" stroke-dasharray="9 5"`
 )
 
 // estimatePlot draws n·E_n[K] against n (log scale) with error bars, the
@@ -78,76 +80,76 @@ func estimatePlot(r *estimateResult) string {
 	py := func(y float64) float64 { return curveBottom - (y-ylo)/(yhi-ylo)*(curveBottom-curveTop) }
 	clampY := func(y float64) float64 { return math.Max(curveTop-2, math.Min(curveBottom+2, y)) }
 
-	var s svgDoc
+	var s svg.Doc
 	// The caption first, to know the height of the page.
 	caption := estimateCaption(r, hasBound)
 	legendTop := curveBottom + 64
 	legend := []legendItem{
 		{"estimate-points", "n·E<tspan dy=\"0.3em\" font-size=\"75%\">n</tspan><tspan dy=\"-0.3em\">[K] ± se (nested sampling)</tspan>"},
-		{"estimate-fit", esc("fit λ̂ − (θ̂−1)/(log n + b)")},
-		{"estimate-limit", esc("fitted limit λ̂ ± se")},
+		{"estimate-fit", svg.Esc("fit λ̂ − (θ̂−1)/(log n + b)")},
+		{"estimate-limit", svg.Esc("fitted limit λ̂ ± se")},
 	}
 	if hasBound {
-		legend = append(legend, legendItem{"estimate-bound", esc("Newton bound λ = " + r.bound.Lambda.RatString() + " (" + boundStatus(r.bound) + ")")})
+		legend = append(legend, legendItem{"estimate-bound", svg.Esc("Newton bound λ = " + r.bound.Lambda.RatString() + " (" + boundStatus(r.bound) + ")")})
 	}
 	rows := (len(legend) + 1) / 2
 	captionTop := legendTop + float64(rows)*legendRow + 20
 	height := captionTop + float64(len(caption))*captionLine + 10
 
-	s.printf(`<svg xmlns="http://www.w3.org/2000/svg" width="%d" height="%s" viewBox="0 0 %d %s" font-family="%s">`+"\n",
-		curveWidth, num(height), curveWidth, num(height), fontFamily)
-	s.printf("<title>%s</title>\n", esc("Numerical estimate of λ for "+shorten(r.title, 200)))
-	s.printf(`<defs><clipPath id="plot-area"><rect x="%s" y="%s" width="%s" height="%s"/></clipPath></defs>`+"\n",
-		num(curveLeft), num(curveTop), num(curveRight-curveLeft), num(curveBottom-curveTop))
-	s.printf(`<rect width="100%%" height="100%%" fill="#FFFFFF"/>` + "\n")
-	s.text(point{curveWidth / 2, 28}, `class="title" text-anchor="middle" font-size="17" font-weight="bold"`,
-		shorten("Estimate of λ for "+r.title, 56))
-	s.text(point{curveWidth / 2, 50}, `class="subtitle" text-anchor="middle" font-size="13" fill="`+colorMuted+`"`,
+	s.Printf(`<svg xmlns="http://www.w3.org/2000/svg" width="%d" height="%s" viewBox="0 0 %d %s" font-family="%s">`+"\n",
+		curveWidth, svg.Num(height), curveWidth, svg.Num(height), svg.FontFamily)
+	s.Printf("<title>%s</title>\n", svg.Esc("Numerical estimate of λ for "+svg.Shorten(r.title, 200)))
+	s.Printf(`<defs><clipPath id="plot-area"><rect x="%s" y="%s" width="%s" height="%s"/></clipPath></defs>`+"\n",
+		svg.Num(curveLeft), svg.Num(curveTop), svg.Num(curveRight-curveLeft), svg.Num(curveBottom-curveTop))
+	s.Printf(`<rect width="100%%" height="100%%" fill="#FFFFFF"/>` + "\n")
+	s.Text(point{X: curveWidth / 2, Y: 28}, `class="title" text-anchor="middle" font-size="17" font-weight="bold"`,
+		svg.Shorten("Estimate of λ for "+r.title, 56))
+	s.Text(point{X: curveWidth / 2, Y: 50}, `class="subtitle" text-anchor="middle" font-size="13" fill="`+svg.ColorMuted+`"`,
 		fmt.Sprintf("numerical estimate, not a proof · %d live points × %d runs · seed %d", e.Live, e.Runs, r.seed))
 
 	// Grid and axes.
-	s.printf(`<g class="grid" stroke="%s" stroke-width="1">`+"\n", colorGrid)
+	s.Printf(`<g class="grid" stroke="%s" stroke-width="1">`+"\n", svg.ColorGrid)
 	ystep := tickStep(yhi-ylo, 8)
 	var yticks []float64
 	for v := math.Ceil(ylo/ystep) * ystep; v <= yhi+1e-12; v += ystep {
 		yticks = append(yticks, v)
-		s.line(point{curveLeft, py(v)}, point{curveRight, py(v)}, "")
+		s.Line(point{X: curveLeft, Y: py(v)}, point{X: curveRight, Y: py(v)}, "")
 	}
 	var xticks []int
 	for k := int(math.Ceil(xlo)); float64(k) <= xhi; k++ {
 		xticks = append(xticks, k)
-		s.line(point{px(float64(k)), curveTop}, point{px(float64(k)), curveBottom}, "")
+		s.Line(point{X: px(float64(k)), Y: curveTop}, point{X: px(float64(k)), Y: curveBottom}, "")
 	}
-	s.printf("</g>\n")
-	s.printf(`<rect class="frame" x="%s" y="%s" width="%s" height="%s" fill="none" stroke="%s" stroke-width="1.2"/>`+"\n",
-		num(curveLeft), num(curveTop), num(curveRight-curveLeft), num(curveBottom-curveTop), colorBlack)
-	s.printf(`<g class="ticks" font-size="13">` + "\n")
+	s.Printf("</g>\n")
+	s.Printf(`<rect class="frame" x="%s" y="%s" width="%s" height="%s" fill="none" stroke="%s" stroke-width="1.2"/>`+"\n",
+		svg.Num(curveLeft), svg.Num(curveTop), svg.Num(curveRight-curveLeft), svg.Num(curveBottom-curveTop), svg.ColorBlack)
+	s.Printf(`<g class="ticks" font-size="13">` + "\n")
 	yDec := max(0, -int(math.Floor(math.Log10(ystep)+1e-9)))
 	for _, v := range yticks {
 		label := strconv.FormatFloat(v, 'f', yDec, 64)
 		if strings.Trim(label, "-0.") == "" {
 			label = strconv.FormatFloat(0, 'f', yDec, 64)
 		}
-		s.text(point{curveLeft - 8, py(v) + 4.5}, `class="y-tick" text-anchor="end"`, label)
+		s.Text(point{X: curveLeft - 8, Y: py(v) + 4.5}, `class="y-tick" text-anchor="end"`, label)
 	}
 	for _, k := range xticks {
-		s.text(point{px(float64(k)), curveBottom + 20}, `class="x-tick" text-anchor="middle"`, "10"+signedSuperscript(k))
+		s.Text(point{X: px(float64(k)), Y: curveBottom + 20}, `class="x-tick" text-anchor="middle"`, "10"+signedSuperscript(k))
 	}
-	s.printf("</g>\n")
-	s.text(point{(curveLeft + curveRight) / 2, curveBottom + 44}, `class="x-axis-label" text-anchor="middle" font-size="14"`,
+	s.Printf("</g>\n")
+	s.Text(point{X: (curveLeft + curveRight) / 2, Y: curveBottom + 44}, `class="x-axis-label" text-anchor="middle" font-size="14"`,
 		"n (log scale, in the units of K)")
-	s.markup(point{22, (curveTop + curveBottom) / 2},
-		fmt.Sprintf(`class="y-axis-label" text-anchor="middle" font-size="14" transform="rotate(-90 22 %s)"`, num((curveTop+curveBottom)/2)),
+	s.Markup(point{X: 22, Y: (curveTop + curveBottom) / 2},
+		fmt.Sprintf(`class="y-axis-label" text-anchor="middle" font-size="14" transform="rotate(-90 22 %s)"`, svg.Num((curveTop+curveBottom)/2)),
 		`n·E<tspan dy="0.3em" font-size="75%">n</tspan><tspan dy="-0.3em">[K]</tspan>`)
 
 	// The fitted limit band and line, the fitted curve, the bound, the points.
-	s.printf(`<g clip-path="url(#plot-area)">` + "\n")
+	s.Printf(`<g clip-path="url(#plot-area)">` + "\n")
 	if e.LambdaSE > 0 && !math.IsInf(e.LambdaSE, 0) {
 		top, bot := clampY(py(e.Lambda+e.LambdaSE)), clampY(py(e.Lambda-e.LambdaSE))
-		s.printf(`<rect class="limit-band" x="%s" y="%s" width="%s" height="%s" %s/>`+"\n",
-			num(curveLeft), num(top), num(curveRight-curveLeft), num(math.Max(bot-top, 1)), limitBand)
+		s.Printf(`<rect class="limit-band" x="%s" y="%s" width="%s" height="%s" %s/>`+"\n",
+			svg.Num(curveLeft), svg.Num(top), svg.Num(curveRight-curveLeft), svg.Num(math.Max(bot-top, 1)), limitBand)
 	}
-	s.line(point{curveLeft, clampY(py(e.Lambda))}, point{curveRight, clampY(py(e.Lambda))}, `class="limit" `+limitStyle)
+	s.Line(point{X: curveLeft, Y: clampY(py(e.Lambda))}, point{X: curveRight, Y: clampY(py(e.Lambda))}, `class="limit" `+limitStyle)
 	var fit []point
 	const steps = 120
 	lo, hi := math.Log10(e.Points[0].N), math.Log10(e.Points[len(e.Points)-1].N)
@@ -157,25 +159,25 @@ func estimatePlot(r *estimateResult) string {
 		if math.IsNaN(y) || math.IsInf(y, 0) {
 			continue
 		}
-		fit = append(fit, point{px(x), clampY(py(y))})
+		fit = append(fit, point{X: px(x), Y: clampY(py(y))})
 	}
-	s.polyline(fit, `class="fit" `+fitStyle)
+	s.Polyline(fit, `class="fit" `+fitStyle)
 	if hasBound {
-		s.line(point{curveLeft, py(boundValue)}, point{curveRight, py(boundValue)}, `class="bound" `+boundStyle)
+		s.Line(point{X: curveLeft, Y: py(boundValue)}, point{X: curveRight, Y: py(boundValue)}, `class="bound" `+boundStyle)
 	}
 	for _, p := range e.Points {
 		x := px(math.Log10(p.N))
 		a, b := py(p.Y-p.SE), py(p.Y+p.SE)
-		s.printf(`<g class="error-bar">`)
-		s.line(point{x, a}, point{x, b}, errorBarStyle)
-		s.line(point{x - 4, a}, point{x + 4, a}, errorBarStyle)
-		s.line(point{x - 4, b}, point{x + 4, b}, errorBarStyle)
-		s.printf("</g>\n")
+		s.Printf(`<g class="error-bar">`)
+		s.Line(point{X: x, Y: a}, point{X: x, Y: b}, errorBarStyle)
+		s.Line(point{X: x - 4, Y: a}, point{X: x + 4, Y: a}, errorBarStyle)
+		s.Line(point{X: x - 4, Y: b}, point{X: x + 4, Y: b}, errorBarStyle)
+		s.Printf("</g>\n")
 	}
 	for _, p := range e.Points {
-		s.circle(point{px(math.Log10(p.N)), py(p.Y)}, 3.8, `class="point" `+pointStyle)
+		s.Circle(point{X: px(math.Log10(p.N)), Y: py(p.Y)}, 3.8, `class="point" `+pointStyle)
 	}
-	s.printf("</g>\n")
+	s.Printf("</g>\n")
 	if hasBound {
 		label := "Newton bound λ = " + r.bound.Lambda.RatString() + ", " + boundStatus(r.bound)
 		// Above the line, or below it when the line is near the top.
@@ -183,24 +185,24 @@ func estimatePlot(r *estimateResult) string {
 		if y < curveTop+16 {
 			y = py(boundValue) + 18
 		}
-		s.text(point{curveRight - 8, y}, `class="bound-label" text-anchor="end" font-size="13" `+halo, label)
+		s.Text(point{X: curveRight - 8, Y: y}, `class="bound-label" text-anchor="end" font-size="13" `+svg.Halo, label)
 	}
 
 	// Legend and caption.
-	s.printf(`<g class="legend" font-size="13">` + "\n")
+	s.Printf(`<g class="legend" font-size="13">` + "\n")
 	for i, it := range legend {
 		x := 24.0 + float64(i%2)*276
 		ly := legendTop + float64(i/2)*legendRow
-		estimateSwatch(&s, it.kind, point{x, ly - 4.5})
-		s.markup(point{x + 42, ly}, `class="legend-label"`, it.label)
+		estimateSwatch(&s, it.kind, point{X: x, Y: ly - 4.5})
+		s.Markup(point{X: x + 42, Y: ly}, `class="legend-label"`, it.label)
 	}
-	s.printf("</g>\n")
-	s.printf(`<g class="caption">` + "\n")
+	s.Printf("</g>\n")
+	s.Printf(`<g class="caption">` + "\n")
 	for i, c := range caption {
-		s.markup(point{24, captionTop + float64(i)*captionLine}, c.attrs, c.markup)
+		s.Markup(point{X: 24, Y: captionTop + float64(i)*captionLine}, c.attrs, c.markup)
 	}
-	s.printf("</g>\n</svg>\n")
-	return s.b.String()
+	s.Printf("</g>\n</svg>\n")
+	return s.String()
 }
 
 // estimateCaption states the estimate, the bound, the verdict and the
@@ -209,57 +211,57 @@ func estimateCaption(r *estimateResult, hasBound bool) []captionText {
 	e := r.est
 	lines := []captionText{{
 		`class="caption-result" font-size="16" font-weight="bold"`,
-		esc(fmt.Sprintf("λ̂ = %s\u2003θ̂ = %s\u2003(estimate)", plusMinus(e.Lambda, e.LambdaSE), plusMinus(e.Theta, e.ThetaSE))),
+		svg.Esc(fmt.Sprintf("λ̂ = %s\u2003θ̂ = %s\u2003(estimate)", plusMinus(e.Lambda, e.LambdaSE), plusMinus(e.Theta, e.ThetaSE))),
 	}}
 	plain := `class="caption-text" font-size="14"`
-	muted := `class="caption-caution" font-size="13" fill="` + colorMuted + `"`
+	muted := `class="caption-caution" font-size="13" fill="` + svg.ColorMuted + `"`
 	if hasBound {
-		lines = append(lines, captionText{plain, esc(fmt.Sprintf("Newton bound: λ = %s, θ = %d (%s)",
+		lines = append(lines, captionText{plain, svg.Esc(fmt.Sprintf("Newton bound: λ = %s, θ = %d (%s)",
 			r.bound.Lambda.RatString(), r.bound.Theta, boundStatus(r.bound)))})
 	} else {
-		for _, l := range wrap("Newton bound not available: "+r.boundErr.Error(), 72) {
-			lines = append(lines, captionText{plain, esc(l)})
+		for _, l := range svg.Wrap("Newton bound not available: "+r.boundErr.Error(), 72) {
+			lines = append(lines, captionText{plain, svg.Esc(l)})
 		}
 	}
 	where := "the origin"
 	if r.point != nil && !allZero(r.point) {
 		where = pointString(r.vars, r.point)
 	}
-	for _, l := range wrap(fmt.Sprintf("Box, as offsets from %s: %s.", where, compactBox(r.vars, r.lower, r.upper)), 80) {
-		lines = append(lines, captionText{plain, esc(l)})
+	for _, l := range svg.Wrap(fmt.Sprintf("Box, as offsets from %s: %s.", where, compactBox(r.vars, r.lower, r.upper)), 80) {
+		lines = append(lines, captionText{plain, svg.Esc(l)})
 	}
-	for _, l := range wrap("Verdict: "+r.verdictText()+".", 60) {
-		lines = append(lines, captionText{`class="caption-verdict" font-size="14" font-weight="bold"`, esc(l)})
+	for _, l := range svg.Wrap("Verdict: "+r.verdictText()+".", 60) {
+		lines = append(lines, captionText{`class="caption-verdict" font-size="14" font-weight="bold"`, svg.Esc(l)})
 	}
 	for _, n := range r.notes() {
-		for _, l := range wrap("Note: "+n+".", 76) {
-			lines = append(lines, captionText{plain, esc(l)})
+		for _, l := range svg.Wrap("Note: "+n+".", 76) {
+			lines = append(lines, captionText{plain, svg.Esc(l)})
 		}
 	}
-	for _, l := range wrap(fmt.Sprintf("Error bars: jackknife over %d runs. %s", e.Runs, estimateCaution), 80) {
-		lines = append(lines, captionText{muted, esc(l)})
+	for _, l := range svg.Wrap(fmt.Sprintf("Error bars: jackknife over %d runs. %s", e.Runs, estimateCaution), 80) {
+		lines = append(lines, captionText{muted, svg.Esc(l)})
 	}
 	return lines
 }
 
 // estimateSwatch draws the sample of a legend entry of the estimate plot,
-// 34 px wide, centred vertically at c.y.
-func estimateSwatch(s *svgDoc, kind string, c point) {
-	a, b := point{c.x, c.y}, point{c.x + 34, c.y}
+// 34 px wide, centred vertically at c.Y.
+func estimateSwatch(s *svg.Doc, kind string, c point) {
+	a, b := point{X: c.X, Y: c.Y}, point{X: c.X + 34, Y: c.Y}
 	switch kind {
 	case "estimate-points":
-		m := point{c.x + 17, c.y}
-		s.line(point{m.x, m.y - 8}, point{m.x, m.y + 8}, errorBarStyle)
-		s.line(point{m.x - 4, m.y - 8}, point{m.x + 4, m.y - 8}, errorBarStyle)
-		s.line(point{m.x - 4, m.y + 8}, point{m.x + 4, m.y + 8}, errorBarStyle)
-		s.circle(m, 3.8, pointStyle)
+		m := point{X: c.X + 17, Y: c.Y}
+		s.Line(point{X: m.X, Y: m.Y - 8}, point{X: m.X, Y: m.Y + 8}, errorBarStyle)
+		s.Line(point{X: m.X - 4, Y: m.Y - 8}, point{X: m.X + 4, Y: m.Y - 8}, errorBarStyle)
+		s.Line(point{X: m.X - 4, Y: m.Y + 8}, point{X: m.X + 4, Y: m.Y + 8}, errorBarStyle)
+		s.Circle(m, 3.8, pointStyle)
 	case "estimate-fit":
-		s.line(a, b, fitStyle)
+		s.Line(a, b, fitStyle)
 	case "estimate-limit":
-		s.printf(`<rect x="%s" y="%s" width="34" height="12" %s/>`+"\n", num(c.x), num(c.y-6), limitBand)
-		s.line(a, b, limitStyle)
+		s.Printf(`<rect x="%s" y="%s" width="34" height="12" %s/>`+"\n", svg.Num(c.X), svg.Num(c.Y-6), limitBand)
+		s.Line(a, b, limitStyle)
 	case "estimate-bound":
-		s.line(a, b, boundStyle)
+		s.Line(a, b, boundStyle)
 	}
 }
 
@@ -281,9 +283,9 @@ func tickStep(span float64, n int) float64 {
 // superscript minus for negative values.
 func signedSuperscript(k int) string {
 	if k < 0 {
-		return "⁻" + superscript(-k)
+		return "⁻" + svg.Superscript(-k)
 	}
-	return superscript(k)
+	return svg.Superscript(k)
 }
 
 // compactBox writes the box without spaces inside a range, so that wrapped

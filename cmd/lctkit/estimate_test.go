@@ -15,6 +15,7 @@ import (
 	"testing"
 	"time"
 
+	"github.com/lctkit/lctkit/internal/svg"
 	"github.com/lctkit/lctkit/rlct"
 	"github.com/lctkit/lctkit/rlct/estimate"
 )
@@ -757,9 +758,9 @@ func TestEstimateRenders(t *testing.T) {
 			r, g, b, _ := img.At(x, y).RGBA()
 			r, g, b = r>>8, g>>8, b>>8
 			switch {
-			case near(r, g, b, colorBlue):
+			case near(r, g, b, svg.ColorBlue):
 				blue++
-			case near(r, g, b, colorVermillion):
+			case near(r, g, b, svg.ColorVermillion):
 				vermillion++
 			case r < 80 && g < 80 && b < 80:
 				dark++

@@ -6,13 +6,14 @@ import (
 	"slices"
 	"unicode/utf8"
 
+	"github.com/lctkit/lctkit/internal/svg"
 	"github.com/lctkit/lctkit/rlct"
 )
 
 // flaggedFaces marks the compact faces that are degenerate (dotted) or
 // undetermined (dashed), placed on the page by where as a segment or a
 // polygon, and returns their legend entries.
-func (sc *scene) flaggedFaces(s *svgDoc, where func(facePicture) []point) []legendItem {
+func (sc *scene) flaggedFaces(s *svg.Doc, where func(facePicture) []point) []legendItem {
 	seen := map[rlct.FaceVerdict]bool{}
 	for _, f := range sc.flags {
 		pts := where(f.face)
@@ -24,9 +25,9 @@ func (sc *scene) flaggedFaces(s *svgDoc, where func(facePicture) []point) []lege
 			style = `class="` + string(f.verdict) + `" ` + undeterminedStroke
 		}
 		if len(pts) == 2 {
-			s.line(pts[0], pts[1], style)
+			s.Line(pts[0], pts[1], style)
 		} else {
-			s.polygon(pts, `fill="none" `+style)
+			s.Polygon(pts, `fill="none" `+style)
 		}
 		seen[f.verdict] = true
 	}
@@ -42,7 +43,7 @@ func (sc *scene) flaggedFaces(s *svgDoc, where func(facePicture) []point) []lege
 
 // principalLegend describes how the principal face is drawn.
 func principalLegend(d *rlct.Description) legendItem {
-	label := esc(fmt.Sprintf("principal face, codim. θ = %d", d.Theta))
+	label := svg.Esc(fmt.Sprintf("principal face, codim. θ = %d", d.Theta))
 	switch {
 	case d.Principal.Dim == 0:
 		return legendItem{"principal-vertex", label}
@@ -54,14 +55,14 @@ func principalLegend(d *rlct.Description) legendItem {
 
 // hitLabel writes t_τ·τ beside the hit point, to the upper right unless that
 // runs past the page, and reserves its place.
-func hitLabel(s *svgDoc, h point, labels *labeller) {
+func hitLabel(s *svg.Doc, h point, labels *labeller) {
 	const width = 40
-	pos, anchor := point{h.x + 12, h.y - 12}, "start"
-	if h.x+12+width >= pageWidth-4 {
-		pos, anchor = point{h.x - 12, h.y - 12}, "end"
+	pos, anchor := point{X: h.X + 12, Y: h.Y - 12}, "start"
+	if h.X+12+width >= pageWidth-4 {
+		pos, anchor = point{X: h.X - 12, Y: h.Y - 12}, "end"
 	}
 	labels.reserve(textBox(pos, anchor, "tτ·τ", 16))
-	s.markup(pos, `class="hit-label" font-size="16" text-anchor="`+anchor+`" `+halo, sub("t", "τ", "·τ"))
+	s.Markup(pos, `class="hit-label" font-size="16" text-anchor="`+anchor+`" `+svg.Halo, svg.Sub("t", "τ", "·τ"))
 }
 
 // labeller keeps labels from overlapping, judging their extents from an
@@ -74,14 +75,14 @@ type labeller struct {
 // textBox estimates the extent of a label of the font size at p.
 func textBox(p point, anchor, text string, size float64) [4]float64 {
 	w := float64(utf8.RuneCountInString(text)) * size * 0.62
-	x0 := p.x
+	x0 := p.X
 	switch anchor {
 	case "end":
 		x0 -= w
 	case "middle":
 		x0 -= w / 2
 	}
-	return [4]float64{x0, p.y - 0.8*size, x0 + w, p.y + 0.25*size}
+	return [4]float64{x0, p.Y - 0.8*size, x0 + w, p.Y + 0.25*size}
 }
 
 func (l *labeller) reserve(b [4]float64) { l.boxes = append(l.boxes, b) }
@@ -105,7 +106,7 @@ type labelSpot struct {
 // labelVertices writes the monomial of each vertex at the first of the
 // spots from place that overlaps no label placed so far, those of the
 // principal face first; a label with no free spot is left out.
-func labelVertices(s *svgDoc, d *rlct.Description, labels *labeller, place func(rlct.Vertex) []labelSpot) {
+func labelVertices(s *svg.Doc, d *rlct.Description, labels *labeller, place func(rlct.Vertex) []labelSpot) {
 	principal := func(v rlct.Vertex) bool {
 		return slices.ContainsFunc(d.Principal.Vertices, func(w []int) bool { return slices.Equal(v.Exponent, w) })
 	}
@@ -122,7 +123,7 @@ func labelVertices(s *svgDoc, d *rlct.Description, labels *labeller, place func(
 					continue
 				}
 				labels.reserve(b)
-				s.text(spot.pos, `class="vertex-label" font-size="16" text-anchor="`+spot.anchor+`" `+halo, text)
+				s.Text(spot.pos, `class="vertex-label" font-size="16" text-anchor="`+spot.anchor+`" `+svg.Halo, text)
 				placed = true
 				break
 			}
@@ -151,10 +152,10 @@ func supportLabel(d *rlct.Description) string {
 
 // distToSegment is the distance from p to the segment ab.
 func distToSegment(p, a, b point) float64 {
-	dx, dy := b.x-a.x, b.y-a.y
+	dx, dy := b.X-a.X, b.Y-a.Y
 	t := 0.0
 	if l := dx*dx + dy*dy; l > 0 {
-		t = math.Max(0, math.Min(1, ((p.x-a.x)*dx+(p.y-a.y)*dy)/l))
+		t = math.Max(0, math.Min(1, ((p.X-a.X)*dx+(p.Y-a.Y)*dy)/l))
 	}
-	return p.dist(point{a.x + t*dx, a.y + t*dy})
+	return p.Dist(point{X: a.X + t*dx, Y: a.Y + t*dy})
 }

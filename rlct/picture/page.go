@@ -5,6 +5,7 @@ import (
 	"math/big"
 	"strings"
 
+	"github.com/lctkit/lctkit/internal/svg"
 	"github.com/lctkit/lctkit/rlct"
 )
 
@@ -29,7 +30,7 @@ type legendItem struct {
 // page lays out the page around the 2-D or 3-D plot.
 func (sc *scene) page(title string) []byte {
 	d := sc.d
-	var body svgDoc
+	var body svg.Doc
 	var legend []legendItem
 	var bottom float64 // the lowest point of the plot and its labels
 	if sc.n == 2 {
@@ -38,7 +39,7 @@ func (sc *scene) page(title string) []byte {
 		legend, bottom = sc.plot3D(&body)
 	}
 
-	var s svgDoc
+	var s svg.Doc
 	y := bottom + 32
 	legendTop := y
 	rows := (len(legend) + 1) / 2
@@ -47,38 +48,38 @@ func (sc *scene) page(title string) []byte {
 	caption := captionLines(d, sc.stretched)
 	height := captionTop + float64(len(caption)*captionLine) + 12
 
-	s.printf(`<svg xmlns="http://www.w3.org/2000/svg" width="%d" height="%s" viewBox="0 0 %d %s" font-family="%s">`+"\n",
-		pageWidth, num(height), pageWidth, num(height), fontFamily)
-	s.printf("<title>%s</title>\n", esc("Newton polyhedron of "+shorten(title, 200)))
-	s.printf(`<defs>` + "\n")
-	for _, m := range []struct{ id, color string }{{"arrow-blue", colorBlue}, {"arrow-black", colorBlack}, {"arrow-vermillion", colorVermillion}} {
-		s.printf(`<marker id="%s" viewBox="0 0 10 10" refX="9" refY="5" markerWidth="10" markerHeight="10" orient="auto" markerUnits="userSpaceOnUse"><path d="M0,0 L10,5 L0,10 z" fill="%s"/></marker>`+"\n", m.id, m.color)
+	s.Printf(`<svg xmlns="http://www.w3.org/2000/svg" width="%d" height="%s" viewBox="0 0 %d %s" font-family="%s">`+"\n",
+		pageWidth, svg.Num(height), pageWidth, svg.Num(height), svg.FontFamily)
+	s.Printf("<title>%s</title>\n", svg.Esc("Newton polyhedron of "+svg.Shorten(title, 200)))
+	s.Printf(`<defs>` + "\n")
+	for _, m := range []struct{ id, color string }{{"arrow-blue", svg.ColorBlue}, {"arrow-black", svg.ColorBlack}, {"arrow-vermillion", svg.ColorVermillion}} {
+		s.Printf(`<marker id="%s" viewBox="0 0 10 10" refX="9" refY="5" markerWidth="10" markerHeight="10" orient="auto" markerUnits="userSpaceOnUse"><path d="M0,0 L10,5 L0,10 z" fill="%s"/></marker>`+"\n", m.id, m.color)
 	}
-	s.printf(`<linearGradient id="fade-up" x1="0" y1="1" x2="0" y2="0"><stop offset="0" stop-color="#FFFFFF" stop-opacity="0"/><stop offset="1" stop-color="#FFFFFF" stop-opacity="0.9"/></linearGradient>` + "\n")
-	s.printf(`<linearGradient id="fade-right" x1="0" y1="0" x2="1" y2="0"><stop offset="0" stop-color="#FFFFFF" stop-opacity="0"/><stop offset="1" stop-color="#FFFFFF" stop-opacity="0.9"/></linearGradient>` + "\n")
-	s.printf(`<pattern id="hatch" width="7" height="7" patternUnits="userSpaceOnUse" patternTransform="rotate(45)"><line x1="0" y1="0" x2="0" y2="7" stroke="%s" stroke-width="2.5"/></pattern>`+"\n", colorVermillion)
-	s.printf("</defs>\n")
-	s.printf(`<rect width="100%%" height="100%%" fill="#FFFFFF"/>` + "\n")
+	s.Printf(`<linearGradient id="fade-up" x1="0" y1="1" x2="0" y2="0"><stop offset="0" stop-color="#FFFFFF" stop-opacity="0"/><stop offset="1" stop-color="#FFFFFF" stop-opacity="0.9"/></linearGradient>` + "\n")
+	s.Printf(`<linearGradient id="fade-right" x1="0" y1="0" x2="1" y2="0"><stop offset="0" stop-color="#FFFFFF" stop-opacity="0"/><stop offset="1" stop-color="#FFFFFF" stop-opacity="0.9"/></linearGradient>` + "\n")
+	s.Printf(`<pattern id="hatch" width="7" height="7" patternUnits="userSpaceOnUse" patternTransform="rotate(45)"><line x1="0" y1="0" x2="0" y2="7" stroke="%s" stroke-width="2.5"/></pattern>`+"\n", svg.ColorVermillion)
+	s.Printf("</defs>\n")
+	s.Printf(`<rect width="100%%" height="100%%" fill="#FFFFFF"/>` + "\n")
 
-	s.text(point{pageWidth / 2, 30}, `class="title" text-anchor="middle" font-size="18" font-weight="bold"`, shorten(title, 48))
-	s.text(point{pageWidth / 2, 53}, `class="subtitle" text-anchor="middle" font-size="14" fill="`+colorMuted+`"`, shorten(subtitle(d), 72))
-	s.b.WriteString(body.b.String())
+	s.Text(point{X: pageWidth / 2, Y: 30}, `class="title" text-anchor="middle" font-size="18" font-weight="bold"`, svg.Shorten(title, 48))
+	s.Text(point{X: pageWidth / 2, Y: 53}, `class="subtitle" text-anchor="middle" font-size="14" fill="`+svg.ColorMuted+`"`, svg.Shorten(subtitle(d), 72))
+	s.WriteString(body.String())
 
-	s.printf(`<g class="legend" font-size="13">` + "\n")
+	s.Printf(`<g class="legend" font-size="13">` + "\n")
 	for i, it := range legend {
 		x := 20.0 + float64(i%2)*290
 		ly := legendTop + float64(i/2)*legendRow
-		legendSwatch(&s, it.kind, point{x, ly - 4.5})
-		s.markup(point{x + 42, ly}, `class="legend-label"`, it.label)
+		legendSwatch(&s, it.kind, point{X: x, Y: ly - 4.5})
+		s.Markup(point{X: x + 42, Y: ly}, `class="legend-label"`, it.label)
 	}
-	s.printf("</g>\n")
+	s.Printf("</g>\n")
 
-	s.printf(`<g class="caption">` + "\n")
+	s.Printf(`<g class="caption">` + "\n")
 	for i, c := range caption {
-		s.markup(point{24, captionTop + float64(i*captionLine)}, c.attrs, c.markup)
+		s.Markup(point{X: 24, Y: captionTop + float64(i*captionLine)}, c.attrs, c.markup)
 	}
-	s.printf("</g>\n</svg>\n")
-	return []byte(s.b.String())
+	s.Printf("</g>\n</svg>\n")
+	return []byte(s.String())
 }
 
 // subtitle says where the polyhedron lives.
@@ -106,56 +107,56 @@ func subtitle(d *rlct.Description) string {
 	return strings.Join(parts, "; ")
 }
 
-// legendSwatch draws the sample for a legend entry centred vertically at c.y,
-// starting at c.x and 34 px wide.
-func legendSwatch(s *svgDoc, kind string, c point) {
-	a, b := point{c.x, c.y}, point{c.x + 34, c.y}
+// legendSwatch draws the sample for a legend entry centred vertically at c.Y,
+// starting at c.X and 34 px wide.
+func legendSwatch(s *svg.Doc, kind string, c point) {
+	a, b := point{X: c.X, Y: c.Y}, point{X: c.X + 34, Y: c.Y}
 	switch kind {
 	case "region":
-		s.printf(`<rect x="%s" y="%s" width="34" height="14" fill="%s" fill-opacity="0.35" stroke="%s" stroke-width="2"/>`+"\n",
-			num(c.x), num(c.y-7), colorSkyBlue, colorBlue)
+		s.Printf(`<rect x="%s" y="%s" width="34" height="14" fill="%s" fill-opacity="0.35" stroke="%s" stroke-width="2"/>`+"\n",
+			svg.Num(c.X), svg.Num(c.Y-7), svg.ColorSkyBlue, svg.ColorBlue)
 	case "unbounded-face":
-		s.printf(`<rect x="%s" y="%s" width="34" height="14" fill="%s" fill-opacity="0.18" stroke="%s" stroke-width="1" stroke-dasharray="2 3"/>`+"\n",
-			num(c.x), num(c.y-7), colorSkyBlue, colorBlue)
+		s.Printf(`<rect x="%s" y="%s" width="34" height="14" fill="%s" fill-opacity="0.18" stroke="%s" stroke-width="1" stroke-dasharray="2 3"/>`+"\n",
+			svg.Num(c.X), svg.Num(c.Y-7), svg.ColorSkyBlue, svg.ColorBlue)
 	case "compact-face":
-		s.printf(`<rect x="%s" y="%s" width="34" height="14" fill="%s" fill-opacity="0.5" stroke="%s" stroke-width="2"/>`+"\n",
-			num(c.x), num(c.y-7), colorGreen, colorBlue)
+		s.Printf(`<rect x="%s" y="%s" width="34" height="14" fill="%s" fill-opacity="0.5" stroke="%s" stroke-width="2"/>`+"\n",
+			svg.Num(c.X), svg.Num(c.Y-7), svg.ColorGreen, svg.ColorBlue)
 	case "continues":
-		s.line(a, b, `stroke="`+colorBlue+`" stroke-width="2.5" marker-end="url(#arrow-blue)"`)
+		s.Line(a, b, `stroke="`+svg.ColorBlue+`" stroke-width="2.5" marker-end="url(#arrow-blue)"`)
 	case "principal":
-		s.line(a, b, principalStroke)
+		s.Line(a, b, principalStroke)
 	case "principal-face":
-		s.printf(`<rect x="%s" y="%s" width="34" height="14" fill="url(#hatch)" stroke="%s" stroke-width="2"/>`+"\n",
-			num(c.x), num(c.y-7), colorVermillion)
+		s.Printf(`<rect x="%s" y="%s" width="34" height="14" fill="url(#hatch)" stroke="%s" stroke-width="2"/>`+"\n",
+			svg.Num(c.X), svg.Num(c.Y-7), svg.ColorVermillion)
 	case "principal-vertex":
-		s.circle(point{c.x + 17, c.y}, 10, principalRing)
-		s.circle(point{c.x + 17, c.y}, 4.5, vertexStyle)
+		s.Circle(point{X: c.X + 17, Y: c.Y}, 10, principalRing)
+		s.Circle(point{X: c.X + 17, Y: c.Y}, 4.5, vertexStyle)
 	case "degenerate":
-		s.line(a, b, degenerateStroke)
+		s.Line(a, b, degenerateStroke)
 	case "undetermined":
-		s.line(a, b, undeterminedStroke)
+		s.Line(a, b, undeterminedStroke)
 	case "ray":
-		s.line(a, b, rayStroke)
+		s.Line(a, b, rayStroke)
 	case "hit":
-		s.diamond(point{c.x + 17, c.y}, 8, hitStyle)
+		s.Diamond(point{X: c.X + 17, Y: c.Y}, 8, hitStyle)
 	case "vertex":
-		s.circle(point{c.x + 17, c.y}, 4.5, vertexStyle)
+		s.Circle(point{X: c.X + 17, Y: c.Y}, 4.5, vertexStyle)
 	case "support":
-		s.circle(point{c.x + 17, c.y}, 3.5, supportStyle)
+		s.Circle(point{X: c.X + 17, Y: c.Y}, 3.5, supportStyle)
 	}
 }
 
 // Styles shared by the 2-D and 3-D drawings.
 const (
-	boundaryStroke     = `stroke="` + colorBlue + `" stroke-width="2.5" stroke-linejoin="round"`
-	principalStroke    = `stroke="` + colorVermillion + `" stroke-width="8" stroke-linecap="round" stroke-opacity="0.9"`
-	principalRing      = `fill="none" stroke="` + colorVermillion + `" stroke-width="4"`
-	degenerateStroke   = `stroke="` + colorPurple + `" stroke-width="5" stroke-linecap="round" stroke-dasharray="0.1 9"`
-	undeterminedStroke = `stroke="` + colorPurple + `" stroke-width="4" stroke-dasharray="10 5"`
-	rayStroke          = `stroke="` + colorBlack + `" stroke-width="2" stroke-dasharray="8 5"`
-	hitStyle           = `fill="` + colorYellow + `" stroke="` + colorBlack + `" stroke-width="2"`
-	vertexStyle        = `fill="` + colorBlack + `"`
-	supportStyle       = `fill="#FFFFFF" stroke="` + colorMuted + `" stroke-width="1.5"`
+	boundaryStroke     = `stroke="` + svg.ColorBlue + `" stroke-width="2.5" stroke-linejoin="round"`
+	principalStroke    = `stroke="` + svg.ColorVermillion + `" stroke-width="8" stroke-linecap="round" stroke-opacity="0.9"`
+	principalRing      = `fill="none" stroke="` + svg.ColorVermillion + `" stroke-width="4"`
+	degenerateStroke   = `stroke="` + svg.ColorPurple + `" stroke-width="5" stroke-linecap="round" stroke-dasharray="0.1 9"`
+	undeterminedStroke = `stroke="` + svg.ColorPurple + `" stroke-width="4" stroke-dasharray="10 5"`
+	rayStroke          = `stroke="` + svg.ColorBlack + `" stroke-width="2" stroke-dasharray="8 5"`
+	hitStyle           = `fill="` + svg.ColorYellow + `" stroke="` + svg.ColorBlack + `" stroke-width="2"`
+	vertexStyle        = `fill="` + svg.ColorBlack + `"`
+	supportStyle       = `fill="#FFFFFF" stroke="` + svg.ColorMuted + `" stroke-width="1.5"`
 )
 
 // captionText is one caption line.
@@ -168,12 +169,12 @@ type captionText struct {
 func captionLines(d *rlct.Description, stretched bool) []captionText {
 	lines := []captionText{{
 		`class="caption-result" font-size="18" font-weight="bold"`,
-		esc(fmt.Sprintf("λ = %s\u2003\u2003θ = %d\u2003\u2003%s", d.Lambda.RatString(), d.Theta, statusWord(d.Status))),
+		svg.Esc(fmt.Sprintf("λ = %s\u2003\u2003θ = %d\u2003\u2003%s", d.Lambda.RatString(), d.Theta, statusWord(d.Status))),
 	}}
 	plain := `class="caption-text" font-size="14"`
 	lines = append(lines,
-		captionText{plain, esc("The ray along τ = ("+ratList(d.Weights)+") meets P(K) at ") + sub("t", "τ", "·τ = ("+ratList(d.Hit)+"),")},
-		captionText{plain, esc("so ") + sub("t", "τ", " = "+d.Distance.RatString()+" and λ = 1/") + sub("t", "τ", " = "+d.Lambda.RatString()+"; θ is the codimension of the principal face.")},
+		captionText{plain, svg.Esc("The ray along τ = ("+ratList(d.Weights)+") meets P(K) at ") + svg.Sub("t", "τ", "·τ = ("+ratList(d.Hit)+"),")},
+		captionText{plain, svg.Esc("so ") + svg.Sub("t", "τ", " = "+d.Distance.RatString()+" and λ = 1/") + svg.Sub("t", "τ", " = "+d.Lambda.RatString()+"; θ is the codimension of the principal face.")},
 	)
 	var why string
 	switch d.Status {
@@ -187,8 +188,8 @@ func captionLines(d *rlct.Description, stretched bool) []captionText {
 	if stretched {
 		why += " The axes are drawn to different scales."
 	}
-	for _, l := range wrap(why, 74) {
-		lines = append(lines, captionText{plain, esc(l)})
+	for _, l := range svg.Wrap(why, 74) {
+		lines = append(lines, captionText{plain, svg.Esc(l)})
 	}
 	return lines
 }
@@ -229,7 +230,7 @@ func upperBoundWhy(d *rlct.Description) string {
 		parts = append(parts, "the face budget was reached")
 	}
 	if len(parts) == 0 && len(d.Reasons) > 0 {
-		parts = append(parts, shorten(d.Reasons[0], 120))
+		parts = append(parts, svg.Shorten(d.Reasons[0], 120))
 	}
 	return strings.Join(parts, "; ")
 }

@@ -299,14 +299,14 @@ func checkPicture(t *testing.T, els []*svgElement, vertices, result, caption, cl
 	}
 	h := polygonCentre(t, hits[0])
 	start, end := lineEnds(t, rays[0])
-	if end.dist(h) > 0.2 {
+	if end.Dist(h) > 0.2 {
 		t.Errorf("the ray ends at %v, the hit point is at %v", end, h)
 	}
 	axes := byClass(els, "axis")
 	if len(axes) < 2 {
 		t.Fatalf("%d axes", len(axes))
 	}
-	if o, _ := lineEnds(t, axes[0]); o.dist(start) > 0.2 {
+	if o, _ := lineEnds(t, axes[0]); o.Dist(start) > 0.2 {
 		t.Errorf("the ray starts at %v, the axes at %v", start, o)
 	}
 }
@@ -324,7 +324,7 @@ func vertexDots(t *testing.T, els []*svgElement) []point {
 // atDot reports whether p is the centre of a vertex mark (within the
 // rounding of the coordinates to a tenth of a pixel).
 func atDot(p point, dots []point) bool {
-	return slices.ContainsFunc(dots, func(q point) bool { return p.dist(q) < 0.15 })
+	return slices.ContainsFunc(dots, func(q point) bool { return p.Dist(q) < 0.15 })
 }
 
 // checkPrincipal checks that the principal face is highlighted with the
@@ -341,7 +341,7 @@ func checkPrincipal(t *testing.T, els []*svgElement, shape string) {
 	switch {
 	case shape == "vertex":
 		c := circleCentre(t, el)
-		if el.name != "circle" || !atDot(c, dots) || c.dist(h) > 0.15 {
+		if el.name != "circle" || !atDot(c, dots) || c.Dist(h) > 0.15 {
 			t.Errorf("the principal vertex is <%s> at %v; vertices %v, hit point %v", el.name, c, dots, h)
 		}
 	case shape == "edge":
@@ -387,7 +387,7 @@ func insideConvex(p point, poly []point) bool {
 	sign := 0.0
 	for i, a := range poly {
 		b := poly[(i+1)%len(poly)]
-		c := (b.x-a.x)*(p.y-a.y) - (b.y-a.y)*(p.x-a.x)
+		c := (b.X-a.X)*(p.Y-a.Y) - (b.Y-a.Y)*(p.X-a.X)
 		if sign == 0 {
 			sign = c
 		} else if c*sign < -1 {

@@ -8,6 +8,7 @@ import (
 	"sort"
 	"strconv"
 
+	"github.com/lctkit/lctkit/internal/svg"
 	"github.com/lctkit/lctkit/rlct"
 )
 
@@ -52,7 +53,7 @@ func num2(v float64) string { return strconv.FormatFloat(v, 'f', 2, 64) }
 // plot3D draws the Newton polyhedron of K in three variables, cut off by the
 // frame, in the fixed oblique projection, and returns the legend and the
 // lowest page coordinate it used.
-func (sc *scene) plot3D(s *svgDoc) ([]legendItem, float64) {
+func (sc *scene) plot3D(s *svg.Doc) ([]legendItem, float64) {
 	d := sc.d
 	box := toVec3(sc.box)
 	hit := vec3{float(d.Hit[0]), float(d.Hit[1]), float(d.Hit[2])}
@@ -87,50 +88,50 @@ func (sc *scene) plot3D(s *svgDoc) ([]legendItem, float64) {
 	padU := (plotSize - (umax-umin)*k) / 2
 	at := func(p vec3) point {
 		u, v := flat(p)
-		return point{plotLeft + padU + (u-umin)*k, plotTop + 14 + (vmax-v)*k}
+		return point{X: plotLeft + padU + (u-umin)*k, Y: plotTop + 14 + (vmax-v)*k}
 	}
 	atInt := func(p []int64) point { return at(toVec3(p)) }
 
 	// The lattice on the three coordinate planes, which lie behind
 	// everything else.
-	s.printf(`<g class="grid" stroke="%s" stroke-width="1">`+"\n", colorGrid)
+	s.Printf(`<g class="grid" stroke="%s" stroke-width="1">`+"\n", svg.ColorGrid)
 	for j := range 3 {
 		// Grid lines at least 9 px apart.
 		step := 1
-		if unit := at(vec3{}).dist(at(axis(j, 1))); unit < 9 {
-			step = niceStep(box[j], max(1, int(unit*box[j]/9)))
+		if unit := at(vec3{}).Dist(at(axis(j, 1))); unit < 9 {
+			step = svg.NiceStep(box[j], max(1, int(unit*box[j]/9)))
 		}
 		for i := step; float64(i) <= box[j]; i += step {
 			for _, o := range []int{(j + 1) % 3, (j + 2) % 3} {
 				a := axis(j, float64(i))
-				s.line(at(a), at(a.add(axis(o, box[o]))), "")
+				s.Line(at(a), at(a.add(axis(o, box[o]))), "")
 			}
 		}
 	}
-	s.printf("</g>\n")
+	s.Printf("</g>\n")
 
 	// Axes with ticks; the ray behind the faces, which are translucent.
-	s.printf(`<g class="ticks" font-size="13" fill="%s">`+"\n", colorMuted)
+	s.Printf(`<g class="ticks" font-size="13" fill="%s">`+"\n", svg.ColorMuted)
 	tickOffset := []struct {
 		dx, dy float64
 		anchor string
 	}{{8, 12, "start"}, {0, 19, "middle"}, {-9, 4.5, "end"}}
 	for j := range 3 {
-		st := niceStep(box[j], 6)
+		st := svg.NiceStep(box[j], 6)
 		for i := st; float64(i) <= box[j]; i += st {
 			p := at(axis(j, float64(i)))
 			o := tickOffset[j]
-			s.text(point{p.x + o.dx, p.y + o.dy}, `text-anchor="`+o.anchor+`"`, fmt.Sprint(i))
+			s.Text(point{X: p.X + o.dx, Y: p.Y + o.dy}, `text-anchor="`+o.anchor+`"`, fmt.Sprint(i))
 		}
 	}
-	s.printf("</g>\n")
+	s.Printf("</g>\n")
 	for j := range 3 {
 		end := at(axis(j, box[j]*1.1))
-		s.line(at(vec3{}), end, `class="axis" stroke="`+colorBlack+`" stroke-width="1.5" marker-end="url(#arrow-black)"`)
+		s.Line(at(vec3{}), end, `class="axis" stroke="`+svg.ColorBlack+`" stroke-width="1.5" marker-end="url(#arrow-black)"`)
 		lp := at(axis(j, box[j]*1.16))
-		s.text(point{lp.x, lp.y + 5}, `class="axis-label" text-anchor="middle" font-size="16" font-style="italic" `+halo, axisName(d, j))
+		s.Text(point{X: lp.X, Y: lp.Y + 5}, `class="axis-label" text-anchor="middle" font-size="16" font-style="italic" `+svg.Halo, axisName(d, j))
 	}
-	s.line(at(vec3{}), at(hit), `class="ray" `+rayStroke)
+	s.Line(at(vec3{}), at(hit), `class="ray" `+rayStroke)
 
 	// The facets of P(K) cut off at the frame, far ones first.
 	type facetDepth struct {
@@ -159,12 +160,12 @@ func (sc *scene) plot3D(s *svgDoc) ([]legendItem, float64) {
 		tone := a.dot(lightDirection) / a.norm()
 		if f.compact() {
 			compactFaces++
-			s.polygon(pts, `class="compact-face" fill="`+colorGreen+`" fill-opacity="`+num2(0.25+0.4*tone*tone)+`" stroke="none"`)
+			s.Polygon(pts, `class="compact-face" fill="`+svg.ColorGreen+`" fill-opacity="`+num2(0.25+0.4*tone*tone)+`" stroke="none"`)
 		} else {
-			s.polygon(pts, `class="unbounded-face" fill="`+colorSkyBlue+`" fill-opacity="`+num2(0.08+0.45*tone*tone)+`" stroke="none"`)
+			s.Polygon(pts, `class="unbounded-face" fill="`+svg.ColorSkyBlue+`" fill-opacity="`+num2(0.08+0.45*tone*tone)+`" stroke="none"`)
 		}
 		if sc.pf.facet == o.facet {
-			s.polygon(pts, `class="principal" fill="url(#hatch)" fill-opacity="0.8" stroke="`+colorVermillion+`" stroke-width="3"`)
+			s.Polygon(pts, `class="principal" fill="url(#hatch)" fill-opacity="0.8" stroke="`+svg.ColorVermillion+`" stroke-width="3"`)
 		}
 	}
 
@@ -191,14 +192,14 @@ func (sc *scene) plot3D(s *svgDoc) ([]legendItem, float64) {
 		}
 	}
 	for _, e := range cuts {
-		s.line(atInt(e.a), atInt(e.b), `class="cut" stroke="`+colorBlue+`" stroke-width="1" stroke-opacity="0.6" stroke-dasharray="2 4"`)
+		s.Line(atInt(e.a), atInt(e.b), `class="cut" stroke="`+svg.ColorBlue+`" stroke-width="1" stroke-opacity="0.6" stroke-dasharray="2 4"`)
 	}
 	for _, e := range edges {
 		attrs := `class="edge" ` + boundaryStroke
 		if e.kind == sideRay {
 			attrs = `class="unbounded-edge" ` + boundaryStroke + ` marker-end="url(#arrow-blue)"`
 		}
-		s.line(atInt(e.a), atInt(e.b), attrs)
+		s.Line(atInt(e.a), atInt(e.b), attrs)
 	}
 
 	// The principal face if it is an edge or a vertex, the flagged faces,
@@ -206,10 +207,10 @@ func (sc *scene) plot3D(s *svgDoc) ([]legendItem, float64) {
 	pf := sc.pf
 	switch {
 	case pf.dim == 1 && len(pf.rays) == 0:
-		s.line(atInt(pf.verts[0]), atInt(pf.verts[1]), `class="principal" `+principalStroke)
+		s.Line(atInt(pf.verts[0]), atInt(pf.verts[1]), `class="principal" `+principalStroke)
 	case pf.dim == 1:
 		v := pf.verts[0]
-		s.line(atInt(v), atInt(moved(v, pf.rays[0], sc.box[pf.rays[0]])), `class="principal" `+principalStroke)
+		s.Line(atInt(v), atInt(moved(v, pf.rays[0], sc.box[pf.rays[0]])), `class="principal" `+principalStroke)
 	}
 	flagged := sc.flaggedFaces(s, func(f facePicture) []point {
 		corners := f.verts
@@ -223,23 +224,23 @@ func (sc *scene) plot3D(s *svgDoc) ([]legendItem, float64) {
 		return pts
 	})
 	if pf.dim == 0 {
-		s.circle(atInt(pf.verts[0]), 12, `class="principal" `+principalRing)
+		s.Circle(atInt(pf.verts[0]), 12, `class="principal" `+principalRing)
 	}
 	var centroid point
 	for _, v := range sc.verts {
 		p := atInt(v)
-		centroid.x += p.x / float64(len(sc.verts))
-		centroid.y += p.y / float64(len(sc.verts))
-		s.circle(p, 4.5, `class="vertex" `+vertexStyle)
+		centroid.X += p.X / float64(len(sc.verts))
+		centroid.Y += p.Y / float64(len(sc.verts))
+		s.Circle(p, 4.5, `class="vertex" `+vertexStyle)
 	}
 	h := at(hit)
-	s.diamond(h, 8, `class="hit" `+hitStyle)
+	s.Diamond(h, 8, `class="hit" `+hitStyle)
 	labels := &labeller{}
 	hitLabel(s, h, labels)
 	labelVertices(s, d, labels, func(v rlct.Vertex) []labelSpot {
 		// Away from the middle of the vertices, else around the vertex.
 		p := at(vec3{float64(v.Exponent[0]), float64(v.Exponent[1]), float64(v.Exponent[2])})
-		dx, dy := p.x-centroid.x, p.y-centroid.y
+		dx, dy := p.X-centroid.X, p.Y-centroid.Y
 		if n := math.Hypot(dx, dy); n > 1 {
 			dx, dy = dx/n, dy/n
 		} else {
@@ -252,11 +253,11 @@ func (sc *scene) plot3D(s *svgDoc) ([]legendItem, float64) {
 			anchor = "middle"
 		}
 		return []labelSpot{
-			{point{p.x + 14*dx, p.y + 14*dy + 5 + 4*dy}, anchor},
-			{point{p.x - 10, p.y - 8}, "end"},
-			{point{p.x + 10, p.y - 8}, "start"},
-			{point{p.x - 10, p.y + 18}, "end"},
-			{point{p.x + 10, p.y + 18}, "start"},
+			{point{X: p.X + 14*dx, Y: p.Y + 14*dy + 5 + 4*dy}, anchor},
+			{point{X: p.X - 10, Y: p.Y - 8}, "end"},
+			{point{X: p.X + 10, Y: p.Y - 8}, "start"},
+			{point{X: p.X - 10, Y: p.Y + 18}, "end"},
+			{point{X: p.X + 10, Y: p.Y + 18}, "start"},
 		}
 	})
 
@@ -273,7 +274,7 @@ func (sc *scene) plot3D(s *svgDoc) ([]legendItem, float64) {
 	legend = append(legend, flagged...)
 	legend = append(legend,
 		legendItem{"ray", "ray from the origin along τ"},
-		legendItem{"hit", sub("t", "τ", "·τ, where the ray meets P(K)")},
+		legendItem{"hit", svg.Sub("t", "τ", "·τ, where the ray meets P(K)")},
 	)
 	return legend, plotTop + 14 + (vmax-vmin)*k + 10
 }

@@ -116,7 +116,7 @@ func polygonPoints(t *testing.T, el *svgElement) []point {
 		if err1 != nil || err2 != nil {
 			t.Fatalf("bad point %q in <%s>", p, el.name)
 		}
-		pts = append(pts, point{fx, fy})
+		pts = append(pts, point{X: fx, Y: fy})
 	}
 	return pts
 }
@@ -127,8 +127,8 @@ func polygonCentre(t *testing.T, el *svgElement) point {
 	var c point
 	pts := polygonPoints(t, el)
 	for _, p := range pts {
-		c.x += p.x / float64(len(pts))
-		c.y += p.y / float64(len(pts))
+		c.X += p.X / float64(len(pts))
+		c.Y += p.Y / float64(len(pts))
 	}
 	return c
 }
@@ -136,11 +136,11 @@ func polygonCentre(t *testing.T, el *svgElement) point {
 // circleCentre is the centre of a circle.
 func circleCentre(t *testing.T, el *svgElement) point {
 	t.Helper()
-	return point{attrFloat(t, el, "cx"), attrFloat(t, el, "cy")}
+	return point{X: attrFloat(t, el, "cx"), Y: attrFloat(t, el, "cy")}
 }
 
 // lineEnds are the end points of a line.
 func lineEnds(t *testing.T, el *svgElement) (point, point) {
 	t.Helper()
-	return point{attrFloat(t, el, "x1"), attrFloat(t, el, "y1")}, point{attrFloat(t, el, "x2"), attrFloat(t, el, "y2")}
+	return point{X: attrFloat(t, el, "x1"), Y: attrFloat(t, el, "y1")}, point{X: attrFloat(t, el, "x2"), Y: attrFloat(t, el, "y2")}
 }
