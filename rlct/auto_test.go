@@ -132,8 +132,17 @@ func TestRecordOrderAuto(t *testing.T) {
 	if err != nil || rec.Spec.Order != OrderAuto {
 		t.Fatalf("order auto: %v, %v", rec, err)
 	}
+	// "auto" is the default: written by leaving the field out.
 	b, err := rec.MarshalJSON()
-	if err != nil || !strings.Contains(string(b), `"order":"auto"`) {
+	if err != nil || strings.Contains(string(b), `"order"`) {
 		t.Errorf("encoded %s, %v", b, err)
+	}
+	if rec, err := DecodeRecord([]byte(`{"k": "sin(x)^2"}`)); err != nil || rec.Spec.Order != OrderAuto {
+		t.Errorf("no order: %v, %v", rec.Spec.Order, err)
+	}
+	if rec, err := DecodeRecord([]byte(`{"k": "x^2", "order": 0}`)); err != nil || rec.Spec.Order != 0 {
+		t.Errorf("order 0: %v, %v", rec.Spec.Order, err)
+	} else if b, _ := rec.MarshalJSON(); !strings.Contains(string(b), `"order":0`) {
+		t.Errorf("order 0 encoded %s", b)
 	}
 }

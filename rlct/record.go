@@ -31,7 +31,8 @@ var ErrRecord error = &inputError{"rlct: bad record"}
 //	prior  "x=1,y=1/2", as Spec.Prior (optional)
 //	at     one point "x=0,y=1/3" or a list of them, as Spec.At (optional)
 //	order  a non-negative integer literal, as Spec.Order, or "auto" for
-//	       OrderAuto (optional)
+//	       OrderAuto (optional; absent means OrderAuto, so that a series
+//	       is expanded at an order chosen as on the command line)
 //	vars   "x,y,z" or a list of names, as Spec.Vars (optional)
 //	model  a model description (package rlct/model), one string or a list
 //	       of its lines, instead of k or sos; with it only id and order
@@ -70,6 +71,7 @@ func DecodeRecord(data []byte) (Record, error) {
 		return rec, err
 	}
 	s := &rec.Spec
+	s.Order = OrderAuto
 	for _, f := range fields {
 		if isNull(f.value) {
 			continue
@@ -146,7 +148,7 @@ func (r Record) MarshalJSON() ([]byte, error) {
 		{"sos", len(s.SOS) > 0, s.SOS},
 		{"prior", s.Prior != "", s.Prior},
 		{"at", len(s.At) > 0, s.At},
-		{"order", s.Order != 0, orderValue(s.Order)},
+		{"order", s.Order != OrderAuto, s.Order},
 		{"vars", len(s.Vars) > 0, s.Vars},
 		{"model", r.Model != "", r.Model},
 	}
@@ -313,14 +315,6 @@ func decodeNames(v json.RawMessage) ([]string, error) {
 		}
 	}
 	return names, nil
-}
-
-// orderValue is the JSON value of an order: the number, or "auto".
-func orderValue(order int) any {
-	if order == OrderAuto {
-		return "auto"
-	}
-	return order
 }
 
 // decodeOrder reads a non-negative integer literal or "auto".

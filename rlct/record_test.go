@@ -45,8 +45,12 @@ func TestDecodeRecord(t *testing.T) {
 		if string(rec.ID) != tt.id {
 			t.Errorf("%s: id %q, want %q", tt.in, rec.ID, tt.id)
 		}
-		if !reflect.DeepEqual(rec.Spec, tt.spec) {
-			t.Errorf("%s: spec %+v, want %+v", tt.in, rec.Spec, tt.spec)
+		want := tt.spec
+		if !strings.Contains(tt.in, `"order"`) {
+			want.Order = OrderAuto // the documented default of an absent order
+		}
+		if !reflect.DeepEqual(rec.Spec, want) {
+			t.Errorf("%s: spec %+v, want %+v", tt.in, rec.Spec, want)
 		}
 	}
 }
@@ -60,9 +64,9 @@ func TestDecodeModelRecord(t *testing.T) {
 		model string
 		order int
 	}{
-		{`{"id": 1, "model": "kind discrete\nparam a"}`, "kind discrete\nparam a", 0},
+		{`{"id": 1, "model": "kind discrete\nparam a"}`, "kind discrete\nparam a", OrderAuto},
 		{`{"model": ["kind discrete", "param a"], "order": 4}`, "kind discrete\nparam a", 4},
-		{`{"model": ["kind discrete"], "k": null}`, "kind discrete", 0},
+		{`{"model": ["kind discrete"], "k": null}`, "kind discrete", OrderAuto},
 	}
 	for _, tt := range tests {
 		rec, err := DecodeRecord([]byte(tt.in))

@@ -56,7 +56,8 @@ Input fields:
   sos    generators ["g1", "g2"] of K = g1^2 + g2^2 + … (or one string "g1; g2")
   prior  "x=1,y=1/2" (optional)
   at     "x=0,y=1/3" or a list of such points (optional)
-  order  series truncation degree, an integer (optional)
+  order  series truncation degree, an integer, or "auto" (the default:
+         raise the order until the omitted terms are certified)
   vars   "x,y,z" or ["x", "y", "z"] (optional)
   model  a model description (see lctkit model --help), one string or a list
          of its lines, instead of k or sos; only id and order may go with it

@@ -186,18 +186,24 @@ polyhedron of K with one of three statuses:
                say why nothing more is claimed
   not a bound  ("uncertified" in JSON) the value of a truncated series whose
                omitted terms could change it: it may lie below the true λ;
-               the output says which --order would certify it, or why none can
+               the output says which --order would certify it, or that a
+               higher one may
 
-Only the faces that hold a negative or odd term (in --sos form: two terms of
-one generator) can be degenerate, so only those are examined, and the search
-stops at the first degenerate face; --all-faces decides and lists every
-compact face instead.
+A series is expanded at an order chosen until its omitted terms are certified
+(--order auto, the default), or at --order D. Before the polyhedron is read,
+the regular directions at the point are split off and degenerate edges are
+repaired by exact changes of coordinates, which the output lists (--no-reduce
+and --no-repair give the Newton value of K as written). Only the faces that
+hold a negative or odd term (in --sos form: two terms of one generator) can be
+degenerate, so only those are examined, and the search stops at the first
+degenerate face; --all-faces decides and lists every compact face instead.
 
 Examples:
   lctkit bound 'x^4 + y^6'
-  lctkit bound '(x-y)^2'                      # degenerate: an upper bound
+  lctkit bound '(x-y)^2'                      # exact 1/2 after u = x - y
+  lctkit bound '(x-y)^2' --no-reduce          # K as written: degenerate, an upper bound
   lctkit bound --sos 'a*b; a*c' --prior a=1
-  lctkit bound 'x^2*(1-cos(y))' --order 6 --json
+  lctkit bound 'x^2*(1-cos(y))' --json        # a series: the order is chosen
   lctkit bound 'x^2*(x-1)^4 + y^2' --at x=0 --at x=1 --n 1000`
 }
 

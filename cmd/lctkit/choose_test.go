@@ -293,7 +293,7 @@ func TestChooseErrors(t *testing.T) {
 		{"bad --n", base + pairs, []string{"--n", "2"}, exitUsage, []string{"--n", "greater than e"}},
 		{"syntax", base + "pair a a lambda", nil, exitFailed, []string{"line 4", "expected the value of lambda, found the end of the line"}},
 		{"expression", base + "order a <= b\n" + pairs + `pair b a k "x^2 + * y"`, nil, exitFailed, []string{"line 7", `pair "b" at "a"`, "  k: x^2 + * y", "        ^"}},
-		{"series needs order", base + "order a <= b\n" + pairs + `pair b a k "x^2 + sin(y)^2"`, nil, exitFailed, []string{"add order D to the pair"}},
+		{"series needs order", base + "order a <= b\n" + pairs + `pair b a k "x^2 + sin(y)^2" order 0`, nil, exitFailed, []string{"add order D to the pair"}},
 	}
 	for _, tt := range tests {
 		path := writeTemp(t, "t.txt", tt.table)

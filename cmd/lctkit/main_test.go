@@ -377,7 +377,7 @@ func TestMessagesNameFlags(t *testing.T) {
 	if !strings.Contains(errOut, "--max-terms") {
 		t.Errorf("no hint at --max-terms: %s", errOut)
 	}
-	out, _, _ := runCLI(t, `{"k": "sin(x)^2"}`+"\n", "batch")
+	out, _, _ := runCLI(t, `{"k": "sin(x)^2", "order": 0}`+"\n", "batch")
 	if !strings.Contains(out, `set \"order\" in the record`) {
 		t.Errorf("no hint at the record's order field: %s", out)
 	}

@@ -39,7 +39,7 @@ import (
 //	           | "regular"
 //	           | "k" string | "sos" string | "prior" string | "at" string
 //	           | "description" string
-//	           | "order" integer | "vars" string
+//	           | "order" integer | "vars" string      (no order: chosen as by lctkit bound)
 //	           | "estimate" rational integer | "source" string .
 //	status    = "exact" | "upper-bound" | "uncertified" .
 //	name      = namechar { namechar } .      (letters, digits, _ - .)
@@ -509,7 +509,7 @@ func (r *textReader) pair() error {
 	p := TablePair{Model: model, Truth: truth, Where: fmt.Sprintf("line %d", r.line)}
 	label := fmt.Sprintf("pair %q at %q", model, truth)
 	seen := map[string]bool{}
-	var spec rlct.Spec
+	spec := rlct.Spec{Order: rlct.OrderAuto} // a series gets an order chosen unless "order" says
 	for r.pos < len(r.toks) {
 		key, err := r.word("a field")
 		if err != nil {
@@ -608,7 +608,7 @@ func (p *TablePair) check(seen map[string]bool) error {
 		return errors.New("prior, at, order and vars go with k or sos")
 	}
 	if p.Spec != nil {
-		if p.Spec.Order < 0 {
+		if p.Spec.Order < 0 && p.Spec.Order != rlct.OrderAuto {
 			return fmt.Errorf("order %d is negative", p.Spec.Order)
 		}
 		if p.Spec.Order > monomial.DefaultMaxOrder {

@@ -151,7 +151,7 @@ func (jp *jsonPair) pair(where string) (TablePair, error) {
 		}
 		seen["regular"], p.Regular = true, true
 	}
-	var spec rlct.Spec
+	spec := rlct.Spec{Order: rlct.OrderAuto} // a series gets an order chosen unless "order" says
 	if jp.K != nil {
 		seen["k"], spec.K = true, *jp.K
 	}
