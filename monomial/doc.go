@@ -234,8 +234,52 @@
 //  6. Divisions by a non-constant: v/w = v·w^(-1), rule 4 for w^(-1) and
 //     then rule 3.
 //
-// Every element that the rules introduce has degree > D: those of Drop and
-// of H_j by definition, and those of R + S are multiples of elements of R.
+// Every element that rules 1–6 introduce has degree > D: those of Drop and
+// of H_j by definition, and those of R + S are multiples of elements of R
+// (rule 7 below adds elements that strictly dominate a floor point
+// instead).
+//
+// # Truncation by a floor
+//
+// Config.Floor gives points F (only their minimal elements matter) and
+// lets series mode drop, besides the terms of degree > D, every term whose
+// exponent e strictly dominates a point g of F (e >= g entrywise, e != g):
+// such terms are often all that grows with D, and a caller that knows they
+// cannot matter (for the Newton polyhedron, a point above a point of the
+// support lies in the polyhedron and on no compact face) keeps high orders
+// cheap. The rule, with its proof:
+//
+//  7. Floor. After every step that truncates at D (rules 3, 4, 5 and 6:
+//     the truncated products, the compositions, inside Horner's scheme at
+//     each h_j and on its argument, and the powers of inexact values), the
+//     parser removes from the computed polynomial the terms whose exponent e
+//     strictly dominates some g in F, and adds to the remainder, for each
+//     of them, the exponent g + u_i, where u_i is the unit vector of the
+//     first variable i with e_i > g_i; so e is a multiple of g + u_i, and
+//     R = Min(R ∪ {those g + u_i}) by (c), (d). A removed term lies in
+//     I({g + u_i}), and the value minus the polynomial changes by exactly
+//     the removed terms. Inside Horner's scheme, write h_j = h'_j + δ_j
+//     with h'_j the computed step and δ_j in I(G) (G the generators
+//     recorded so far); then u·h_(j+1) = u'·h'_(j+1) + (a part in I(G)) by
+//     (a), truncating by degree keeps a subset of the terms (I(G) is
+//     defined term by term), and removing terms adds their generators: so
+//     by induction the computed polynomial differs from the one of rule 4
+//     by an element of I(G), and R is the set of rule 4 with G added.
+//     Removed terms are never put back: the later rules only ever see the
+//     remainder, and every operation maps multiples of a generator to sums
+//     of multiples of generators (rules 2–6 with (a)–(d)), so a removed
+//     term's contribution to any later value stays covered.
+//
+// Exact values are never cut (an expression without series is unchanged),
+// and an inexact value only loses terms that its remainder then covers.
+// The new generators need not have degree > D, but each strictly dominates
+// a point of F, and so does every multiple of one. So the statement of
+// Expansion becomes: every term of the value minus Poly is a multiple of a
+// remainder monomial, and every remainder monomial has degree > D or
+// strictly dominates a point of F; a term of Poly of degree <= D that
+// strictly dominates no point of F is a Taylor coefficient. Whether the
+// points of F belong to the final support is for the caller to know: the
+// parser does not check it.
 //
 // The rules look at supports and not at coefficients, so a remainder can
 // be larger than the least possible one when coefficients cancel, but they

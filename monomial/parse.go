@@ -37,6 +37,21 @@ type Config struct {
 	// Vars, and every value non-nil; otherwise Parse returns an error that
 	// is not an *Error. The map is only read.
 	At map[string]*big.Rat
+	// Floor, in series mode (Order > 0) only, lets the expansion omit the
+	// terms whose exponent strictly dominates a floor point (is >= it in
+	// every variable and differs from it): each is a list of exponents in
+	// the order of the variables of the result (Vars, then the other
+	// identifiers of the text), and every point must have one exponent per
+	// variable, or Parse returns an error that is not an *Error. Wherever
+	// the expansion truncates a series at Order (products, powers, functions
+	// and their intermediate steps), it also drops such terms, and every
+	// dropped term is then covered by the Remainder (see "Truncation by a
+	// floor" in the package documentation). So a term of Poly of degree <=
+	// Order that strictly dominates no floor point is still a Taylor
+	// coefficient, and exact values are never cut: an expression whose value
+	// is exact stays exact, and Truncated is true when terms were dropped.
+	// The slices are only read. With Order = 0 Floor is ignored.
+	Floor [][]int
 	// Limits guard against runaway expansion; zero fields take defaults.
 	Limits Limits
 }
@@ -55,6 +70,12 @@ type Config struct {
 // value, but only at a multiple of a monomial of Remainder: in tanh(x) +
 // x^11 with Order 4, Poly = x - 1/3*x^3 + x^11 with Remainder {x^5}, and the
 // x^11 coefficient of the value also has a contribution from tanh(x).
+//
+// With Config.Floor, terms that strictly dominate a floor point may also
+// be missing at degrees <= Order, and Remainder covers them: its elements
+// then have degree > Order or strictly dominate a floor point, and the
+// terms of Poly of degree <= Order that strictly dominate no floor point
+// are Taylor coefficients.
 type Expansion struct {
 	// Poly is the expansion described above.
 	Poly *Poly
@@ -73,8 +94,10 @@ type Expansion struct {
 	// of x^r for some r in Remainder. It is nil when Poly is the value
 	// itself. The exponents are distinct, none divides another (the set
 	// is minimal), they are sorted in the term order of Poly (see Poly),
-	// and each has total degree > Order, so the terms of Poly of degree
-	// <= Order are Taylor coefficients of the value. The set may be larger
+	// and each has total degree > Order (or, with Config.Floor, strictly
+	// dominates a floor point), so the terms of Poly of degree <= Order
+	// (that strictly dominate no floor point) are Taylor coefficients of
+	// the value. The set may be larger
 	// than the least one possible (see "Remainders" in the package
 	// documentation for the rules), but never smaller.
 	Remainder []Exponent
@@ -243,6 +266,8 @@ type session struct {
 	// (the same limits), so that the bookkeeping does not use up the
 	// budget of the expansion.
 	rguard *guard
+	// floor holds Config.Floor in series mode (nil for none).
+	floor *floorSet
 }
 
 func newSession(src string, cfg Config, list bool) (*session, error) {
@@ -304,6 +329,13 @@ func newSession(src string, cfg Config, list bool) (*session, error) {
 	s.idents = ids
 	if err := s.setPoint(cfg.At); err != nil {
 		return nil, err
+	}
+	if cfg.Order > 0 {
+		fs, err := newFloorSet(cfg.Floor, len(s.vars))
+		if err != nil {
+			return nil, err
+		}
+		s.floor = fs
 	}
 	return s, nil
 }
@@ -767,7 +799,8 @@ func (p *parser) call(name string, nameTok token) (value, *Error) {
 	// Two more coefficients than the expansion needs tell the remainder
 	// where the omitted part starts.
 	a := p.coefsOf(name, k+2)
-	res, cerr := compose(a[:k+1], u, p.order, p.guard)
+	cut := p.cutter()
+	res, cerr := compose(a[:k+1], u, p.order, p.guard, cut)
 	if cerr != nil {
 		return whole, p.limitErr(cerr, nameTok, whole)
 	}
@@ -778,7 +811,10 @@ func (p *parser) call(name string, nameTok token) (value, *Error) {
 		return whole, p.remErr(rerr, nameTok, whole)
 	}
 	whole.rem = rem
-	return whole, nil
+	if whole.exact {
+		return whole, nil
+	}
+	return p.applyFloor(whole, cut, nameTok)
 }
 
 // pointErr is errAt for an expression that has no Taylor series at the
@@ -934,7 +970,7 @@ func (p *parser) multiply(v, w value, op token) (value, *Error) {
 		return r, p.remErr(rerr, op, r)
 	}
 	r.rem = rem
-	return r, nil
+	return p.applyFloor(r, p.cutter(), op)
 }
 
 // mulTruncated returns a·b without its terms of total degree above the
@@ -1044,7 +1080,7 @@ func (p *parser) raise(base, ex value, op token) (value, *Error) {
 				return r, p.remErr(rerr, op, r)
 			}
 			r.rem = rem
-			return r, nil
+			return p.applyFloor(r, p.cutter(), op)
 		}
 		return p.seriesPower(base, e, r, op, "")
 	}
@@ -1093,7 +1129,8 @@ func (p *parser) seriesPower(base value, e *big.Rat, whole value, at token, fn s
 		k = p.order / u.MinDegree()
 	}
 	a := binomialCoefs(e, k+2) // two more for the remainder
-	res, cerr := compose(a[:k+1], u, p.order, p.guard)
+	cut := p.cutter()
+	res, cerr := compose(a[:k+1], u, p.order, p.guard, cut)
 	if cerr != nil {
 		return whole, p.limitErr(cerr, at, whole)
 	}
@@ -1106,7 +1143,10 @@ func (p *parser) seriesPower(base value, e *big.Rat, whole value, at token, fn s
 		return whole, p.remErr(rerr, at, whole)
 	}
 	whole.rem = rem
-	return whole, nil
+	if whole.exact {
+		return whole, nil
+	}
+	return p.applyFloor(whole, cut, at)
 }
 
 // ParseRat reads one number in the number syntax of the expression

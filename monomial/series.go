@@ -115,8 +115,12 @@ func binomialCoefs(r *big.Rat, k int) []*big.Rat {
 // constant term. It evaluates Horner's scheme h_j = a_j + u·h_{j+1} from the
 // top and truncates h_j to degree d - j·m (m is the lowest degree in u),
 // which is all of h_j that can reach degree d in the result. The guard
-// limits the terms and work of each step.
-func compose(a []*big.Rat, u *Poly, d int, g *guard) (*Poly, error) {
+// limits the terms and work of each step. A non-nil cut also removes from
+// u and every h_j the terms that strictly dominate a floor point: every
+// term of the result that such a term contributes to is a multiple of it,
+// so it strictly dominates the floor point too, and the result is the
+// full one without those terms (the cutter records their generators).
+func compose(a []*big.Rat, u *Poly, d int, g *guard, cut *floorCutter) (*Poly, error) {
 	if u.IsZero() {
 		return constPoly(u.vars, coefFromRat(a[0])), nil
 	}
@@ -125,7 +129,7 @@ func compose(a []*big.Rat, u *Poly, d int, g *guard) (*Poly, error) {
 		panic("monomial: compose with an argument that does not vanish at 0")
 	}
 	k := min(len(a)-1, d/m)
-	u = u.Truncate(d)
+	u = cut.cut(u.Truncate(d))
 	if g != nil {
 		if est := composeWork(a[:k+1], u, d); est > g.work {
 			return nil, errTooMuchWork // refused before any work
@@ -138,6 +142,7 @@ func compose(a []*big.Rat, u *Poly, d int, g *guard) (*Poly, error) {
 		if err != nil {
 			return nil, err
 		}
+		h = cut.cut(h)
 		if a[j].Sign() != 0 {
 			h = h.Add(constPoly(u.vars, coefFromRat(a[j])))
 		}
