@@ -150,6 +150,10 @@ type Result struct {
 	newton *polyhedron.Newton
 	scale  int
 	local  *Local // the problem this answer is the Newton value of
+	// reductionBlocked says that a reduction was not tried because the
+	// series was cut by a floor (see cutByFloor); Spec.Bound then expands
+	// again without the floor.
+	reductionBlocked bool
 }
 
 // Bound computes the Newton-polyhedron value (λ, θ) of p at each of its

@@ -65,8 +65,11 @@ type Problem struct {
 	// The exponents are in the variables of K (offsets from the point
 	// when Centered, else exponents at the origin), in the coordinates of the polyhedron that is
 	// built (P(K), or P(⟨g_1, …, g_r⟩) in sum-of-squares form), and each has
-	// total degree above Order. nil means only the total degree is known.
-	// See Truncation for how it is used.
+	// total degree above Order or strictly dominates (is ≥ in every
+	// variable and differs from) an exponent of K, or in sum-of-squares
+	// form of a generator: a series cut by the polyhedron
+	// (monomial.Config.Floor) omits such terms at any degree. nil means
+	// only the total degree is known. See Truncation for how it is used.
 	Remainder []monomial.Exponent
 
 	// GeneratorWeights, in sum-of-squares form, makes K = Σ c_i·g_i² with

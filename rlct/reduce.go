@@ -172,6 +172,9 @@ func reduce(ctx context.Context, l *Local, order int, truncated bool, opt *Optio
 		}
 		return nil, nil, "", nil
 	}
+	if truncated && cutByFloor(l.Remainder, order) {
+		return nil, nil, floorReductionNote, nil
+	}
 	red := &Reduction{Kind: sys.kind, Rank: sys.rank(), Kept: keptNames}
 	if l.SumOfSquares {
 		for _, g := range sys.eqIndex {
@@ -705,6 +708,7 @@ func applyReduction(ctx context.Context, l *Local, order int, truncated bool, op
 		if why != "" {
 			res.Notes = append(res.Notes, why)
 		}
+		res.reductionBlocked = why == floorReductionNote
 		return res, nil
 	}
 	red.Unreduced = Value{Lambda: res.Lambda, Theta: res.Theta, Status: res.Status}
@@ -766,4 +770,24 @@ func plural(n int) string {
 		return ""
 	}
 	return "s"
+}
+
+// floorReductionNote is the reason given when a reduction is not applied
+// because the series was cut below its order (see cutByFloor).
+const floorReductionNote = "the reduction was not applied: the series omits terms of degree at most its order (it was cut by the Newton polyhedron), and a change of coordinates could move them below the terms that are kept"
+
+// cutByFloor reports a remainder with a monomial of total degree ≤ order:
+// a series cut by a floor (monomial.Config.Floor). The reduction's
+// argument for a truncated K needs every omitted term to have degree
+// above the order (they stay there after substituting a series without
+// constant term); a term that is only known to dominate a kept one can
+// fall below the kept terms after the substitution, so the reduction is
+// not applied to such a series.
+func cutByFloor(rem []monomial.Exponent, order int) bool {
+	for _, r := range rem {
+		if r.Degree() <= order {
+			return true
+		}
+	}
+	return false
 }

@@ -36,11 +36,55 @@ func (p *Problem) checkExtras(d int) error {
 				return fmt.Errorf("%w: a remainder monomial has a negative exponent", ErrDimension)
 			}
 		}
-		if p.Truncated && r.Degree() <= p.Order {
-			return fmt.Errorf("%w: a remainder monomial has total degree %d, not above the order %d", ErrDimension, r.Degree(), p.Order)
+		if p.Truncated && r.Degree() <= p.Order && !p.abovePoint(r) {
+			return fmt.Errorf("%w: a remainder monomial has total degree %d, not above the order %d, and dominates no exponent of K", ErrDimension, r.Degree(), p.Order)
 		}
 	}
 	return nil
+}
+
+// abovePoint reports whether r strictly dominates (is ≥ entrywise and
+// differs from) an exponent of K, or in sum-of-squares form of a
+// generator: then r lies in the Newton polyhedron that is built and on
+// none of its compact faces, and so does every multiple of r (see
+// remainderCheck).
+func (p *Problem) abovePoint(r monomial.Exponent) bool {
+	polys := p.Generators
+	if p.K != nil {
+		polys = []*monomial.Poly{p.K}
+	}
+	return dominatesSupport(r, polys)
+}
+
+// dominatesSupport reports whether r strictly dominates an exponent of one
+// of the polynomials.
+func dominatesSupport(r monomial.Exponent, polys []*monomial.Poly) bool {
+	for _, q := range polys {
+		if q == nil {
+			continue
+		}
+		for e := range q.All() {
+			if strictlyBelow(e, r) {
+				return true
+			}
+		}
+	}
+	return false
+}
+
+// strictlyBelow reports e ≤ r entrywise and e ≠ r.
+func strictlyBelow(e, r monomial.Exponent) bool {
+	if len(e) != len(r) {
+		return false
+	}
+	differ := false
+	for i, x := range e {
+		if x > r[i] {
+			return false
+		}
+		differ = differ || x < r[i]
+	}
+	return differ
 }
 
 // remainderCheck is the truncation check with the monomials of
@@ -69,6 +113,13 @@ func (p *Problem) checkExtras(d int) error {
 //     and a·(r + s) ≥ a·r > b), so every compact face and its face polynomial
 //     are those of the full K, and the face verdicts carry over.
 //
+// A monomial r that strictly dominates an exponent e of the polynomials
+// (r = e + s, s ≥ 0, s ≠ 0) lies in P and on no compact face (a·r = a·e +
+// a·s > a·e ≥ b for a strictly positive normal a), so it is not a vertex
+// either: it passes both conditions without an LP. Such monomials come
+// from the truncation by a floor (monomial.Config.Floor, which Spec.Bound
+// uses with OrderAuto), and may have total degree ≤ the order.
+//
 // CompactFaceAt decides where r lies, exactly: outside P (an error wrapping
 // polyhedron.ErrNotBoundary), in P on no compact face (nil), or on a
 // compact face, which is a vertex when it has dimension 0. principal and
@@ -83,6 +134,9 @@ func (an *analysis) remainderCheck(ctx context.Context, rem []monomial.Exponent,
 	var aboveExp []monomial.Exponent
 	x := make([]*big.Rat, len(an.vars))
 	for _, r := range rem {
+		if dominatesSupport(r, an.polys) {
+			continue // in P, on no compact face: passes both conditions
+		}
 		for i, e := range r {
 			x[i] = new(big.Rat).SetInt64(int64(e))
 		}

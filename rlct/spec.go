@@ -58,7 +58,15 @@ func (e *SpecError) Is(target error) bool { return target == ErrInput }
 // a variable K does not use counts as a dimension only when Vars names it.
 // Errors in an expression are *SpecError values wrapping the parser's
 // positioned error.
-func (s *Spec) Problem() (*Problem, error) {
+func (s *Spec) Problem() (*Problem, error) { return s.problem(nil) }
+
+// problem is Problem with a floor for the expansion (monomial.Config.Floor,
+// in the variables of the problem; nil for none). The floor is used for the
+// expansion that the problem keeps: the one at the origin when At is empty,
+// the one at the single point of At (expandAt) when that is not the
+// origin; with several points, or one at the origin given in At, it is not
+// used.
+func (s *Spec) problem(floor [][]int) (*Problem, error) {
 	if (s.K == "") == (len(s.SOS) == 0) {
 		if s.K == "" {
 			return nil, ErrNoFunction
@@ -66,6 +74,9 @@ func (s *Spec) Problem() (*Problem, error) {
 		return nil, ErrTwoForms
 	}
 	cfg := monomial.Config{Vars: s.Vars, Order: s.Order, Limits: s.Limits}
+	if len(s.At) == 0 {
+		cfg.Floor = floor
+	}
 	p := &Problem{Order: s.Order}
 	var vars []string
 	if s.K != "" {
@@ -108,7 +119,7 @@ func (s *Spec) Problem() (*Problem, error) {
 		p.Points = append(p.Points, w)
 	}
 	if p.Truncated && len(p.Points) == 1 && !isOrigin(p.Points[0]) {
-		if err := s.expandAt(p, vars); err != nil {
+		if err := s.expandAt(p, vars, floor); err != nil {
 			return nil, err
 		}
 	}
@@ -121,12 +132,12 @@ func (s *Spec) Problem() (*Problem, error) {
 // order, and the problem is marked Centered. The parser refuses a point
 // where a coefficient would be irrational (exp(1/4), log(3)) or where a
 // function has no Taylor series, naming the function and the value.
-func (s *Spec) expandAt(p *Problem, vars []string) error {
+func (s *Spec) expandAt(p *Problem, vars []string, floor [][]int) error {
 	at := make(map[string]*big.Rat, len(vars))
 	for i, v := range vars {
 		at[v] = p.Points[0][i]
 	}
-	cfg := monomial.Config{Vars: vars, Order: s.Order, Limits: s.Limits, At: at}
+	cfg := monomial.Config{Vars: vars, Order: s.Order, Limits: s.Limits, At: at, Floor: floor}
 	p.Centered, p.Truncated = true, false
 	if s.K != "" {
 		ex, err := monomial.Parse(s.K, cfg)

@@ -73,6 +73,18 @@ type Truncation struct {
 // checked for those monomials alone (see remainderCheck); the answer is
 // the better of the two checks, and BoundOrder and NeededOrder still come
 // from the total degree.
+//
+// A remainder may also have monomials of total degree ≤ the order, each
+// strictly dominating an exponent e of the polynomials (a series cut by
+// the polyhedron, monomial.Config.Floor; checkExtras enforces this). The
+// total-degree check stays sound: an omitted term is then of degree > D
+// (the argument above) or a multiple e + s of such a monomial, s ≥ 0,
+// s ≠ 0, and e lies in P; for the principal condition y·(e + s) = y·e +
+// y·s > t_τ for the y with min_i y_i > 0 that the check uses, and for the
+// faces condition a·(e + s) > a·e ≥ b for every compact face with
+// (strictly positive) normal a and level b. So such a term lies in P
+// strictly above the principal face's hyperplane and off every compact
+// face, and changes neither P nor t_τ, θ or a face polynomial.
 func (an *analysis) checkTruncation(ctx context.Context, order int, rem []monomial.Exponent, hit *polyhedron.Hit) (*Truncation, error) {
 	res := an.res
 	d := len(an.vars)

@@ -106,6 +106,18 @@ func problem(s *rlct.Spec, opt *rlct.Options, e *env) (*rlct.Problem, error) {
 	var err error
 	if s.Order == rlct.OrderAuto {
 		p, _, err = s.Bound(context.Background(), opt)
+		if err == nil && p.Truncated {
+			// The chosen order, expanded in full: Spec.Bound may have cut
+			// the series by the polyhedron (same polyhedron, fewer points
+			// inside it), which the pictures and the estimate should not
+			// see. If the full expansion exceeds a limit, the cut one is
+			// kept.
+			at := *s
+			at.Order = p.Order
+			if full, ferr := at.Problem(); ferr == nil {
+				p = full
+			}
+		}
 	} else {
 		p, err = s.Problem()
 	}
