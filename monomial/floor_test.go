@@ -2,8 +2,10 @@ package monomial
 
 import (
 	"fmt"
+	"math/big"
 	"math/rand/v2"
 	"slices"
+	"strings"
 	"testing"
 )
 
@@ -37,12 +39,24 @@ func TestFloor(t *testing.T) {
 	}
 	rng := rand.New(rand.NewPCG(1, 11))
 	const D, higher = 7, 12
-	for _, src := range exprs {
-		plain, err := Parse(src, Config{Order: D})
+	half := map[string]*big.Rat{"a": big.NewRat(1, 2)}
+	for i := range 2 * len(exprs) {
+		src := exprs[i%len(exprs)]
+		var at map[string]*big.Rat
+		if i >= len(exprs) {
+			if !strings.Contains(src, "a") {
+				continue
+			}
+			at = half // also at a point: a = 1/2
+		}
+		plain, err := Parse(src, Config{Order: D, At: at})
 		if err != nil {
+			if at != nil {
+				continue // no rational expansion there
+			}
 			t.Fatalf("%s: %v", src, err)
 		}
-		ref, err := Parse(src, Config{Order: higher})
+		ref, err := Parse(src, Config{Order: higher, At: at})
 		if err != nil {
 			t.Fatalf("%s at %d: %v", src, higher, err)
 		}
@@ -68,7 +82,7 @@ func TestFloor(t *testing.T) {
 			floors = append(floors, f)
 		}
 		for _, floor := range floors {
-			got, err := Parse(src, Config{Order: D, Floor: floor})
+			got, err := Parse(src, Config{Order: D, Floor: floor, At: at})
 			if err != nil {
 				t.Fatalf("%s floor %v: %v", src, floor, err)
 			}

@@ -86,8 +86,9 @@ type Expansion struct {
 	// division by a non-constant, a negative or fractional power of a
 	// non-constant) that was truncated at Order, or, in series mode, an
 	// exact part whose full expansion exceeded the Limits and was truncated
-	// at Order instead. False means Poly is exactly the value of the
-	// expression. It equals len(Remainder) > 0.
+	// at Order instead, or (with Config.Floor) terms that strictly dominate
+	// a floor point were dropped. False means Poly is exactly the value of
+	// the expression. It equals len(Remainder) > 0.
 	Truncated bool
 	// Remainder certifies what Poly misses: every term of the value of
 	// the expression minus Poly, as a formal power series, is a multiple
