@@ -89,17 +89,20 @@
 //
 // # Truncated series
 //
-// A truncated series differs from the true K by terms of total degree above
-// Problem.Order, which can only raise the Newton value when they are added.
-// Bound certifies that they lie strictly above every optimal supporting
-// hyperplane at t_τ·τ (then the value is that of the full K: UpperBound or
-// better) and, for Exact, above every compact face (then the face verdicts
-// carry over); otherwise the value is Uncertified. Both checks are exact and
-// need no facet enumeration; see Truncation. When the caller knows more,
-// Problem.Remainder lists monomials that every omitted term is a multiple of
-// (monomial.Expansion.Remainder); the same two conditions are then checked
-// for those monomials, which certifies shapes such as a²b²·(a unit) that no
-// total degree can.
+// A truncated series differs from the true K by omitted terms. Bound
+// certifies that they lie strictly above one optimal supporting hyperplane
+// at t_τ·τ (then the value is that of the full K: UpperBound or better) and,
+// for Exact, in the polyhedron on no compact face (then the face verdicts
+// carry over); otherwise the value is Uncertified. What is known of the
+// omitted terms is either their total degree (above Problem.Order) or,
+// finer, Problem.Remainder: monomials that every omitted term is a multiple
+// of (monomial.Expansion.Remainder), which certifies shapes such as
+// a²b²·(a unit) that no total degree can. Both checks are exact LPs and need
+// no facet enumeration; see Truncation. Spec.Bound with Order = OrderAuto
+// raises the order until the check passes, and from the second order on
+// expands with a floor (monomial.Config.Floor): terms strictly above the
+// exact part of the previous order are dropped into the remainder as the
+// expansion proceeds, which the check then certifies without an LP.
 //
 // # Numerical estimates
 //
