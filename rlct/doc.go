@@ -87,6 +87,24 @@
 // for the ideal I = ⟨g_1, …, g_r⟩, the face polynomials are Σ (g_i on the
 // face)², and nothing is expanded.
 //
+// # Changes of coordinates
+//
+// λ and θ do not change under an analytic change of coordinates at the
+// point that keeps the prior smooth and positive where it moves a
+// coordinate, while the Newton value of K may. Before the polyhedron is
+// read, Bound therefore splits off the regular directions at the point
+// (generators, or the quadratic part, of full linear rank are solved for as
+// many coordinates, exactly or as certified series, and λ = r/2 + λ(core),
+// θ = θ(core); Result.Reduction) and repairs degenerate edges along their
+// rational roots (x_j → x_j + c·w^m; Result.Repair); in two variables with a
+// uniform prior, Varchenko's criterion for adapted coordinates can certify λ
+// alone (Result.LambdaCertified). Every change is listed (Result.Changes)
+// with what is needed to replay it, and a changed answer replaces the plain
+// Newton value only when its status is stronger or it is a smaller bound.
+// Options.NoReduction and Options.NoRepair give the Newton value of K as
+// written. The soundness arguments are in the doc comments of reduce.go,
+// eliminate.go and repair.go.
+//
 // # Truncated series
 //
 // A truncated series differs from the true K by omitted terms. Bound
