@@ -248,15 +248,15 @@ func TestEstimateSVG(t *testing.T) {
 			t.Errorf("no element of class %q", class)
 		}
 	}
-	if b := byClass(els, "bound"); len(b) == 1 && b[0].attrs["stroke-dasharray"] == "" {
+	if b := byClass(els, "bound"); len(b) == 1 && b[0].Attrs["stroke-dasharray"] == "" {
 		t.Error("the bound line is not dashed")
 	}
 	label := byClass(els, "bound-label")
-	if len(label) != 1 || !strings.Contains(label[0].text, "λ = 1") || !strings.Contains(label[0].text, "upper bound") {
+	if len(label) != 1 || !strings.Contains(label[0].Text, "λ = 1") || !strings.Contains(label[0].Text, "upper bound") {
 		t.Errorf("bound label %q", texts(label))
 	}
-	if fit := byClass(els, "fit"); len(fit) == 1 && len(strings.Fields(fit[0].attrs["points"])) < 50 {
-		t.Errorf("the fitted curve has only %d points", len(strings.Fields(fit[0].attrs["points"])))
+	if fit := byClass(els, "fit"); len(fit) == 1 && len(strings.Fields(fit[0].Attrs["points"])) < 50 {
+		t.Errorf("the fitted curve has only %d points", len(strings.Fields(fit[0].Attrs["points"])))
 	}
 	all := strings.Join(texts(els[:1]), "")
 	for _, want := range []string{"not a proof", "λ̂ =", "θ̂ =", "probably strict", "Newton bound", "10⁴"} {

@@ -1,25 +1,23 @@
 package main
 
 import (
-	"bytes"
-	"encoding/xml"
-	"fmt"
-	"io"
-	"math"
-	"strconv"
-	"strings"
 	"testing"
+
+	"github.com/lctkit/lctkit/internal/svg/svgtest"
 )
 
 // Helpers that read the SVG pictures the command writes.
 
-// svgElement is one element of a parsed SVG: its name, attributes, and all
-// the character data inside it (including that of child elements).
-type svgElement struct {
-	name  string
-	attrs map[string]string
-	text  string
-}
+// The reading of SVG documents is shared with rlct/picture's tests.
+type svgElement = svgtest.Element
+
+var (
+	decodeSVG   = svgtest.Decode
+	checkFinite = svgtest.CheckFinite
+	byClass     = svgtest.ByClass
+	texts       = svgtest.Texts
+	attrFloat   = svgtest.AttrFloat
+)
 
 // parseSVG reads the picture as XML, failing the test if it is not
 // well-formed.
@@ -30,88 +28,4 @@ func parseSVG(t *testing.T, data []byte) []*svgElement {
 		t.Fatalf("the SVG is not well-formed XML: %v", err)
 	}
 	return els
-}
-
-func decodeSVG(data []byte) ([]*svgElement, error) {
-	dec := xml.NewDecoder(bytes.NewReader(data))
-	var all, open []*svgElement
-	for {
-		tok, err := dec.Token()
-		if err == io.EOF {
-			break
-		}
-		if err != nil {
-			return nil, err
-		}
-		switch tok := tok.(type) {
-		case xml.StartElement:
-			el := &svgElement{name: tok.Name.Local, attrs: map[string]string{}}
-			for _, a := range tok.Attr {
-				el.attrs[a.Name.Local] = a.Value
-			}
-			all = append(all, el)
-			open = append(open, el)
-		case xml.EndElement:
-			open = open[:len(open)-1]
-		case xml.CharData:
-			for _, el := range open {
-				el.text += string(tok)
-			}
-		}
-	}
-	if len(all) == 0 || all[0].name != "svg" {
-		return nil, fmt.Errorf("no svg root element")
-	}
-	return all, nil
-}
-
-// checkFinite checks that every coordinate in the picture is a finite
-// number.
-func checkFinite(els []*svgElement) error {
-	finite := func(v string) bool {
-		f, err := strconv.ParseFloat(v, 64)
-		return err == nil && !math.IsNaN(f) && !math.IsInf(f, 0)
-	}
-	for _, el := range els {
-		for _, name := range []string{"x", "y", "x1", "y1", "x2", "y2", "cx", "cy", "r", "width", "height"} {
-			if v, ok := el.attrs[name]; ok && !strings.HasSuffix(v, "%") && !finite(v) {
-				return fmt.Errorf("<%s %s=%q>", el.name, name, v)
-			}
-		}
-		for _, p := range strings.Fields(el.attrs["points"]) {
-			x, y, _ := strings.Cut(p, ",")
-			if !finite(x) || !finite(y) {
-				return fmt.Errorf("<%s points=%q>", el.name, el.attrs["points"])
-			}
-		}
-	}
-	return nil
-}
-
-// byClass returns the elements with the class.
-func byClass(els []*svgElement, class string) []*svgElement {
-	var out []*svgElement
-	for _, el := range els {
-		if el.attrs["class"] == class {
-			out = append(out, el)
-		}
-	}
-	return out
-}
-
-func texts(els []*svgElement) []string {
-	out := make([]string, len(els))
-	for i, el := range els {
-		out[i] = el.text
-	}
-	return out
-}
-
-func attrFloat(t *testing.T, el *svgElement, name string) float64 {
-	t.Helper()
-	v, err := strconv.ParseFloat(el.attrs[name], 64)
-	if err != nil {
-		t.Fatalf("<%s> attribute %s=%q: %v", el.name, name, el.attrs[name], err)
-	}
-	return v
 }

@@ -272,8 +272,8 @@ func checkPicture(t *testing.T, els []*svgElement, vertices, result, caption, cl
 		t.Fatalf("%d result lines", len(res))
 	}
 	for _, want := range result {
-		if !strings.Contains(res[0].text, want) {
-			t.Errorf("caption %q lacks %q", res[0].text, want)
+		if !strings.Contains(res[0].Text, want) {
+			t.Errorf("caption %q lacks %q", res[0].Text, want)
 		}
 	}
 	all := strings.Join(texts(byClass(els, "caption-text")), " ")
@@ -341,21 +341,21 @@ func checkPrincipal(t *testing.T, els []*svgElement, shape string) {
 	switch {
 	case shape == "vertex":
 		c := circleCentre(t, el)
-		if el.name != "circle" || !atDot(c, dots) || c.Dist(h) > 0.15 {
-			t.Errorf("the principal vertex is <%s> at %v; vertices %v, hit point %v", el.name, c, dots, h)
+		if el.Name != "circle" || !atDot(c, dots) || c.Dist(h) > 0.15 {
+			t.Errorf("the principal vertex is <%s> at %v; vertices %v, hit point %v", el.Name, c, dots, h)
 		}
 	case shape == "edge":
 		a, b := lineEnds(t, el)
-		if el.name != "line" || !atDot(a, dots) || !atDot(b, dots) {
-			t.Errorf("the principal edge is <%s> %v–%v; vertices %v", el.name, a, b, dots)
+		if el.Name != "line" || !atDot(a, dots) || !atDot(b, dots) {
+			t.Errorf("the principal edge is <%s> %v–%v; vertices %v", el.Name, a, b, dots)
 		}
 		if d := distToSegment(h, a, b); d > 0.5 {
 			t.Errorf("the hit point %v is %.2f px off the principal edge %v–%v", h, d, a, b)
 		}
 	case shape == "ray":
 		a, b := lineEnds(t, el)
-		if el.name != "line" || !atDot(a, dots) || atDot(b, dots) {
-			t.Errorf("the principal ray is <%s> %v–%v; vertices %v", el.name, a, b, dots)
+		if el.Name != "line" || !atDot(a, dots) || atDot(b, dots) {
+			t.Errorf("the principal ray is <%s> %v–%v; vertices %v", el.Name, a, b, dots)
 		}
 		if d := distToSegment(h, a, b); d > 0.5 {
 			t.Errorf("the hit point %v is %.2f px off the principal ray %v–%v", h, d, a, b)
@@ -372,8 +372,8 @@ func checkPrincipal(t *testing.T, els []*svgElement, shape string) {
 				n++
 			}
 		}
-		if el.name != "polygon" || len(pts) != corners || n != onVertices {
-			t.Errorf("the principal face is <%s> with %d corners, %d on vertices; want %d and %d", el.name, len(pts), n, corners, onVertices)
+		if el.Name != "polygon" || len(pts) != corners || n != onVertices {
+			t.Errorf("the principal face is <%s> with %d corners, %d on vertices; want %d and %d", el.Name, len(pts), n, corners, onVertices)
 		}
 		if !insideConvex(h, pts) {
 			t.Errorf("the hit point %v is outside the principal face %v", h, pts)
@@ -405,7 +405,7 @@ func checkFlagged(t *testing.T, els []*svgElement) {
 	for _, class := range []string{"degenerate", "undetermined"} {
 		for _, el := range byClass(els, class) {
 			var pts []point
-			if el.name == "line" {
+			if el.Name == "line" {
 				a, b := lineEnds(t, el)
 				pts = []point{a, b}
 			} else {
@@ -413,7 +413,7 @@ func checkFlagged(t *testing.T, els []*svgElement) {
 			}
 			for _, p := range pts {
 				if !atDot(p, dots) {
-					t.Errorf("the %s face <%s> has a corner %v off the vertices %v", class, el.name, p, dots)
+					t.Errorf("the %s face <%s> has a corner %v off the vertices %v", class, el.Name, p, dots)
 				}
 			}
 		}
@@ -444,9 +444,9 @@ func TestFlaggedMarks(t *testing.T) {
 		}{{"degenerate", tt.degenerate, "0.1 9"}, {"undetermined", tt.undetermined, "10 5"}} {
 			var got []string
 			for _, el := range byClass(els, c.class) {
-				got = append(got, el.name)
-				if el.attrs["stroke-dasharray"] != c.dash {
-					t.Errorf("K = %s: a %s mark is dashed %q, want %q", tt.spec.K, c.class, el.attrs["stroke-dasharray"], c.dash)
+				got = append(got, el.Name)
+				if el.Attrs["stroke-dasharray"] != c.dash {
+					t.Errorf("K = %s: a %s mark is dashed %q, want %q", tt.spec.K, c.class, el.Attrs["stroke-dasharray"], c.dash)
 				}
 			}
 			if !slices.Equal(got, c.want) {
