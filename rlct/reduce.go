@@ -39,9 +39,14 @@ type Reduction struct {
 	// generators one at a time (see Elimination): the core is then an
 	// exact polynomial, and replaying the steps on the generators gives K.
 	Eliminations []Elimination `json:"eliminations,omitempty"`
+	// Completions, when set, are the exact steps that completed the
+	// square in polynomial form, one coordinate at a time (see
+	// Completion): the core is then the exact polynomial of the last step,
+	// and the Solution of each step is x = −B/(2A).
+	Completions []Completion `json:"completions,omitempty"`
 	// K holds the core after the reduction (in sum-of-squares form its
 	// generators), in the offsets from the point, when it is exact and
-	// found by Eliminations.
+	// found by Eliminations or Completions.
 	K []string `json:"k,omitempty"`
 	// Order is 0 when the solution and the core are exact, otherwise the
 	// total degree at which the core (a series) was cut; the core's
@@ -191,6 +196,12 @@ func reduce(ctx context.Context, l *Local, order int, truncated bool, opt *Optio
 			return red, res, why, err
 		}
 	}
+	if !l.SumOfSquares && !truncated {
+		red, res, why, err := reduceCompleted(ctx, l, sys.pivots, opt, red)
+		if err != nil || red != nil || why != "" {
+			return red, res, why, err
+		}
+	}
 	D := order
 	if !truncated {
 		D = defaultReduceOrder
@@ -254,6 +265,34 @@ func reduceExact(ctx context.Context, l *Local, cols []int, rank int, opt *Optio
 		red.K = append(red.K, q.String())
 	}
 	res, why, err := boundCore(ctx, l, el.core, el.pivots, false, 0, opt, red)
+	if err != nil || res == nil {
+		return nil, nil, why, err
+	}
+	return red, res, "", nil
+}
+
+// reduceCompleted runs completeSquares on K (polynomial form) for the
+// pivots of the LDLᵀ and, when it splits off all of them, bounds the exact
+// polynomial core. It returns a nil Reduction and an empty reason when the
+// series solve should be tried instead (some direction could not be split
+// off this way, or the polynomials grew too large).
+func reduceCompleted(ctx context.Context, l *Local, pivots []int, opt *Options, red *Reduction) (*Reduction, *Result, string, error) {
+	cs, err := completeSquares(l.Polys[0], pivots, len(pivots))
+	if errors.Is(err, errTooLarge) || cs == nil || len(cs.pivots) != len(pivots) {
+		return nil, nil, "", nil
+	}
+	if err != nil {
+		return nil, nil, "", err
+	}
+	red.Solved, red.Solution = nil, nil
+	for k, j := range cs.pivots {
+		red.Solved = append(red.Solved, l.Vars[j])
+		red.Solution = append(red.Solution, cs.solution(l.Vars, k))
+	}
+	red.Completions = cs.steps
+	red.Order = 0
+	red.K = []string{cs.core.String()}
+	res, why, err := boundCore(ctx, l, []*monomial.Poly{cs.core}, cs.pivots, false, 0, opt, red)
 	if err != nil || res == nil {
 		return nil, nil, why, err
 	}
@@ -760,6 +799,10 @@ func (r *Reduction) describe() string {
 		}
 		fmt.Fprintf(&b, "generator%s %s solved for %s", plural(len(gs)), strings.Join(gs, ", "), strings.Join(r.Solved, ", "))
 	default:
+		if len(r.Completions) > 0 {
+			fmt.Fprintf(&b, "quadratic part of rank %d split off by completing the square in %s", r.Rank, strings.Join(r.Solved, ", "))
+			break
+		}
 		fmt.Fprintf(&b, "quadratic part of rank %d split off by solving ∂K/∂%s = 0", r.Rank, strings.Join(r.Solved, ", ∂K/∂"))
 	}
 	return b.String()
