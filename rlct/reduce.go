@@ -19,7 +19,8 @@ type Reduction struct {
 	// Kind is "generators" (sum-of-squares form: r generators with
 	// linearly independent linear parts were solved for r coordinates) or
 	// "quadratic" (polynomial form: K's quadratic part has rank r, and
-	// ∂K/∂x = 0 was solved for r coordinates, the splitting lemma).
+	// ∂K/∂x = 0 was solved for r coordinates, the splitting lemma, or the
+	// square was completed in them, see Completions).
 	Kind string `json:"kind"`
 	// Rank is r, the number of regular directions split off; they
 	// contribute r/2 to λ.
@@ -124,6 +125,13 @@ const (
 // f(v) = K(φ(v), v) and A(0) = Q_PP positive definite (the splitting lemma
 // with parameters). f ≥ 0 because K ≥ 0, so near 0, K is comparable to
 // |w|² + f(v), and 1–3 give λ = r/2 + λ(f), θ = θ(f).
+//
+// Polynomial form, exactly. When K has degree 2 in a pivot x with an x²
+// coefficient that is a unit at the point, the square is completed
+// (completeSquares, whose comment has the argument): K is comparable to
+// u² + (4AC − B²)(v), an exact polynomial core, and this is repeated on
+// the core. It is used only when it splits off every pivot of the LDLᵀ;
+// otherwise the series below is used.
 //
 // Series. φ is computed exactly up to a total degree D (solveSeries); when
 // it is not exact (checked by exact substitution) the core is a series cut

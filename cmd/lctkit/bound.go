@@ -539,6 +539,9 @@ const maxCoreText = 2000
 func writeReduction(w io.Writer, r *rlct.Result, indent string) {
 	red := r.Reduction
 	how := "solved ∂K/∂" + strings.Join(red.Solved, " = ∂K/∂") + " = 0 (the quadratic part has rank " + strconv.Itoa(red.Rank) + ")"
+	if len(red.Completions) > 0 {
+		how = "completed the square in " + strings.Join(red.Solved, ", ") + " (the quadratic part has rank " + strconv.Itoa(red.Rank) + ")"
+	}
 	if red.Kind == "generators" {
 		gs := make([]string, len(red.Generators))
 		for i, g := range red.Generators {
@@ -555,6 +558,16 @@ func writeReduction(w io.Writer, r *rlct.Result, indent string) {
 			fmt.Fprintf(w, "%score generators: %s\n", indent, core)
 		} else {
 			fmt.Fprintf(w, "%score generators: %d polynomials (listed by --json)\n", indent, len(red.K))
+		}
+	}
+	if len(red.Completions) > 0 {
+		fmt.Fprintf(w, "%scompleted the square exactly, one coordinate at a time, each in the coordinates left by the ones before: K = A·x² + B·x + C with A a unit at the point becomes the core 4·A·C − B²\n", indent)
+		for _, st := range red.Completions {
+			if len(st.A)+len(st.B)+len(st.Core) <= maxCoreText {
+				fmt.Fprintf(w, "%s  %s: A = %s, B = %s, 4·A·C − B² = %s\n", indent, st.Variable, st.A, st.B, st.Core)
+			} else {
+				fmt.Fprintf(w, "%s  %s: (listed by --json)\n", indent, st.Variable)
+			}
 		}
 	}
 	if len(red.Free) > 0 {
