@@ -70,8 +70,9 @@ func TestStatusWords(t *testing.T) {
 	}{
 		{[]string{"x^2 + y^10", "--order", "8"}, "exact", []string{"λ = 3/5", "(exact)"}},
 		{[]string{"(x-y)^2", "--no-reduce"}, "upper-bound", []string{"(upper bound)", "θ is ordered together with λ"}},
-		// Through the reduction u = x − y (hand: λ = 1/2, y free).
-		{[]string{"(x-y)^2"}, "exact", []string{"(exact)", "reduction: solved ∂K/∂x = 0", "free directions (contribute 0): y", "without the reduction: λ = 1, θ = 1 (upper bound)"}},
+		// Through the reduction u = x − y, by completing the square: A = 1,
+		// B = −2y, C = y², 4AC − B² = 0 (hand: λ = 1/2, y free).
+		{[]string{"(x-y)^2"}, "exact", []string{"(exact)", "reduction: completed the square in x", "4·A·C − B² = 0", "free directions (contribute 0): y", "without the reduction: λ = 1, θ = 1 (upper bound)"}},
 		{[]string{"z^2 + x^2*sin(y)^2", "--order", "3"}, "uncertified", []string{"(NOT A BOUND)", "not a bound", "may lie below"}},
 		{[]string{"(x - tanh(x))^2 + y^2", "--order", "4"}, "uncertified", []string{"(NOT A BOUND)", "may lie below"}},
 		// sin(x)^8 cut at degree 6 leaves only its remainder x^8, which
