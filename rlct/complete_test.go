@@ -55,14 +55,7 @@ var completeTests = []struct {
 func TestCompleteSquares(t *testing.T) {
 	for _, tc := range completeTests {
 		t.Run(tc.name, func(t *testing.T) {
-			p, err := tc.spec.Problem()
-			if err != nil {
-				t.Fatal(err)
-			}
-			r, err := Bound(context.Background(), p, nil)
-			if err != nil {
-				t.Fatal(err)
-			}
+			local, r := specAtPoint(t, tc.spec)
 			want, _ := new(big.Rat).SetString(tc.lambda)
 			if r.Status != Exact || r.Lambda.Cmp(want) != 0 || r.Theta != tc.theta {
 				t.Errorf("λ = %s, θ = %d (%s), want %s, %d exact; notes %q", r.Lambda.RatString(), r.Theta, r.Status, tc.lambda, tc.theta, r.Notes)
@@ -71,11 +64,7 @@ func TestCompleteSquares(t *testing.T) {
 			if red == nil || len(red.Completions) != tc.steps || red.Order != 0 || len(red.K) != 1 {
 				t.Fatalf("reduction %+v, want %d completions and an exact core", red, tc.steps)
 			}
-			locals, err := p.Locals()
-			if err != nil {
-				t.Fatal(err)
-			}
-			vars := locals[0].Vars
+			vars := local.Vars
 			if got, want := parseIn(t, vars, red.K[0]), parseIn(t, vars, tc.core); !got.Equal(want) {
 				t.Errorf("core %s, want %s", got, want)
 			}
@@ -118,24 +107,13 @@ func TestCompleteReplay(t *testing.T) {
 	}
 	for _, tc := range cases {
 		t.Run(tc.name, func(t *testing.T) {
-			p, err := tc.sp.Problem()
-			if err != nil {
-				t.Fatal(err)
-			}
-			locals, err := p.Locals()
-			if err != nil {
-				t.Fatal(err)
-			}
-			r, err := Bound(context.Background(), p, nil)
-			if err != nil {
-				t.Fatal(err)
-			}
+			local, r := specAtPoint(t, tc.sp)
 			red := r.Reduction
 			if red == nil || len(red.Completions) == 0 {
 				t.Skipf("no completion (reduction %+v, notes %q)", red, r.Notes)
 			}
-			vars := locals[0].Vars
-			cur := locals[0].Polys[0]
+			vars := local.Vars
+			cur := local.Polys[0]
 			for _, st := range red.Completions {
 				j := slices.Index(vars, st.Variable)
 				a, b := parseIn(t, vars, st.A), parseIn(t, vars, st.B)

@@ -353,24 +353,13 @@ func TestReduceReplay(t *testing.T) {
 	} {
 		sp := tc.sp
 		t.Run(tc.name, func(t *testing.T) {
-			p, err := sp.Problem()
-			if err != nil {
-				t.Fatal(err)
-			}
-			locals, err := p.Locals()
-			if err != nil {
-				t.Fatal(err)
-			}
-			r, err := Bound(context.Background(), p, nil)
-			if err != nil {
-				t.Fatal(err)
-			}
+			local, r := specAtPoint(t, sp)
 			red := r.Reduction
 			if red == nil || len(red.Eliminations) == 0 {
 				t.Fatalf("no exact reduction: %+v (notes %q)", red, r.Notes)
 			}
-			vars := locals[0].Vars
-			polys := slices.Clone(locals[0].Polys)
+			vars := local.Vars
+			polys := slices.Clone(local.Polys)
 			alive := make([]bool, len(polys))
 			for i := range alive {
 				alive[i] = true
@@ -434,4 +423,24 @@ func TestReduceReplay(t *testing.T) {
 			}
 		})
 	}
+}
+
+// specAtPoint parses sp and bounds it, failing the test on an error; it
+// returns the problem at its (single) point, as Bound analyses it, with the
+// result.
+func specAtPoint(t *testing.T, sp Spec) (*Local, *Result) {
+	t.Helper()
+	p, err := sp.Problem()
+	if err != nil {
+		t.Fatal(err)
+	}
+	locals, err := p.Locals()
+	if err != nil {
+		t.Fatal(err)
+	}
+	r, err := Bound(context.Background(), p, nil)
+	if err != nil {
+		t.Fatal(err)
+	}
+	return locals[0], r
 }
