@@ -20,7 +20,13 @@ type Completion struct {
 	// from A and B alone.
 	A string `json:"a"`
 	B string `json:"b"`
-	// Core is 4·A·C − B², the K of the next step (or the final core).
+	// Divisor, when set, is a polynomial u with u(0) > 0 (a product of A's
+	// of this step and the ones before, and of a positive constant) that
+	// divides 4·A·C − B² exactly; Core is then the quotient, so that
+	// 4·A·C − B² = Divisor·Core (see divideCore).
+	Divisor string `json:"divisor,omitempty"`
+	// Core is (4·A·C − B²)/Divisor (4·A·C − B² without a Divisor), the K of
+	// the next step (or the final core).
 	Core string `json:"core"`
 }
 
@@ -38,7 +44,9 @@ type exactCompletion struct {
 // the LDLᵀ of quadraticSystem chose, all with τ = 1). At each step it takes
 // the first remaining pivot x, in the order of pivots, in which the current
 // K is K = A·x² + B·x + C (degree exactly 2 in x; A, B, C free of x) with
-// A(0) > 0, B(0) = 0 and C(0) = 0, and replaces K by E = 4·A·C − B². It
+// A(0) > 0, B(0) = 0 and C(0) = 0, and replaces K by E = 4·A·C − B²,
+// divided by what divideCore finds dividing it exactly (units at the
+// point: the A's of the steps so far and a positive constant). It
 // stops after want steps or when no pivot qualifies; it returns nil when
 // no step applies, and errTooLarge when a polynomial would exceed
 // maxSubstTerms.
@@ -64,6 +72,9 @@ type exactCompletion struct {
 //	    max(c', 1/(4c))·(u² + E) near 0: K is comparable to u² + E(v), and
 //	    points 2–3 of reduce give λ(K) = 1/2 + λ(E), θ(K) = θ(E), E in the
 //	    coordinates other than x, with the prior of K restricted to them.
+//	 4. Replacing E by E/u, u a polynomial with u(0) > 0 dividing it
+//	    exactly, keeps 2–3: E/u ≥ 0 near 0 and is comparable to E (see
+//	    divideCore).
 //
 // By induction, after k steps λ(K) = k/2 + λ(E_k) and θ(K) = θ(E_k). Every
 // polynomial is computed exactly (math/big coefficients through monomial),
@@ -98,7 +109,16 @@ func completeSquares(K *monomial.Poly, pivots []int, want int) (*exactCompletion
 			if e.Len() > maxSubstTerms {
 				return nil, errTooLarge
 			}
-			out.steps = append(out.steps, Completion{Variable: vars[x], A: a.String(), B: b.String(), Core: e.String()})
+			units := []*monomial.Poly{a}
+			for k := len(out.coef) - 1; k >= 0; k-- {
+				units = append(units, out.coef[k][0])
+			}
+			e, u := divideCore(e, units)
+			st := Completion{Variable: vars[x], A: a.String(), B: b.String(), Core: e.String()}
+			if u != nil {
+				st.Divisor = u.String()
+			}
+			out.steps = append(out.steps, st)
 			out.pivots = append(out.pivots, x)
 			out.coef = append(out.coef, [2]*monomial.Poly{a, b})
 			cur = e
@@ -115,6 +135,94 @@ func completeSquares(K *monomial.Poly, pivots []int, want int) (*exactCompletion
 	}
 	out.core = cur
 	return out, nil
+}
+
+// divideCore divides the core e = 4AC − B² of a completion by factors that
+// are units at the point and divide it exactly: by each non-constant w of
+// units (the A of this step and of the steps before; completeSquares
+// passes them latest first) as many times as e = w·s exactly (at most
+// maxUnitPower times each), then by the positive rational content of what
+// is left (the c > 0 making the coefficients coprime integers). It returns
+// the quotient and the product u of what was divided out, nil when nothing
+// was. A division that would exceed maxSubstTerms terms or maxDivideWork
+// is skipped, as is one that is not exact.
+//
+// Soundness. Every w used has w(0) > 0 (checked here; completeSquares
+// takes a pivot only when its A is positive at 0) and the content is a
+// positive constant, so u is a polynomial with u(0) > 0: on a
+// neighbourhood of 0, c ≤ u ≤ c' for constants 0 < c ≤ c'. The division
+// is exact, checked term by term
+// (monomial.DivExact stops with "not divisible" on a non-zero remainder),
+// so e = u·s as polynomials, and near 0, c·s ≤ e ≤ c'·s with s ≥ 0 (e ≥ 0
+// and u > 0) and s(0) = e(0)/u(0) = 0. Hence s is a nonnegative polynomial
+// vanishing at 0, comparable to e: it has the same λ and θ under any prior,
+// and the next step may be taken on it just as on e (point 2 of
+// completeSquares holds for s as for e). Dividing by the A of the step
+// before is the exact division of fraction-free (Bareiss) elimination,
+// which keeps the degrees of the cores from growing at every step; with
+// polynomial coefficients no division is assumed to be exact: each is
+// attempted and used only when its remainder is zero.
+func divideCore(e *monomial.Poly, units []*monomial.Poly) (*monomial.Poly, *monomial.Poly) {
+	var u *monomial.Poly
+	for _, w := range units {
+		if w.IsConstant() || w.ConstantTerm().Sign() <= 0 {
+			continue
+		}
+		for range maxUnitPower {
+			if e.IsZero() {
+				break
+			}
+			// A division refused by its limits is not taken: not
+			// dividing is always sound, the core only stays larger.
+			s, ok, err := e.DivExact(w, monomial.Limits{MaxTerms: maxSubstTerms, MaxWork: maxDivideWork})
+			if err != nil || !ok {
+				break
+			}
+			e = s
+			if u == nil {
+				u = w
+			} else {
+				u = u.Mul(w)
+			}
+		}
+	}
+	if c := content(e); c != nil && c.Cmp(big.NewRat(1, 1)) != 0 {
+		e = e.Scale(new(big.Rat).Inv(c))
+		if u == nil {
+			u = monomial.Constant(e.Vars(), c)
+		} else {
+			u = u.Scale(c)
+		}
+	}
+	return e, u
+}
+
+// maxUnitPower bounds how many times divideCore divides by one unit, and
+// maxDivideWork the work of one division (monomial.Limits.MaxWork).
+const (
+	maxUnitPower  = 16
+	maxDivideWork = 50_000_000
+)
+
+// content returns the positive rational c such that q/c has coprime
+// integer coefficients (the gcd of the numerators over the lcm of the
+// denominators), or nil for q = 0.
+func content(q *monomial.Poly) *big.Rat {
+	var num, den *big.Int
+	for _, c := range q.All() {
+		n := new(big.Int).Abs(c.Num())
+		if num == nil {
+			num, den = n, new(big.Int).Set(c.Denom())
+			continue
+		}
+		num.GCD(nil, nil, num, n)
+		g := new(big.Int).GCD(nil, nil, den, c.Denom())
+		den.Mul(den, new(big.Int).Quo(c.Denom(), g))
+	}
+	if num == nil {
+		return nil
+	}
+	return new(big.Rat).SetFrac(num, den)
 }
 
 // splitByDegree writes q = Σ_k c_k·x_j^k with c_k free of x_j and returns

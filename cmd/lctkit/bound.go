@@ -561,9 +561,13 @@ func writeReduction(w io.Writer, r *rlct.Result, indent string) {
 		}
 	}
 	if len(red.Completions) > 0 {
-		fmt.Fprintf(w, "%scompleted the square exactly, one coordinate at a time, each in the coordinates left by the ones before: K = A·x² + B·x + C with A a unit at the point becomes the core 4·A·C − B²\n", indent)
+		fmt.Fprintf(w, "%scompleted the square exactly, one coordinate at a time, each in the coordinates left by the ones before: K = A·x² + B·x + C with A a unit at the point becomes the core 4·A·C − B², divided by the units at the point that divide it exactly (the A's so far, a positive constant)\n", indent)
 		for _, st := range red.Completions {
-			if len(st.A)+len(st.B)+len(st.Core) <= maxCoreText {
+			if len(st.A)+len(st.B)+len(st.Divisor)+len(st.Core) <= maxCoreText {
+				if st.Divisor != "" {
+					fmt.Fprintf(w, "%s  %s: A = %s, B = %s, (4·A·C − B²)/(%s) = %s\n", indent, st.Variable, st.A, st.B, st.Divisor, st.Core)
+					continue
+				}
 				fmt.Fprintf(w, "%s  %s: A = %s, B = %s, 4·A·C − B² = %s\n", indent, st.Variable, st.A, st.B, st.Core)
 			} else {
 				fmt.Fprintf(w, "%s  %s: (listed by --json)\n", indent, st.Variable)

@@ -73,6 +73,9 @@ func TestStatusWords(t *testing.T) {
 		// Through the reduction u = x − y, by completing the square: A = 1,
 		// B = −2y, C = y², 4AC − B² = 0 (hand: λ = 1/2, y free).
 		{[]string{"(x-y)^2"}, "exact", []string{"(exact)", "reduction: completed the square in x", "4·A·C − B² = 0", "free directions (contribute 0): y", "without the reduction: λ = 1, θ = 1 (upper bound)"}},
+		// x² − 2xy + y² + z⁴: A = 1, B = −2y, C = y² + z⁴, 4AC − B² = 4z⁴,
+		// whose content 4 is divided out (hand: λ = 1/2 + 1/4 = 3/4).
+		{[]string{"x^2 - 2*x*y + y^2 + z^4"}, "exact", []string{"λ = 3/4", "(exact)", "(4·A·C − B²)/(4) = z^4"}},
 		{[]string{"z^2 + x^2*sin(y)^2", "--order", "3"}, "uncertified", []string{"(NOT A BOUND)", "not a bound", "may lie below"}},
 		{[]string{"(x - tanh(x))^2 + y^2", "--order", "4"}, "uncertified", []string{"(NOT A BOUND)", "may lie below"}},
 		// sin(x)^8 cut at degree 6 leaves only its remainder x^8, which
