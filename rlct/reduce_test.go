@@ -364,17 +364,7 @@ func TestReduceReplay(t *testing.T) {
 			for i := range alive {
 				alive[i] = true
 			}
-			parse := func(s string) *monomial.Poly {
-				e, err := monomial.Parse(s, monomial.Config{Vars: vars})
-				if err != nil {
-					t.Fatal(err)
-				}
-				q, err := e.Poly.Embed(vars)
-				if err != nil {
-					t.Fatal(err)
-				}
-				return q
-			}
+			parse := func(s string) *monomial.Poly { return parseIn(t, vars, s) }
 			for _, st := range red.Eliminations {
 				j := slices.Index(vars, st.Variable)
 				num, den := parse(st.Numerator), parse(st.Denominator)
